@@ -1,0 +1,81 @@
+import convert from 'convert-units'
+import type {
+  Elevation, Interval, IntervalUnit, Pressure, PressureBasis, PressureUnit, Temperature,
+  TemperatureUnit, Volume, VolumeUnit,
+} from './types'
+
+/**
+ * Pascals per unit. psi from NIST SP 811 (2008) App. B.9: 1 lbf/in² = 6.894 757 E+03 Pa; the
+ * full figure 6894.757293168 follows from the exact pound-force and inch definitions.
+ */
+export const PASCALS_PER: Record<PressureUnit, number> = {
+  psi: 6894.757293168,
+  bar: 1e5,
+  kPa: 1e3,
+  MPa: 1e6,
+}
+
+/** Standard atmosphere at sea level, Pa (ICAO Doc 7488 / US Standard Atmosphere 1976). */
+export const STANDARD_ATMOSPHERE_PA = 101325
+
+// convert-units supplies the volume and temperature relations; they are linear, so the
+// scale and offset are read from it once and conversions stay cheap in tight loops.
+const CONVERT_UNITS_VOLUME: Record<VolumeUnit, 'in3' | 'l' | 'cm3' | 'm3'> = { in3: 'in3', L: 'l', cm3: 'cm3', m3: 'm3' }
+
+const cubicMetresPer = Object.fromEntries(
+  (Object.keys(CONVERT_UNITS_VOLUME) as VolumeUnit[]).map(unit => [unit, convert(1).from(CONVERT_UNITS_VOLUME[unit]).to('m3')]),
+) as Record<VolumeUnit, number>
+
+const kelvinLine = Object.fromEntries(
+  (['C', 'F', 'K', 'R'] as TemperatureUnit[]).map((unit) => {
+    const offset = convert(0).from(unit).to('K')
+    return [unit, { offset, scale: convert(1).from(unit).to('K') - offset }]
+  }),
+) as Record<TemperatureUnit, { offset: number, scale: number }>
+
+export function pressureToPascalAbsolute(pressure: Pressure, ambientPa: number): number {
+  const pascals = pressure.value * PASCALS_PER[pressure.unit]
+  return pressure.basis === 'gauge' ? pascals + ambientPa : pascals
+}
+
+export function pascalAbsoluteToPressure(pascals: number, unit: PressureUnit, basis: PressureBasis, ambientPa: number): Pressure {
+  const shown = basis === 'gauge' ? pascals - ambientPa : pascals
+  return { value: shown / PASCALS_PER[unit], unit, basis }
+}
+
+/** A pressure difference (a tolerance, a drop) has no basis. */
+export function pressureDifferenceToPascal(value: number, unit: PressureUnit): number {
+  return value * PASCALS_PER[unit]
+}
+
+export function temperatureToKelvin(temperature: Temperature): number {
+  const line = kelvinLine[temperature.unit]
+  return temperature.value * line.scale + line.offset
+}
+
+export function kelvinToTemperature(kelvin: number, unit: TemperatureUnit): Temperature {
+  const line = kelvinLine[unit]
+  return { value: (kelvin - line.offset) / line.scale, unit }
+}
+
+export function volumeToCubicMetres(volume: Volume): number {
+  return volume.value * cubicMetresPer[volume.unit]
+}
+
+export function cubicMetresToVolume(cubicMetres: number, unit: VolumeUnit): Volume {
+  return { value: cubicMetres / cubicMetresPer[unit], unit }
+}
+
+export function elevationToMetres(elevation: Elevation): number {
+  return elevation.unit === 'ft' ? elevation.value * 0.3048 : elevation.value
+}
+
+const SECONDS_PER: Record<IntervalUnit, number> = { s: 1, min: 60, h: 3600 }
+
+export function intervalToSeconds(interval: Interval): number {
+  return interval.value * SECONDS_PER[interval.unit]
+}
+
+export function secondsToInterval(seconds: number, unit: IntervalUnit): Interval {
+  return { value: seconds / SECONDS_PER[unit], unit }
+}

@@ -1,0 +1,294 @@
+import { ambientPressure, describeAmbient } from './atmosphere'
+import { EngineInputError } from './errors'
+import { formatPressure } from './format'
+import {
+  changeToDensity, changeToPressure, describeModel, describeProcess, gasLaw, stateAt,
+  stateAtTemperature, type GasLaw, type GasState,
+} from './gas-law'
+import type { Ambient, GasModel, Pressure, Process, Provenance, Temperature, Volume, VolumeUnit } from './types'
+import {
+  cubicMetresToVolume, kelvinToTemperature, pascalAbsoluteToPressure, pressureToPascalAbsolute, temperatureToKelvin,
+  volumeToCubicMetres,
+} from './units'
+import { ENGINE_VERSION } from './version'
+
+/** Working limits and processes shared by the sizing calculations. */
+export interface SizingConditions {
+  precharge: Pressure
+  prechargeTemperature: Temperature
+  operatingTemperature?: Temperature
+  maxPressure: Pressure
+  minPressure: Pressure
+  charge?: Process
+  discharge?: Process
+  perApplication?: Volume
+  ambient?: Ambient
+  model?: GasModel
+}
+
+export interface UsableVolumeInput extends SizingConditions {
+  gasVolume: Volume
+}
+
+export interface UsableVolumeResult extends Provenance<UsableVolumeInput> {
+  prechargeAtOperatingTemperature: Pressure
+  gasVolumeAtMax: Volume
+  gasVolumeAtMin: Volume
+  usableVolume: Volume
+  /** Gas temperature at maximum pressure and at the end of the discharge, in the operating temperature's unit. */
+  temperatureAtMax: Temperature
+  temperatureAtMin: Temperature
+  applications?: number
+  residualPressure?: Pressure
+  /** Where the separator bottoms out before the minimum pressure: the pressure when it does. */
+  bottomOutPressure?: Pressure
+  warnings: string[]
+}
+
+/** Everything in SI, as the core works on it. */
+interface SiConditions {
+  law: GasLaw
+  ambientPa: number
+  prechargePa: number
+  prechargeK: number
+  operatingK: number
+  maxPa: number
+  minPa: number
+  charge: Process
+  discharge: Process
+}
+
+interface SiOutcome {
+  /** Fractions of the gas volume at pre-charge. */
+  atMaxFraction: number
+  atMinFraction: number
+  usableFraction: number
+  operating: GasState
+  atMax: GasState
+  atMin: GasState
+  bottomOut?: GasState
+}
+
+function toSi(input: SizingConditions): SiConditions {
+  const law = gasLaw(input.model ?? 'real')
+  const ambientPa = ambientPressure(input.ambient)
+  const si: SiConditions = {
+    law,
+    ambientPa,
+    prechargePa: pressureToPascalAbsolute(input.precharge, ambientPa),
+    prechargeK: temperatureToKelvin(input.prechargeTemperature),
+    operatingK: temperatureToKelvin(input.operatingTemperature ?? input.prechargeTemperature),
+    maxPa: pressureToPascalAbsolute(input.maxPressure, ambientPa),
+    minPa: pressureToPascalAbsolute(input.minPressure, ambientPa),
+    charge: input.charge ?? 'isothermal',
+    discharge: input.discharge ?? 'adiabatic',
+  }
+  law.checkInput(si.prechargeK, si.prechargePa, 'precharge')
+  law.checkInput(si.operatingK, si.maxPa, 'operatingTemperature')
+  law.checkInput(si.operatingK, si.minPa, 'minPressure')
+  if (si.minPa >= si.maxPa) {
+    throw new EngineInputError(
+      `The minimum working pressure (${formatPressure(input.minPressure)}) must be below the maximum (${formatPressure(input.maxPressure)}).`,
+      'minPressure',
+    )
+  }
+  if (si.prechargePa >= si.maxPa) {
+    throw new EngineInputError(
+      `The pre-charge (${formatPressure(input.precharge)}) is at or above the maximum working pressure (${formatPressure(input.maxPressure)}): no fluid would enter the accumulator.`,
+      'precharge',
+    )
+  }
+  return si
+}
+
+/**
+ * The core of every sizing figure, per unit of gas volume: the gas mass is fixed by the
+ * pre-charge at its temperature, brought to the operating temperature at constant volume,
+ * compressed to the maximum pressure by the charge process, then expanded from that state
+ * towards the minimum pressure by the discharge process; the separator stops the gas at its
+ * pre-charge volume.
+ */
+function sizeSi(si: SiConditions): SiOutcome {
+  const { law } = si
+  const filled = stateAt(law, si.prechargePa, si.prechargeK)
+  const operating = stateAtTemperature(law, filled, si.operatingK)
+  if (operating.pressure >= si.maxPa) {
+    throw new EngineInputError('At the operating temperature the pre-charge reaches the maximum working pressure: no fluid would enter the accumulator.', 'precharge')
+  }
+  const atMax = changeToPressure(law, si.charge, operating, si.maxPa)
+  let atMin = changeToPressure(law, si.discharge, atMax, si.minPa)
+  let bottomOut: GasState | undefined
+  if (atMin.density < filled.density) {
+    bottomOut = changeToDensity(law, si.discharge, atMax, filled.density)
+    atMin = bottomOut
+  }
+  const atMaxFraction = filled.density / atMax.density
+  const atMinFraction = filled.density / atMin.density
+  return { atMaxFraction, atMinFraction, usableFraction: atMinFraction - atMaxFraction, operating, atMax, atMin, bottomOut }
+}
+
+function methodText(si: SiConditions, ambient?: Ambient): string {
+  return `${describeModel(si.law.model)}; charge ${describeProcess(si.charge, si.law.model)}, discharge ${describeProcess(si.discharge, si.law.model)}; ${describeAmbient(ambient)}`
+}
+
+/**
+ * Usable fluid volume between the maximum and minimum working pressures, and, given a volume
+ * per application, the number of whole applications and the pressure after the last one.
+ * State changes by Boyle/polytropic laws (ideal) or the nitrogen equation of state (real).
+ */
+export function usableVolume(input: UsableVolumeInput): UsableVolumeResult {
+  const si = toSi(input)
+  const gasM3 = volumeToCubicMetres(input.gasVolume)
+  if (!(gasM3 > 0)) throw new EngineInputError('The gas volume must be above zero.', 'gasVolume')
+  const outcome = sizeSi(si)
+  const unit = input.gasVolume.unit
+  const temperatureUnit = (input.operatingTemperature ?? input.prechargeTemperature).unit
+  const showPressure = (pa: number, like: Pressure) => pascalAbsoluteToPressure(pa, like.unit, like.basis, si.ambientPa)
+  const showTemperature = (kelvin: number) => kelvinToTemperature(kelvin, temperatureUnit)
+  const warnings: string[] = []
+  const usableM3 = outcome.usableFraction * gasM3
+  const result: UsableVolumeResult = {
+    prechargeAtOperatingTemperature: showPressure(outcome.operating.pressure, input.precharge),
+    gasVolumeAtMax: cubicMetresToVolume(outcome.atMaxFraction * gasM3, unit),
+    gasVolumeAtMin: cubicMetresToVolume(outcome.atMinFraction * gasM3, unit),
+    usableVolume: cubicMetresToVolume(usableM3, unit),
+    temperatureAtMax: showTemperature(outcome.atMax.temperature),
+    temperatureAtMin: showTemperature(outcome.atMin.temperature),
+    warnings,
+    inputs: input,
+    method: methodText(si, input.ambient),
+    engineVersion: ENGINE_VERSION,
+  }
+  if (outcome.operating.pressure > si.minPa) {
+    warnings.push(`The pre-charge at operating temperature (${formatPressure(result.prechargeAtOperatingTemperature)}) is above the minimum working pressure (${formatPressure(input.minPressure)}).`)
+  }
+  if (outcome.bottomOut) {
+    result.bottomOutPressure = showPressure(outcome.bottomOut.pressure, input.minPressure)
+    warnings.push(`The separator bottoms out at ${formatPressure(result.bottomOutPressure)}, before the pressure falls to the minimum: the gas volume at minimum is the full gas volume.`)
+  }
+  if (input.perApplication) {
+    const perM3 = volumeToCubicMetres(input.perApplication)
+    if (!(perM3 > 0)) throw new EngineInputError('The volume per application must be above zero.', 'perApplication')
+    const applications = Math.floor(usableM3 / perM3 * (1 + 1e-12) + 1e-12)
+    result.applications = applications
+    const afterM3 = outcome.atMaxFraction * gasM3 + applications * perM3
+    const filledDensity = outcome.atMax.density * outcome.atMaxFraction
+    const after = applications === 0 ? outcome.atMax : changeToDensity(si.law, si.discharge, outcome.atMax, filledDensity * gasM3 / afterM3)
+    result.residualPressure = showPressure(after.pressure, input.minPressure)
+  }
+  return result
+}
+
+export interface RequiredVolumeInput extends SizingConditions {
+  usable?: Volume
+  applications?: number
+}
+
+export interface RequiredVolumeResult extends Provenance<RequiredVolumeInput> {
+  gasVolume: Volume
+  /** The forward calculation at the gas volume found, as a check. */
+  check: UsableVolumeResult
+}
+
+/**
+ * The gas volume (at the pre-charge) that delivers a usable volume or a number of
+ * applications. A fixed gas mass per unit volume makes every volume in the forward
+ * calculation proportional to the gas volume, so the inverse is exact.
+ */
+export function requiredVolume(input: RequiredVolumeInput): RequiredVolumeResult {
+  const si = toSi(input)
+  let neededM3: number
+  let unit: VolumeUnit
+  if (input.usable) {
+    neededM3 = volumeToCubicMetres(input.usable)
+    unit = input.usable.unit
+  }
+  else if (input.applications !== undefined && input.perApplication) {
+    neededM3 = input.applications * volumeToCubicMetres(input.perApplication)
+    unit = input.perApplication.unit
+  }
+  else {
+    throw new EngineInputError('Give either a usable volume, or a number of applications with a volume per application.', 'usable')
+  }
+  if (!(neededM3 > 0)) throw new EngineInputError('The volume to deliver must be above zero.', input.usable ? 'usable' : 'applications')
+  const outcome = sizeSi(si)
+  const gasVolume = cubicMetresToVolume(neededM3 / outcome.usableFraction, unit)
+  const check = usableVolume({ ...input, gasVolume })
+  return { gasVolume, check, inputs: input, method: `inverse of the usable volume; ${methodText(si, input.ambient)}`, engineVersion: ENGINE_VERSION }
+}
+
+export interface OptimumPrechargeInput extends Omit<SizingConditions, 'precharge'> {
+  gasVolume: Volume
+  /** Unit and basis for the answer; defaults to the maximum pressure's. */
+  prechargeUnit?: Pick<Pressure, 'unit' | 'basis'>
+}
+
+export interface OptimumPrechargeResult extends Provenance<OptimumPrechargeInput> {
+  /** The pre-charge, at the pre-charge temperature, that gives the most usable fluid. */
+  precharge: Pressure
+  usableVolume: Volume
+}
+
+/**
+ * The pre-charge that maximises the usable volume for given limits. Usable volume rises with
+ * the pre-charge until the separator just reaches its stop at the minimum pressure, then
+ * falls, so a golden-section search over the pre-charge finds that point.
+ */
+export function optimumPrecharge(input: OptimumPrechargeInput): OptimumPrechargeResult {
+  const like = input.prechargeUnit ?? input.maxPressure
+  const probe = (pa: number): { si?: SiConditions, usable: number } => {
+    try {
+      const si = toSi({ ...input, precharge: { value: pa / 1000, unit: 'kPa', basis: 'absolute' } })
+      return { si, usable: sizeSi(si).usableFraction }
+    }
+    catch (error) {
+      // A pre-charge too high to take any fluid is simply a poor candidate.
+      if (error instanceof EngineInputError && error.field === 'precharge') return { usable: 0 }
+      throw error
+    }
+  }
+  const ambientPa = ambientPressure(input.ambient)
+  const maxPa = pressureToPascalAbsolute(input.maxPressure, ambientPa)
+  let low = Math.max(maxPa * 0.01, ambientPa * 1.01)
+  let high = maxPa * 0.9999
+  const ratio = (Math.sqrt(5) - 1) / 2
+  let a = high - ratio * (high - low); let b = low + ratio * (high - low)
+  let fa = probe(a).usable; let fb = probe(b).usable
+  for (let iteration = 0; iteration < 90 && high - low > 1e-9 * maxPa; iteration++) {
+    if (fa < fb) { low = a; a = b; fa = fb; b = low + ratio * (high - low); fb = probe(b).usable }
+    else { high = b; b = a; fb = fa; a = high - ratio * (high - low); fa = probe(a).usable }
+  }
+  const bestPa = (low + high) / 2
+  const best = probe(bestPa)
+  const gasM3 = volumeToCubicMetres(input.gasVolume)
+  return {
+    precharge: pascalAbsoluteToPressure(bestPa, like.unit, like.basis, ambientPa),
+    usableVolume: cubicMetresToVolume(best.usable * gasM3, input.gasVolume.unit),
+    inputs: input,
+    method: `golden-section search of the usable volume over the pre-charge; ${best.si ? methodText(best.si, input.ambient) : ''}`,
+    engineVersion: ENGINE_VERSION,
+  }
+}
+
+export interface EnvelopeInput extends Omit<UsableVolumeInput, 'operatingTemperature'> {
+  temperatures: { label?: string, temperature: Temperature }[]
+}
+
+export interface EnvelopeResult extends Provenance<EnvelopeInput> {
+  rows: ({ label?: string, temperature: Temperature } & ({ result: UsableVolumeResult } | { error: string, field?: string }))[]
+}
+
+/** The usable-volume calculation at each temperature of an envelope (cold soak, standard day, hot day …). */
+export function usableVolumeEnvelope(input: EnvelopeInput): EnvelopeResult {
+  const { temperatures, ...rest } = input
+  const rows = temperatures.map(({ label, temperature }) => {
+    try {
+      return { label, temperature, result: usableVolume({ ...rest, operatingTemperature: temperature }) }
+    }
+    catch (error) {
+      if (error instanceof EngineInputError) return { label, temperature, error: error.message, field: error.field }
+      throw error
+    }
+  })
+  return { rows, inputs: input, method: 'usable volume at each temperature of the envelope', engineVersion: ENGINE_VERSION }
+}
