@@ -6,4 +6,38 @@ export default defineNuxtConfig({
   modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@nuxt/eslint'],
   devtools: { enabled: false },
   telemetry: false,
+  css: [
+    '@fontsource/source-sans-3/400.css',
+    '@fontsource/source-sans-3/600.css',
+    '@fontsource/source-sans-3/700.css',
+    '~/assets/css/main.css',
+  ],
+  app: {
+    head: {
+      title: 'Chargewell',
+      htmlAttrs: { lang: 'en' },
+      meta: [
+        { name: 'viewport', content: 'width=device-width, initial-scale=1' },
+        { name: 'theme-color', content: '#0f3b46' },
+        { name: 'description', content: 'Nitrogen pre-charge targets, servicing worksheets and accumulator sizing.' },
+      ],
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+    },
+  },
+  // Every value here is overridden at run time by NUXT_<KEY> (NUXT_DB_PATH, NUXT_UPLOADS_DIR, NUXT_SMTP_URL …).
+  // The session password has no default on purpose: see server/plugins/0.config.ts.
+  runtimeConfig: {
+    dbPath: 'data/chargewell.sqlite',
+    uploadsDir: 'data/uploads',
+    uploadMaxBytes: 8 * 1024 * 1024,
+    smtpUrl: '',
+    mailFrom: 'Chargewell <no-reply@chargewell.test>',
+    /** Set to `fake` (development, tests) to start the built-in SMTP catcher on `fakeSmtpPort`. */
+    fakeSmtp: '',
+    fakeSmtpPort: 2525,
+    publicUrl: 'http://localhost:3000',
+  },
+  typescript: { strict: true },
+  eslint: { config: { stylistic: true } },
+  tailwindcss: { cssPath: '~/assets/css/main.css' },
 })

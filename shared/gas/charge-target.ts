@@ -1,7 +1,7 @@
 import { ambientPressure, describeAmbient } from './atmosphere'
 import { EngineInputError } from './errors'
 import { describeModel, gasLaw, stateAt, stateAtTemperature } from './gas-law'
-import type { Ambient, GasModel, Pressure, Provenance, TablePoint, Temperature, Tolerance } from './types'
+import type { Ambient, GasModel, Pressure, PressureUnit, Provenance, TablePoint, Temperature, Tolerance } from './types'
 import {
   kelvinToTemperature, pascalAbsoluteToPressure, pressureDifferenceToPascal,
   pressureToPascalAbsolute, temperatureToKelvin,
@@ -192,4 +192,58 @@ export function correctionCurve(input: CorrectionCurveInput): CorrectionCurveRes
 
 function pascalsPerUnit(pressure: Pressure): number {
   return pressureDifferenceToPascal(1, pressure.unit)
+}
+
+export type Verdict = 'in-limits' | 'low' | 'high'
+
+export interface ReadingAssessmentInput {
+  reading: Pressure
+  target: Pressure
+  low: Pressure
+  high: Pressure
+  /** The gauge's accuracy as ± in a pressure unit; a reading this close to a limit is flagged. */
+  gaugeAccuracy?: { value: number, unit: PressureUnit }
+  ambient?: Ambient
+}
+
+export interface ReadingAssessment extends Provenance<ReadingAssessmentInput> {
+  verdict: Verdict
+  /** Reading minus target, in the target's unit. */
+  difference: number
+  /** Reading outside the band by this much (0 when in limits), in the target's unit. */
+  outsideBy: number
+  /** True when the reading lies within the gauge accuracy of a limit. */
+  nearLimit: boolean
+  warnings: string[]
+}
+
+/**
+ * Compares a gauge reading with the target and band at the same gas temperature. All three
+ * are brought to the target's unit and basis first; the difference is reading − target.
+ */
+export function assessReading(input: ReadingAssessmentInput): ReadingAssessment {
+  const ambientPa = ambientPressure(input.ambient)
+  const { target } = input
+  const inTargetUnit = (pressure: Pressure) =>
+    pascalAbsoluteToPressure(pressureToPascalAbsolute(pressure, ambientPa), target.unit, target.basis, ambientPa).value
+  const reading = inTargetUnit(input.reading)
+  const low = inTargetUnit(input.low)
+  const high = inTargetUnit(input.high)
+  const verdict: Verdict = reading < low ? 'low' : reading > high ? 'high' : 'in-limits'
+  const accuracy = input.gaugeAccuracy ? pressureDifferenceToPascal(input.gaugeAccuracy.value, input.gaugeAccuracy.unit) / pressureDifferenceToPascal(1, target.unit) : 0
+  const nearLimit = accuracy > 0 && (Math.abs(reading - low) <= accuracy || Math.abs(reading - high) <= accuracy)
+  const warnings: string[] = []
+  if (nearLimit) {
+    warnings.push(`The reading is within the gauge accuracy (±${accuracy.toFixed(1)} ${target.unit}) of a limit: the verdict could go either way on this gauge.`)
+  }
+  return {
+    verdict,
+    difference: reading - inTargetUnit(target),
+    outsideBy: verdict === 'low' ? low - reading : verdict === 'high' ? reading - high : 0,
+    nearLimit,
+    warnings,
+    inputs: input,
+    method: 'reading compared with the band at the same gas temperature',
+    engineVersion: ENGINE_VERSION,
+  }
 }

@@ -79,3 +79,18 @@ export function intervalToSeconds(interval: Interval): number {
 export function secondsToInterval(seconds: number, unit: IntervalUnit): Interval {
   return { value: seconds / SECONDS_PER[unit], unit }
 }
+
+/** The same pressure in another unit, keeping its basis (no ambient pressure needed). */
+export function convertPressure(pressure: Pressure, unit: PressureUnit): Pressure {
+  return { value: pressure.value * PASCALS_PER[pressure.unit] / PASCALS_PER[unit], unit, basis: pressure.basis }
+}
+
+/** A pressure difference (tolerance, accuracy) in another unit. */
+export function convertPressureDifference(value: number, from: PressureUnit, to: PressureUnit): number {
+  return value * PASCALS_PER[from] / PASCALS_PER[to]
+}
+
+/** A temperature in another unit. */
+export function convertTemperature(temperature: Temperature, unit: TemperatureUnit): Temperature {
+  return kelvinToTemperature(temperatureToKelvin(temperature), unit)
+}

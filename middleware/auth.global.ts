@@ -1,0 +1,15 @@
+import { NAVIGATION, canSee } from '~~/shared/navigation'
+
+/** Page guard for the user's convenience only: the server checks every request itself. */
+export default defineNuxtRouteMiddleware(async (to) => {
+  const { loggedIn, user } = useUserSession()
+  if (to.path === '/login') {
+    if (loggedIn.value) return navigateTo('/')
+    return
+  }
+  if (!loggedIn.value) return navigateTo({ path: '/login', query: to.fullPath !== '/' ? { next: to.fullPath } : {} })
+  const page = NAVIGATION.find(item => to.path === item.to || to.path.startsWith(`${item.to}/`))
+  if (page && !canSee(page, user.value?.roles ?? [])) {
+    return abortNavigation(createError({ statusCode: 403, statusMessage: `${page.label} needs the ${page.roles.join(' or ')} role.` }))
+  }
+})

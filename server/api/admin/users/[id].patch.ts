@@ -1,0 +1,21 @@
+import { idParamsSchema, userUpdateSchema } from '../../../../shared/schemas/auth'
+import { appendAudit } from '../../../database/audit-chain'
+import { User } from '../../../models'
+
+/** Name, roles, authorisation number, enable/disable. An admin cannot lock themselves out. */
+export default defineEventHandler(async (event) => {
+  const admin = await requireRole(event, 'admin')
+  const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
+  const body = await readValidatedBody(event, validateWith(userUpdateSchema))
+  const user = await User.findByPk(id)
+  if (!user) throw createError({ status: 404, message: 'User not found.' })
+  if (user.id === admin.id && (body.disabled === true || (body.roles && !body.roles.includes('admin')))) {
+    throw createError({ status: 422, message: 'You cannot disable yourself or remove your own admin role; ask another administrator.' })
+  }
+  const sequelize = await useDB()
+  await sequelize.transaction(async (transaction) => {
+    await user.update(body, { transaction })
+    await appendAudit({ actorId: admin.id, entity: 'user', entityId: String(user.id), action: 'updated', detail: { changes: body } }, transaction)
+  })
+  return user.toPublic()
+})

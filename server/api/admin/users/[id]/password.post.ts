@@ -1,0 +1,18 @@
+import { idParamsSchema, passwordResetSchema } from '../../../../../shared/schemas/auth'
+import { appendAudit } from '../../../../database/audit-chain'
+import { User } from '../../../../models'
+
+/** Sets a new password for a user (the admin hands it over; the user should change it). */
+export default defineEventHandler(async (event) => {
+  const admin = await requireRole(event, 'admin')
+  const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
+  const { password } = await readValidatedBody(event, validateWith(passwordResetSchema))
+  const user = await User.findByPk(id)
+  if (!user) throw createError({ status: 404, message: 'User not found.' })
+  const sequelize = await useDB()
+  await sequelize.transaction(async (transaction) => {
+    await user.update({ passwordHash: await hashPassword(password) }, { transaction })
+    await appendAudit({ actorId: admin.id, entity: 'user', entityId: String(user.id), action: 'password-reset', detail: {} }, transaction)
+  })
+  return { reset: true }
+})

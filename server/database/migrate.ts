@@ -1,0 +1,23 @@
+import type { Sequelize } from 'sequelize'
+import { SequelizeStorage, Umzug } from 'umzug'
+import * as initial from '../migrations/0001-initial'
+
+/** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
+const MIGRATIONS = [
+  { name: '0001-initial', ...initial },
+]
+
+/** Applies the migrations not yet applied; never drops or re-syncs tables. */
+export async function migrate(sequelize: Sequelize): Promise<string[]> {
+  const umzug = new Umzug({
+    migrations: MIGRATIONS.map(migration => ({
+      name: migration.name,
+      up: () => migration.up(sequelize.getQueryInterface()),
+      down: () => migration.down(sequelize.getQueryInterface()),
+    })),
+    storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),
+    logger: undefined,
+  })
+  const applied = await umzug.up()
+  return applied.map(migration => migration.name)
+}

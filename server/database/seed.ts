@@ -1,0 +1,284 @@
+/**
+ * `npm run seed`: migrates the database at NUXT_DB_PATH and fills it with Chargewell's demo
+ * scenario, without starting the server. Idempotent: a second run changes nothing.
+ *
+ * Everything here is invented for the demo: the operator (Fellmoor Regional), its aircraft
+ * types (Tarnwing 46, Tarnwing 72), registrations in the unallocated QX- block, part numbers,
+ * specifications, data references and people.
+ */
+import { Hash } from '@adonisjs/hash'
+import { Scrypt } from '@adonisjs/hash/drivers/scrypt'
+import type { Sequelize } from 'sequelize'
+import { assessReading } from '../../shared/gas/charge-target'
+import { ENGINE_VERSION } from '../../shared/gas/version'
+import type { Pressure, Temperature } from '../../shared/gas/types'
+import { DEFAULT_PREFERENCES, type Role } from '../../shared/types/user'
+import type { SpecificationDto } from '../../shared/types/registers'
+import { specificationChargeTarget, specificationPressure } from '../../shared/utils/specification-target'
+import { DEFAULT_DB_PATH, openDatabase } from './connection'
+import { migrate } from './migrate'
+import { appendAudit } from './audit-chain'
+import {
+  Accumulator, AccumulatorInstallation, Aircraft, Signature, Specification, SpecificationTablePoint, Tool, User, Worksheet,
+} from '../models'
+
+export const DEMO_PASSWORD = 'chargewell-demo'
+
+// Same driver and defaults as nuxt-auth-utils' hashPassword, so verifyPassword accepts these.
+const hasher = new Hash(new Scrypt({}))
+
+const DEMO_USERS: { email: string, name: string, roles: Role[], authorisationNumber: string | null }[] = [
+  { email: 'technician@chargewell.test', name: 'Rowan Hale', roles: ['technician'], authorisationNumber: 'FMR-T-0412' },
+  { email: 'inspector@chargewell.test', name: 'Imke Dorsey', roles: ['inspector'], authorisationNumber: 'FMR-I-0107' },
+  { email: 'engineer@chargewell.test', name: 'Sol Varga', roles: ['engineer'], authorisationNumber: null },
+  { email: 'admin@chargewell.test', name: 'Nell Abara', roles: ['admin'], authorisationNumber: null },
+  { email: 'lead@chargewell.test', name: 'Jules Tarrant', roles: ['technician', 'inspector'], authorisationNumber: 'FMR-TI-0033' },
+]
+
+const AIRCRAFT = [
+  { registration: 'QX-FMA', fleetNumber: '461', type: 'Tarnwing 46', base: 'Harlow Moor' },
+  { registration: 'QX-FMB', fleetNumber: '462', type: 'Tarnwing 46', base: 'Harlow Moor' },
+  { registration: 'QX-FMC', fleetNumber: '463', type: 'Tarnwing 46', base: 'Skelby' },
+  { registration: 'QX-FMJ', fleetNumber: '721', type: 'Tarnwing 72', base: 'Harlow Moor' },
+  { registration: 'QX-FMK', fleetNumber: '722', type: 'Tarnwing 72', base: 'Skelby' },
+  { registration: 'QX-FML', fleetNumber: '723', type: 'Tarnwing 72', base: 'Skelby' },
+]
+
+type SpecificationSeed = Omit<SpecificationDto, 'id' | 'status'>
+
+const common = { pressureUnit: 'psi', pressureBasis: 'gauge', referenceTemperatureUnit: 'C', gasModel: 'real', checkIntervalDays: 90, lossThresholdPerDay: 0.8 } as const
+
+const SPECIFICATIONS: SpecificationSeed[] = [
+  {
+    ...common, partNumber: 'FA-2210-03', revision: 'C', title: 'Main hydraulic accumulator, Tarnwing 46', accumulatorType: 'piston',
+    gasVolume: 120, gasVolumeUnit: 'in3', referencePressure: 1500, referenceTemperature: 21, toleranceMinus: 50, tolerancePlus: 50,
+    toleranceUnit: 'psi', correctionMethod: 'gas-law', maxPressure: 3000, minPressure: 1800, settleMinutes: 15,
+    dataReference: 'TW46 SMM 29-11-10', dataRevision: 'Rev 14', tablePoints: [],
+  },
+  {
+    ...common, partNumber: 'FA-2240-01', revision: 'B', title: 'Brake accumulator, Tarnwing 46', accumulatorType: 'bladder',
+    gasVolume: 60, gasVolumeUnit: 'in3', referencePressure: 1000, referenceTemperature: 21, toleranceMinus: 5, tolerancePlus: 5,
+    toleranceUnit: '%', correctionMethod: 'gas-law', maxPressure: 3000, minPressure: 1500, settleMinutes: 10,
+    dataReference: 'TW46 SMM 32-42-05', dataRevision: 'Rev 9', tablePoints: [],
+  },
+  {
+    ...common, partNumber: 'FA-2260-02', revision: 'A', title: 'Emergency brake accumulator, Tarnwing 46', accumulatorType: 'piston',
+    gasVolume: 200, gasVolumeUnit: 'in3', referencePressure: 1200, referenceTemperature: 21, toleranceMinus: 40, tolerancePlus: 60,
+    toleranceUnit: 'psi', correctionMethod: 'gas-law', maxPressure: 3000, minPressure: 1400, settleMinutes: 20,
+    dataReference: 'TW46 SMM 32-44-20', dataRevision: 'Rev 3', tablePoints: [],
+  },
+  {
+    ...common, partNumber: 'FJ-3310-05', revision: 'D', title: 'System accumulator, Tarnwing 72', accumulatorType: 'bladder',
+    gasVolume: 150, gasVolumeUnit: 'in3', referencePressure: 1500, referenceTemperature: 20, toleranceMinus: 50, tolerancePlus: 50,
+    toleranceUnit: 'psi', correctionMethod: 'table', maxPressure: 3000, minPressure: 1750, settleMinutes: 15,
+    dataReference: 'TW72 SMM 29-10-00 Fig. 601', dataRevision: 'Rev 22',
+    // An approved-data chart of pre-charge against gas temperature (invented figures).
+    tablePoints: [
+      { temperature: -40, temperatureUnit: 'C', pressure: 1170 }, { temperature: -20, temperatureUnit: 'C', pressure: 1280 },
+      { temperature: 0, temperatureUnit: 'C', pressure: 1390 }, { temperature: 20, temperatureUnit: 'C', pressure: 1500 },
+      { temperature: 40, temperatureUnit: 'C', pressure: 1610 }, { temperature: 60, temperatureUnit: 'C', pressure: 1720 },
+    ],
+  },
+  {
+    ...common, partNumber: 'FJ-3340-02', revision: 'B', title: 'Brake accumulator, Tarnwing 72', accumulatorType: 'diaphragm',
+    gasVolume: 80, gasVolumeUnit: 'in3', referencePressure: 1000, referenceTemperature: 20, toleranceMinus: 40, tolerancePlus: 40,
+    toleranceUnit: 'psi', correctionMethod: 'gas-law', maxPressure: 3000, minPressure: 1400, settleMinutes: 10,
+    dataReference: 'TW72 SMM 32-41-00', dataRevision: 'Rev 11', tablePoints: [],
+  },
+]
+
+const POSITIONS: Record<string, { position: string, system: string, partNumber: string }[]> = {
+  'Tarnwing 46': [
+    { position: 'Main hydraulic, left wheel well', system: 'Hydraulic system A', partNumber: 'FA-2210-03' },
+    { position: 'Normal brake, nose bay', system: 'Brake system', partNumber: 'FA-2240-01' },
+    { position: 'Emergency brake, nose bay', system: 'Emergency brake system', partNumber: 'FA-2260-02' },
+  ],
+  'Tarnwing 72': [
+    { position: 'System 1, aft equipment bay', system: 'Hydraulic system 1', partNumber: 'FJ-3310-05' },
+    { position: 'System 2, aft equipment bay', system: 'Hydraulic system 2', partNumber: 'FJ-3310-05' },
+    { position: 'Normal brake, left wheel well', system: 'Brake system', partNumber: 'FJ-3340-02' },
+    { position: 'Parking/emergency brake, right wheel well', system: 'Emergency brake system', partNumber: 'FA-2260-02' },
+  ],
+}
+
+/** The unit that loses gas slowly in the demo history: QX-FMC's normal brake accumulator. */
+export const LEAKING_UNIT = { registration: 'QX-FMC', position: 'Normal brake, nose bay', lossPerDay: 0.75 }
+
+const DAY = 86_400_000
+
+function isoDate(date: Date): string {
+  return date.toISOString().slice(0, 10)
+}
+
+/** A small deterministic generator, so every seeded database holds the same history. */
+function randomSource(seed: number) {
+  let state = seed >>> 0
+  return () => {
+    state = (Math.imul(state, 1664525) + 1013904223) >>> 0
+    return state / 4294967296
+  }
+}
+
+async function seedUsers(): Promise<Record<string, User>> {
+  const users: Record<string, User> = {}
+  for (const demo of DEMO_USERS) {
+    const existing = await User.findOne({ where: { email: demo.email } })
+    users[demo.email] = existing ?? await User.create({
+      ...demo,
+      passwordHash: await hasher.make(DEMO_PASSWORD),
+      preferences: { ...DEFAULT_PREFERENCES, stationElevation: { value: 420, unit: 'ft' }, stationName: 'Harlow Moor' },
+    })
+  }
+  return users
+}
+
+async function seedScenario(sequelize: Sequelize, users: Record<string, User>): Promise<void> {
+  if (await Aircraft.count() > 0) return
+  await sequelize.transaction(async (transaction) => {
+    const specifications: Record<string, Specification> = {}
+    for (const { tablePoints, ...fields } of SPECIFICATIONS) {
+      const specification = await Specification.create({ ...fields, status: 'current', supersedesId: null }, { transaction })
+      for (const point of tablePoints) await SpecificationTablePoint.create({ ...point, specificationId: specification.id }, { transaction })
+      specifications[fields.partNumber] = specification
+    }
+    // A superseded revision, so the register shows how revisions chain.
+    const oldBrake = await Specification.create({
+      ...SPECIFICATIONS[1]!, revision: 'A', dataRevision: 'Rev 7', status: 'superseded', supersedesId: null,
+      createdAt: new Date(Date.now() - 700 * DAY),
+    }, { transaction })
+    await specifications['FA-2240-01']!.update({ supersedesId: oldBrake.id }, { transaction })
+
+    const now = new Date()
+    const gauges = [
+      await Tool.create({ kind: 'gauge', assetNumber: 'GA-0141', description: 'Nitrogen charging gauge 0–4000 psi, 6 in dial', rangeMax: 4000, rangeUnit: 'psi', resolution: 20, accuracy: 0.25, accuracyUnit: '%FS', calibrationDue: isoDate(new Date(now.getTime() + 140 * DAY)) }, { transaction }),
+      await Tool.create({ kind: 'gauge', assetNumber: 'GA-0152', description: 'Digital test gauge 0–5000 psi', rangeMax: 5000, rangeUnit: 'psi', resolution: 1, accuracy: 0.1, accuracyUnit: '%FS', calibrationDue: isoDate(new Date(now.getTime() + 260 * DAY)) }, { transaction }),
+      await Tool.create({ kind: 'gauge', assetNumber: 'GA-0098', description: 'Nitrogen charging gauge 0–3000 psi (calibration expired)', rangeMax: 3000, rangeUnit: 'psi', resolution: 20, accuracy: 0.5, accuracyUnit: '%FS', calibrationDue: isoDate(new Date(now.getTime() - 21 * DAY)) }, { transaction }),
+    ]
+    const carts = [
+      await Tool.create({ kind: 'cart', assetNumber: 'NC-07', description: 'Nitrogen cart, two 50 L cylinders, regulator to 3500 psi', rangeMax: 3500, rangeUnit: 'psi', resolution: null, accuracy: null, accuracyUnit: null, calibrationDue: isoDate(new Date(now.getTime() + 90 * DAY)) }, { transaction }),
+      await Tool.create({ kind: 'cart', assetNumber: 'NC-11', description: 'Nitrogen cart, booster, regulator to 5000 psi', rangeMax: 5000, rangeUnit: 'psi', resolution: null, accuracy: null, accuracyUnit: null, calibrationDue: isoDate(new Date(now.getTime() + 200 * DAY)) }, { transaction }),
+    ]
+
+    const random = randomSource(4601)
+    let serial = 1000
+    const installedAt = isoDate(new Date(now.getTime() - 420 * DAY))
+    const performers = [users['technician@chargewell.test']!, users['lead@chargewell.test']!]
+    const inspectors = [users['inspector@chargewell.test']!, users['lead@chargewell.test']!]
+    for (const aircraftSeed of AIRCRAFT) {
+      const aircraft = await Aircraft.create(aircraftSeed, { transaction })
+      for (const slot of POSITIONS[aircraftSeed.type]!) {
+        const specification = specifications[slot.partNumber]!
+        const accumulator = await Accumulator.create({
+          partNumber: slot.partNumber, serialNumber: `SN${++serial}`, aircraftId: aircraft.id, position: slot.position,
+          system: slot.system, installedAt,
+        }, { transaction })
+        await AccumulatorInstallation.create({ accumulatorId: accumulator.id, aircraftId: aircraft.id, position: slot.position, installedAt, removedAt: null, removalReason: null }, { transaction })
+        const leaking = aircraftSeed.registration === LEAKING_UNIT.registration && slot.position === LEAKING_UNIT.position
+        await seedHistory({
+          specification: { ...SPECIFICATIONS.find(seed => seed.partNumber === slot.partNumber)!, id: specification.id, status: 'current' },
+          aircraft, accumulator, leaking, random, gauge: gauges[0]!, cart: carts[0]!,
+          performer: () => performers[Math.floor(random() * 2)]!, inspectorFor: (performer: User) => inspectors.find(user => user.id !== performer.id)!,
+          transaction,
+        })
+      }
+    }
+    await appendAudit({ actorId: null, entity: 'system', entityId: 'seed', action: 'seeded', detail: { aircraft: AIRCRAFT.length, engineVersion: ENGINE_VERSION } }, transaction)
+  })
+}
+
+interface HistoryContext {
+  specification: SpecificationDto
+  aircraft: Aircraft
+  accumulator: Accumulator
+  leaking: boolean
+  random: () => number
+  gauge: Tool
+  cart: Tool
+  performer: () => User
+  inspectorFor: (performer: User) => User
+  transaction: import('sequelize').Transaction
+}
+
+/** A year of released servicing every ~60 days: as-found drifts (fast for the leaking unit), charged back when out of limits. */
+async function seedHistory(context: HistoryContext): Promise<void> {
+  const { specification, random, transaction } = context
+  const ambient = { elevation: { value: 420, unit: 'ft' as const } }
+  const now = Date.now()
+  // Pressure the gas would show at the reference temperature: what actually changes with a leak.
+  let heldAtReference = specification.referencePressure + (random() - 0.5) * 20
+  let lastService = now - 365 * DAY
+  for (let visit = 0; visit < 6; visit++) {
+    const serviceTime = lastService + (55 + random() * 10) * DAY
+    if (serviceTime > now - 3 * DAY) break
+    const days = (serviceTime - lastService) / DAY
+    heldAtReference -= (context.leaking ? LEAKING_UNIT.lossPerDay : 0.03) * days + (random() - 0.5) * 4
+    const dayOfYear = new Date(serviceTime).getUTCMonth() * 30.4
+    const gasCelsius = Math.round((9 - 11 * Math.cos((dayOfYear - 15) / 365 * 2 * Math.PI) + (random() - 0.5) * 6) * 2) / 2
+    const gasTemperature: Temperature = { value: gasCelsius, unit: 'C' }
+    const reference = specificationChargeTarget({ ...specification, correctionMethod: 'gas-law', gasModel: 'real' }, { value: specification.referenceTemperature, unit: 'C' }, ambient)
+    // The true reading: the held charge carried from the reference temperature to today's gas temperature.
+    const scale = heldAtReference / reference.target.value
+    const target = specificationChargeTarget(specification, gasTemperature, ambient)
+    const asFoundValue = Math.round(target.target.value * scale / 5) * 5
+    const asFound: Pressure = specificationPressure(specification, asFoundValue)
+    const asFoundAssessment = assessReading({ reading: asFound, target: target.target, low: target.low!, high: target.high!, ambient })
+    const action = asFoundAssessment.verdict === 'low' || asFoundAssessment.difference < -0.6 * (target.target.value - target.low!.value) ? 'charge' : asFoundAssessment.verdict === 'high' ? 'vent' : 'none'
+    let asLeftValue = asFoundValue
+    if (action !== 'none') {
+      asLeftValue = Math.round(target.target.value / 5) * 5
+      heldAtReference = specification.referencePressure + (random() - 0.5) * 10
+    }
+    const asLeft = specificationPressure(specification, asLeftValue)
+    const asLeftAssessment = assessReading({ reading: asLeft, target: target.target, low: target.low!, high: target.high!, ambient })
+    const performer = context.performer()
+    const inspector = context.inspectorFor(performer)
+    const performedAt = new Date(serviceTime)
+    const releasedAt = new Date(serviceTime + 2.5 * 3600_000)
+    const worksheet = await Worksheet.create({
+      state: 'released', accumulatorId: context.accumulator.id, aircraftId: context.aircraft.id, specificationId: specification.id,
+      performerId: performer.id, correctsId: null, workOrder: `WO-${new Date(serviceTime).getUTCFullYear()}-${String(Math.floor(random() * 90000) + 10000)}`,
+      reason: 'scheduled', serviceable: true, returnReason: null, voidReason: null, voidedById: null,
+      content: {
+        specification,
+        preparation: { systemDepressurised: performedAt.toISOString(), aircraftSafe: performedAt.toISOString(), eyeProtection: performedAt.toISOString(), nitrogenOnly: performedAt.toISOString() },
+        tools: { gaugeId: context.gauge.id, gaugeAssetNumber: context.gauge.assetNumber, gaugeCalibrationDue: context.gauge.calibrationDue, cartId: context.cart.id, cartAssetNumber: context.cart.assetNumber },
+        conditions: { gasTemperature, temperatureMethod: 'ambient-shade', minutesSinceOperated: 120, ambient },
+        asFound: { reading: asFound },
+        action: { kind: action },
+        asLeft: { reading: asLeft, gasTemperature, settledMinutes: specification.settleMinutes },
+        finish: { valveLeakCheck: true, capFitted: true, remarks: action === 'charge' ? 'Charged to target.' : '' },
+      },
+      results: { asFound: { target, assessment: asFoundAssessment }, asLeft: { target, assessment: asLeftAssessment } },
+      engineVersion: ENGINE_VERSION, performedAt, submittedAt: new Date(serviceTime + 3600_000), releasedAt,
+      createdAt: performedAt, updatedAt: releasedAt,
+    }, { transaction })
+    await Signature.create({ worksheetId: worksheet.id, userId: performer.id, capacity: 'performer', name: performer.name, authorisationNumber: performer.authorisationNumber, statement: 'I certify that the work recorded here was carried out in accordance with the approved maintenance data.', signedAt: worksheet.submittedAt! }, { transaction })
+    await Signature.create({ worksheetId: worksheet.id, userId: inspector.id, capacity: 'inspector', name: inspector.name, authorisationNumber: inspector.authorisationNumber, statement: 'I have independently inspected the work recorded here and found it satisfactory.', signedAt: releasedAt }, { transaction })
+    await appendAudit({ at: releasedAt, actorId: inspector.id, entity: 'worksheet', entityId: String(worksheet.id), action: 'released', detail: { performer: performer.id, inspector: inspector.id } }, transaction)
+    lastService = serviceTime
+  }
+}
+
+export async function seed(path: string): Promise<{ applied: string[], users: number, aircraft: number, worksheets: number }> {
+  const sequelize = await openDatabase(path)
+  try {
+    const applied = await migrate(sequelize)
+    const users = await seedUsers()
+    await seedScenario(sequelize, users)
+    return { applied, users: await User.count(), aircraft: await Aircraft.count(), worksheets: await Worksheet.count() }
+  }
+  finally {
+    await sequelize.close()
+  }
+}
+
+const isMain = process.argv[1] && import.meta.url === new URL(`file://${process.argv[1]}`).href
+if (isMain) {
+  const path = process.env.NUXT_DB_PATH || DEFAULT_DB_PATH
+  seed(path).then((summary) => {
+    console.log(`Seeded ${path}: migrations applied ${summary.applied.length ? summary.applied.join(', ') : 'none'}; ${summary.users} users, ${summary.aircraft} aircraft, ${summary.worksheets} worksheets.`)
+  }).catch((error) => {
+    console.error(error)
+    process.exit(1)
+  })
+}

@@ -1,0 +1,44 @@
+import type { Sequelize } from 'sequelize'
+import { Accumulator } from './accumulator'
+import { AccumulatorInstallation } from './accumulator-installation'
+import { Aircraft } from './aircraft'
+import { Attachment } from './attachment'
+import { AuditEvent } from './audit-event'
+import { LoginAttempt } from './login-attempt'
+import { Notification } from './notification'
+import { Signature } from './signature'
+import { SizingStudy } from './sizing-study'
+import { Specification } from './specification'
+import { SpecificationTablePoint } from './specification-table-point'
+import { Tool } from './tool'
+import { User } from './user'
+import { Worksheet } from './worksheet'
+
+export {
+  Accumulator, AccumulatorInstallation, Aircraft, Attachment, AuditEvent, LoginAttempt, Notification, Signature,
+  SizingStudy, Specification, SpecificationTablePoint, Tool, User, Worksheet,
+}
+
+/** Registers every model and association on a connection. */
+export function initModels(sequelize: Sequelize): void {
+  for (const model of [
+    User, LoginAttempt, Aircraft, Specification, SpecificationTablePoint, Accumulator, AccumulatorInstallation, Tool,
+    Worksheet, Signature, Attachment, AuditEvent, SizingStudy, Notification,
+  ]) model.initModel(sequelize)
+
+  Specification.hasMany(SpecificationTablePoint, { as: 'tablePoints', foreignKey: 'specificationId' })
+  Specification.belongsTo(Specification, { as: 'supersedes', foreignKey: 'supersedesId' })
+  Aircraft.hasMany(Accumulator, { as: 'accumulators', foreignKey: 'aircraftId' })
+  Accumulator.belongsTo(Aircraft, { as: 'aircraft', foreignKey: 'aircraftId' })
+  Accumulator.hasMany(AccumulatorInstallation, { as: 'installations', foreignKey: 'accumulatorId' })
+  AccumulatorInstallation.belongsTo(Aircraft, { as: 'aircraft', foreignKey: 'aircraftId' })
+  Worksheet.belongsTo(Accumulator, { as: 'accumulator', foreignKey: 'accumulatorId' })
+  Worksheet.belongsTo(Aircraft, { as: 'aircraft', foreignKey: 'aircraftId' })
+  Worksheet.belongsTo(Specification, { as: 'specification', foreignKey: 'specificationId' })
+  Worksheet.belongsTo(User, { as: 'performer', foreignKey: 'performerId' })
+  Worksheet.belongsTo(Worksheet, { as: 'corrects', foreignKey: 'correctsId' })
+  Worksheet.hasMany(Signature, { as: 'signatures', foreignKey: 'worksheetId' })
+  Worksheet.hasMany(Attachment, { as: 'attachments', foreignKey: 'worksheetId' })
+  Signature.belongsTo(User, { as: 'user', foreignKey: 'userId' })
+  SizingStudy.belongsTo(Specification, { as: 'specification', foreignKey: 'specificationId' })
+}

@@ -1,0 +1,28 @@
+import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+
+export type SignatureCapacity = 'performer' | 'inspector'
+
+/** An electronic signature: who, in what capacity, to what statement, when. Never updated. */
+export class Signature extends Model<InferAttributes<Signature>, InferCreationAttributes<Signature>> {
+  declare id: CreationOptional<number>
+  declare worksheetId: ForeignKey<number>
+  declare userId: ForeignKey<number>
+  declare capacity: SignatureCapacity
+  declare name: string
+  declare authorisationNumber: string | null
+  declare statement: string
+  declare signedAt: Date
+
+  static initModel(sequelize: Sequelize): void {
+    Signature.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      worksheetId: { type: DataTypes.INTEGER, allowNull: false },
+      userId: { type: DataTypes.INTEGER, allowNull: false },
+      capacity: { type: DataTypes.STRING(20), allowNull: false },
+      name: { type: DataTypes.STRING(120), allowNull: false },
+      authorisationNumber: { type: DataTypes.STRING(40), allowNull: true },
+      statement: { type: DataTypes.TEXT, allowNull: false },
+      signedAt: { type: DataTypes.DATE, allowNull: false },
+    }, { sequelize, tableName: 'signatures', underscored: true, timestamps: false })
+  }
+}

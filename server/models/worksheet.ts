@@ -1,0 +1,61 @@
+import {
+  DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes,
+  type NonAttribute, type Sequelize,
+} from 'sequelize'
+import type { WorksheetReason, WorksheetState } from '../../shared/types/worksheet'
+import type { Signature } from './signature'
+
+/**
+ * A servicing record. `content` holds what the performer entered, step by step; `results`
+ * the engine's results, recomputed by the server and frozen at signing with the engine version.
+ */
+export class Worksheet extends Model<InferAttributes<Worksheet>, InferCreationAttributes<Worksheet>> {
+  declare id: CreationOptional<number>
+  declare state: WorksheetState
+  declare accumulatorId: ForeignKey<number>
+  declare aircraftId: ForeignKey<number>
+  declare specificationId: ForeignKey<number>
+  declare performerId: ForeignKey<number>
+  declare correctsId: ForeignKey<number> | null
+  declare workOrder: string
+  declare reason: WorksheetReason
+  declare content: Record<string, unknown>
+  declare results: Record<string, unknown>
+  declare engineVersion: string
+  declare serviceable: boolean | null
+  declare returnReason: string | null
+  declare voidReason: string | null
+  declare voidedById: ForeignKey<number> | null
+  declare performedAt: Date | null
+  declare submittedAt: Date | null
+  declare releasedAt: Date | null
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+  declare signatures?: NonAttribute<Signature[]>
+
+  static initModel(sequelize: Sequelize): void {
+    Worksheet.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      state: { type: DataTypes.STRING(24), allowNull: false },
+      accumulatorId: { type: DataTypes.INTEGER, allowNull: false },
+      aircraftId: { type: DataTypes.INTEGER, allowNull: false },
+      specificationId: { type: DataTypes.INTEGER, allowNull: false },
+      performerId: { type: DataTypes.INTEGER, allowNull: false },
+      correctsId: { type: DataTypes.INTEGER, allowNull: true },
+      workOrder: { type: DataTypes.STRING(60), allowNull: false },
+      reason: { type: DataTypes.STRING(30), allowNull: false },
+      content: { type: DataTypes.JSON, allowNull: false },
+      results: { type: DataTypes.JSON, allowNull: false },
+      engineVersion: { type: DataTypes.STRING(20), allowNull: false },
+      serviceable: { type: DataTypes.BOOLEAN, allowNull: true },
+      returnReason: { type: DataTypes.TEXT, allowNull: true },
+      voidReason: { type: DataTypes.TEXT, allowNull: true },
+      voidedById: { type: DataTypes.INTEGER, allowNull: true },
+      performedAt: { type: DataTypes.DATE, allowNull: true },
+      submittedAt: { type: DataTypes.DATE, allowNull: true },
+      releasedAt: { type: DataTypes.DATE, allowNull: true },
+      createdAt: DataTypes.DATE,
+      updatedAt: DataTypes.DATE,
+    }, { sequelize, tableName: 'worksheets', underscored: true })
+  }
+}

@@ -1,0 +1,17 @@
+/**
+ * Refuses to start a production server without a session password: without one every
+ * sign-in would fail. Development (`nuxi dev`) writes one into .env by itself.
+ */
+export default defineNitroPlugin(() => {
+  if (import.meta.dev) return
+  const password = useRuntimeConfig().session?.password ?? ''
+  if (password.length < 32) {
+    console.error([
+      'Chargewell will not start: NUXT_SESSION_PASSWORD is not set (or is shorter than 32 characters).',
+      'Set it to a long random secret before starting the server, for example:',
+      '  export NUXT_SESSION_PASSWORD="$(openssl rand -hex 32)"',
+      'Keep it secret and keep it the same across restarts, or everyone is signed out.',
+    ].join('\n'))
+    process.exit(1)
+  }
+})

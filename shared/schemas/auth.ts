@@ -1,0 +1,52 @@
+import { z } from 'zod'
+import { ROLES } from '../types/user'
+import { numberField, pressureUnitSchema } from './quantities'
+
+export const loginSchema = z.object({
+  email: z.string({ required_error: 'Enter your e-mail address.' }).trim().toLowerCase().email('Enter a valid e-mail address.'),
+  password: z.string({ required_error: 'Enter your password.' }).min(1, 'Enter your password.'),
+})
+export type LoginBody = z.infer<typeof loginSchema>
+
+export const passwordSchema = z.string({ required_error: 'Enter a password.' })
+  .min(12, 'A password needs at least 12 characters.')
+  .max(200, 'At most 200 characters.')
+
+const rolesSchema = z.array(z.enum(ROLES, { errorMap: () => ({ message: `A role is one of: ${ROLES.join(', ')}.` }) }))
+  .min(1, 'Give the user at least one role.')
+  .transform(roles => [...new Set(roles)])
+
+const authorisationNumberSchema = z.string().trim().max(40).transform(value => value || null).nullable()
+
+export const userCreateSchema = z.object({
+  email: z.string({ required_error: 'Enter an e-mail address.' }).trim().toLowerCase().email('Enter a valid e-mail address.'),
+  name: z.string({ required_error: 'Enter a name.' }).trim().min(2, 'Enter the full name.').max(120),
+  roles: rolesSchema,
+  authorisationNumber: authorisationNumberSchema.optional(),
+  password: passwordSchema,
+})
+export type UserCreateBody = z.infer<typeof userCreateSchema>
+
+export const userUpdateSchema = z.object({
+  name: z.string().trim().min(2, 'Enter the full name.').max(120).optional(),
+  roles: rolesSchema.optional(),
+  authorisationNumber: authorisationNumberSchema.optional(),
+  disabled: z.boolean({ invalid_type_error: 'Must be true or false.' }).optional(),
+}).refine(body => Object.keys(body).length > 0, 'Nothing to change.')
+export type UserUpdateBody = z.infer<typeof userUpdateSchema>
+
+export const passwordResetSchema = z.object({ password: passwordSchema })
+
+export const preferencesSchema = z.object({
+  pressureUnit: pressureUnitSchema,
+  temperatureUnit: z.enum(['C', 'F'], { errorMap: () => ({ message: 'Temperature unit must be C or F.' }) }),
+  volumeUnit: z.enum(['in3', 'L'], { errorMap: () => ({ message: 'Volume unit must be in3 or L.' }) }),
+  stationElevation: z.object({ value: numberField('an elevation'), unit: z.enum(['m', 'ft']) })
+    .refine(({ value, unit }) => {
+      const metres = unit === 'ft' ? value * 0.3048 : value
+      return metres >= -610 && metres <= 11000
+    }, { message: 'Station elevation must lie between −610 m and 11 000 m (−2000 ft and 36 000 ft).', path: ['value'] }),
+  stationName: z.string().trim().max(60),
+})
+
+export const idParamsSchema = z.object({ id: z.coerce.number({ invalid_type_error: 'The id must be a number.' }).int().positive() })

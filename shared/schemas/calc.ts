@@ -1,0 +1,105 @@
+import { z } from 'zod'
+import {
+  ambientSchema, gasModelSchema, intervalSchema, numberField, pressureSchema, pressureUnitSchema, processSchema, temperatureSchema,
+  toleranceSchema, volumeSchema, volumeUnitSchema,
+} from './quantities'
+
+/** Bodies of the calculation API (see the team's CALC-API contract), shared by pages and routes. */
+
+export const chargeTargetSchema = z.object({
+  reference: z.object({ pressure: pressureSchema, temperature: temperatureSchema }, { required_error: 'Enter the reference pre-charge and temperature.' }),
+  gasTemperature: temperatureSchema,
+  ambient: ambientSchema.optional(),
+  model: gasModelSchema.optional(),
+  tolerance: toleranceSchema.optional(),
+})
+export type ChargeTargetBody = z.infer<typeof chargeTargetSchema>
+
+export const tableTargetSchema = z.object({
+  points: z.array(z.object({ temperature: temperatureSchema, pressure: pressureSchema })).min(2, 'A table needs at least two points.'),
+  gasTemperature: temperatureSchema,
+  ambient: ambientSchema.optional(),
+  tolerance: toleranceSchema.optional(),
+})
+
+export const correctionCurveSchema = z.object({
+  reference: z.object({ pressure: pressureSchema, temperature: temperatureSchema }),
+  tolerance: toleranceSchema.optional(),
+  ambient: ambientSchema.optional(),
+  model: gasModelSchema.optional(),
+  from: temperatureSchema,
+  to: temperatureSchema,
+  points: z.number().int('Whole number of points.').min(2).max(2000).optional(),
+})
+
+const sizingConditions = {
+  precharge: pressureSchema,
+  prechargeTemperature: temperatureSchema,
+  operatingTemperature: temperatureSchema.optional(),
+  maxPressure: pressureSchema,
+  minPressure: pressureSchema,
+  charge: processSchema.optional(),
+  discharge: processSchema.optional(),
+  perApplication: volumeSchema.optional(),
+  ambient: ambientSchema.optional(),
+  model: gasModelSchema.optional(),
+}
+
+export const usableVolumeSchema = z.object({ gasVolume: volumeSchema, ...sizingConditions })
+export type UsableVolumeBody = z.infer<typeof usableVolumeSchema>
+
+export const requiredVolumeSchema = z.object({
+  ...sizingConditions,
+  usable: volumeSchema.optional(),
+  applications: z.number({ invalid_type_error: 'Must be a whole number.' }).int('Must be a whole number.').positive('At least one application.').max(10000).optional(),
+}).superRefine((body, context) => {
+  if (body.usable) return
+  if (body.applications === undefined) {
+    context.addIssue({ code: 'custom', path: ['usable'], message: 'Give a usable volume, or a number of applications with a volume per application.' })
+  }
+  else if (!body.perApplication) {
+    context.addIssue({ code: 'custom', path: ['perApplication'], message: 'Give the volume per application.' })
+  }
+})
+
+export const optimumPrechargeSchema = z.object({
+  ...sizingConditions,
+  precharge: pressureSchema.optional(),
+  gasVolume: volumeSchema,
+})
+
+export const envelopeSchema = z.object({
+  gasVolume: volumeSchema,
+  ...sizingConditions,
+  operatingTemperature: z.undefined({ invalid_type_error: 'Give the temperatures in `temperatures`.' }).optional(),
+  temperatures: z.array(z.object({ label: z.string().max(40).optional(), temperature: temperatureSchema })).min(1, 'Give at least one temperature.').max(12, 'At most 12 temperatures.'),
+})
+
+const cycleConditions = {
+  gasVolume: volumeSchema,
+  precharge: pressureSchema,
+  prechargeTemperature: temperatureSchema,
+  temperature: temperatureSchema,
+  cutOut: pressureSchema,
+  cutIn: pressureSchema,
+  ambient: ambientSchema.optional(),
+  model: gasModelSchema.optional(),
+}
+
+export const leakRateSchema = z.object({ ...cycleConditions, interval: intervalSchema })
+export type LeakRateBody = z.infer<typeof leakRateSchema>
+
+export const leakIntervalSchema = z.object({
+  ...cycleConditions,
+  leakRate: z.object({ value: numberField('a leak rate').positive('The leak rate must be above zero.'), unit: volumeUnitSchema }),
+  intervalUnit: z.enum(['s', 'min', 'h']).optional(),
+})
+
+export const assessReadingSchema = z.object({
+  reading: pressureSchema,
+  target: pressureSchema,
+  low: pressureSchema,
+  high: pressureSchema,
+  gaugeAccuracy: z.object({ value: numberField('an accuracy').nonnegative(), unit: pressureUnitSchema }).optional(),
+  ambient: ambientSchema.optional(),
+})

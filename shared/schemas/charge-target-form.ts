@@ -1,0 +1,35 @@
+import { z } from 'zod'
+import { numberField, pressureBasisSchema, pressureUnitSchema } from './quantities'
+
+/**
+ * The Charge target page's form state (flat, as the inputs hold it). The page turns a valid
+ * state into a `chargeTargetSchema` / `tableTargetSchema` body for the calculation API.
+ */
+export const chargeTargetFormSchema = z.object({
+  source: z.enum(['unit', 'specification', 'manual']),
+  accumulatorId: z.number().int().positive().optional(),
+  specificationId: z.number().int().positive().optional(),
+  referencePressure: numberField('the reference pre-charge').positive('The pre-charge must be above zero.').optional(),
+  referenceBasis: pressureBasisSchema,
+  referenceTemperature: numberField('the reference temperature').optional(),
+  toleranceMinus: numberField('a tolerance').nonnegative('A tolerance cannot be negative.').optional(),
+  tolerancePlus: numberField('a tolerance').nonnegative('A tolerance cannot be negative.').optional(),
+  toleranceUnit: z.enum(['unit', '%']),
+  model: z.enum(['real', 'ideal']),
+  gasTemperature: numberField('the gas temperature'),
+  ambientMode: z.enum(['elevation', 'barometer']),
+  elevation: numberField('the field elevation'),
+  elevationUnit: z.enum(['m', 'ft']),
+  stationPressureHpa: numberField('the station pressure').min(300, 'Station pressure is at least 300 hPa.').max(1200, 'Station pressure is at most 1200 hPa.').optional(),
+  asFound: numberField('the gauge reading').optional(),
+  pressureUnit: pressureUnitSchema,
+}).superRefine((form, context) => {
+  if (form.source === 'unit' && !form.accumulatorId) context.addIssue({ code: 'custom', path: ['accumulatorId'], message: 'Pick the installed accumulator.' })
+  if (form.source === 'specification' && !form.specificationId) context.addIssue({ code: 'custom', path: ['specificationId'], message: 'Pick a specification.' })
+  if (form.source === 'manual') {
+    if (form.referencePressure === undefined) context.addIssue({ code: 'custom', path: ['referencePressure'], message: 'Enter the reference pre-charge.' })
+    if (form.referenceTemperature === undefined) context.addIssue({ code: 'custom', path: ['referenceTemperature'], message: 'Enter the reference temperature.' })
+  }
+  if (form.ambientMode === 'barometer' && form.stationPressureHpa === undefined) context.addIssue({ code: 'custom', path: ['stationPressureHpa'], message: 'Enter the station pressure, or use the field elevation.' })
+})
+export type ChargeTargetForm = z.infer<typeof chargeTargetFormSchema>
