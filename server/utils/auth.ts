@@ -9,15 +9,15 @@ import { User } from '../models'
  */
 export async function requireRole(event: H3Event, ...roles: Role[]): Promise<User> {
   const session = await getUserSession(event)
-  if (!session.user) throw createError({ status: 401, message: 'Please sign in first.' })
+  if (!session.user) throw createError({ status: 401, statusMessage: 'Unauthorized', message: 'Please sign in first.' })
   await useDB()
   const user = await User.findByPk(session.user.id)
   if (!user || user.disabled) {
     await clearUserSession(event)
-    throw createError({ status: 401, message: 'Your account is no longer active. Please sign in again or ask an administrator.' })
+    throw createError({ status: 401, statusMessage: 'Unauthorized', message: 'Your account is no longer active. Please sign in again or ask an administrator.' })
   }
   if (roles.length > 0 && !user.roles.some(role => roles.includes(role))) {
-    throw createError({ status: 403, message: `This needs the ${roles.join(' or ')} role.` })
+    throw createError({ status: 403, statusMessage: 'Forbidden', message: `This needs the ${roles.join(' or ')} role.` })
   }
   return user
 }

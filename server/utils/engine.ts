@@ -10,7 +10,7 @@ export function runEngine<T>(calculation: () => T): T {
   }
   catch (error) {
     if (isEngineInputError(error)) {
-      throw createError({ status: 422, message: error.message, data: { field: error.field, issues: error.field ? [{ path: error.field.split('.'), field: error.field, message: error.message }] : [] } })
+      throw createError({ status: 422, statusMessage: 'Unprocessable Entity', message: error.message, data: { field: error.field, issues: error.field ? [{ path: error.field.split('.'), field: error.field, message: error.message }] : [] } })
     }
     throw error
   }

@@ -1,12 +1,19 @@
-import { z } from 'zod'
+import { z, type ZodRawShape } from 'zod'
 import {
   ambientSchema, gasModelSchema, intervalSchema, numberField, pressureSchema, pressureUnitSchema, processSchema, temperatureSchema,
   toleranceSchema, volumeSchema, volumeUnitSchema,
 } from './quantities'
 
-/** Bodies of the calculation API (see the team's CALC-API contract), shared by pages and routes. */
+/**
+ * Bodies of the calculation API (see the team's CALC-API contract), shared by pages and routes.
+ * Unknown fields are refused: a misspelt optional field (say `ambiant`) would otherwise be
+ * dropped without a word and the answer computed without it.
+ */
+function calculationBody<Shape extends ZodRawShape>(shape: Shape) {
+  return z.object(shape).strict()
+}
 
-export const chargeTargetSchema = z.object({
+export const chargeTargetSchema = calculationBody({
   reference: z.object({ pressure: pressureSchema, temperature: temperatureSchema }, { required_error: 'Enter the reference pre-charge and temperature.' }),
   gasTemperature: temperatureSchema,
   ambient: ambientSchema.optional(),
@@ -15,14 +22,14 @@ export const chargeTargetSchema = z.object({
 })
 export type ChargeTargetBody = z.infer<typeof chargeTargetSchema>
 
-export const tableTargetSchema = z.object({
+export const tableTargetSchema = calculationBody({
   points: z.array(z.object({ temperature: temperatureSchema, pressure: pressureSchema })).min(2, 'A table needs at least two points.'),
   gasTemperature: temperatureSchema,
   ambient: ambientSchema.optional(),
   tolerance: toleranceSchema.optional(),
 })
 
-export const correctionCurveSchema = z.object({
+export const correctionCurveSchema = calculationBody({
   reference: z.object({ pressure: pressureSchema, temperature: temperatureSchema }),
   tolerance: toleranceSchema.optional(),
   ambient: ambientSchema.optional(),
@@ -45,10 +52,10 @@ const sizingConditions = {
   model: gasModelSchema.optional(),
 }
 
-export const usableVolumeSchema = z.object({ gasVolume: volumeSchema, ...sizingConditions })
+export const usableVolumeSchema = calculationBody({ gasVolume: volumeSchema, ...sizingConditions })
 export type UsableVolumeBody = z.infer<typeof usableVolumeSchema>
 
-export const requiredVolumeSchema = z.object({
+export const requiredVolumeSchema = calculationBody({
   ...sizingConditions,
   usable: volumeSchema.optional(),
   applications: z.number({ invalid_type_error: 'Must be a whole number.' }).int('Must be a whole number.').positive('At least one application.').max(10000).optional(),
@@ -62,13 +69,13 @@ export const requiredVolumeSchema = z.object({
   }
 })
 
-export const optimumPrechargeSchema = z.object({
+export const optimumPrechargeSchema = calculationBody({
   ...sizingConditions,
   precharge: pressureSchema.optional(),
   gasVolume: volumeSchema,
 })
 
-export const envelopeSchema = z.object({
+export const envelopeSchema = calculationBody({
   gasVolume: volumeSchema,
   ...sizingConditions,
   operatingTemperature: z.undefined({ invalid_type_error: 'Give the temperatures in `temperatures`.' }).optional(),
@@ -86,16 +93,16 @@ const cycleConditions = {
   model: gasModelSchema.optional(),
 }
 
-export const leakRateSchema = z.object({ ...cycleConditions, interval: intervalSchema })
+export const leakRateSchema = calculationBody({ ...cycleConditions, interval: intervalSchema })
 export type LeakRateBody = z.infer<typeof leakRateSchema>
 
-export const leakIntervalSchema = z.object({
+export const leakIntervalSchema = calculationBody({
   ...cycleConditions,
   leakRate: z.object({ value: numberField('a leak rate').positive('The leak rate must be above zero.'), unit: volumeUnitSchema }),
   intervalUnit: z.enum(['s', 'min', 'h']).optional(),
 })
 
-export const assessReadingSchema = z.object({
+export const assessReadingSchema = calculationBody({
   reading: pressureSchema,
   target: pressureSchema,
   low: pressureSchema,

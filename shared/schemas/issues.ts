@@ -9,7 +9,13 @@ export interface FieldIssue {
 }
 
 export function toFieldIssues(issues: ZodIssue[]): FieldIssue[] {
-  return issues.map(issue => ({ path: issue.path, field: issue.path.join('.') || '(body)', message: issue.message }))
+  return issues.flatMap((issue): FieldIssue[] => {
+    if (issue.code === 'unrecognized_keys') {
+      return issue.keys.map(key => ({ path: [...issue.path, key], field: [...issue.path, key].join('.'), message: 'Not a field of this request (check the spelling).' }))
+    }
+    const missingBody = issue.path.length === 0 && issue.code === 'invalid_type' && issue.received === 'undefined'
+    return [{ path: issue.path, field: issue.path.join('.') || '(body)', message: missingBody ? 'The request needs a JSON body.' : issue.message }]
+  })
 }
 
 export function describeIssues(issues: FieldIssue[]): string {

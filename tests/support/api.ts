@@ -1,0 +1,42 @@
+import { inject } from 'vitest'
+
+export const DEMO_PASSWORD = 'chargewell-demo'
+export const DEMO = {
+  technician: 'technician@chargewell.test',
+  inspector: 'inspector@chargewell.test',
+  engineer: 'engineer@chargewell.test',
+  admin: 'admin@chargewell.test',
+  lead: 'lead@chargewell.test',
+} as const
+
+export interface ApiAnswer<T = any> { status: number, body: T, headers: Headers }
+
+/** One request to the test server; `cookie` carries a session from `signIn`. */
+export async function api<T = any>(path: string, options: { method?: string, body?: unknown, cookie?: string, raw?: string } = {}): Promise<ApiAnswer<T>> {
+  const headers: Record<string, string> = { accept: 'application/json' }
+  if (options.cookie) headers.cookie = options.cookie
+  let body: string | undefined
+  if (options.raw !== undefined) { body = options.raw; headers['content-type'] = 'application/json' }
+  else if (options.body !== undefined) { body = JSON.stringify(options.body); headers['content-type'] = 'application/json' }
+  const response = await fetch(`${inject('baseURL')}${path}`, { method: options.method ?? (body ? 'POST' : 'GET'), headers, body })
+  const text = await response.text()
+  let parsed: unknown = text
+  try { parsed = text ? JSON.parse(text) : undefined }
+  catch { /* not JSON */ }
+  return { status: response.status, body: parsed as T, headers: response.headers }
+}
+
+const sessions = new Map<string, string>()
+
+/** Signs in (once per e-mail per test file) and returns the session cookie. */
+export async function signIn(email: string, password = DEMO_PASSWORD): Promise<string> {
+  const cached = sessions.get(`${email}:${password}`)
+  if (cached) return cached
+  const response = await fetch(`${inject('baseURL')}/api/auth/login`, {
+    method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password }),
+  })
+  if (response.status !== 200) throw new Error(`Sign-in of ${email} failed with ${response.status}: ${await response.text()}`)
+  const cookie = response.headers.getSetCookie().map(line => line.split(';')[0]).join('; ')
+  sessions.set(`${email}:${password}`, cookie)
+  return cookie
+}
