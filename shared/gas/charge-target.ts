@@ -52,6 +52,7 @@ export function chargeTarget(input: ChargeTargetInput): ChargeTargetResult {
   const carry = (pascals: number) => {
     if (!(pascals > 0)) throw new EngineInputError('The low end of the tolerance band is at or below zero absolute.', 'tolerance.minus')
     const state = stateAtTemperature(law, stateAt(law, pascals, referenceK), gasK)
+    law.checkInput(gasK, state.pressure, 'gasTemperature')
     return pascalAbsoluteToPressure(state.pressure, pressure.unit, pressure.basis, ambientPa)
   }
   const result: ChargeTargetResult = {

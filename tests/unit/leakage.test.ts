@@ -1,0 +1,61 @@
+import { describe, expect, it } from 'vitest'
+import { leakInterval, leakRate, prechargeTrend } from '../../shared/gas/leakage'
+
+const psia = (value: number) => ({ value, unit: 'psi' as const, basis: 'absolute' as const })
+const room = { value: 20, unit: 'C' as const }
+const cycle = { gasVolume: { value: 100, unit: 'in3' as const }, precharge: psia(1000), prechargeTemperature: room, temperature: room, cutOut: psia(3000), cutIn: psia(2500), model: 'ideal' as const }
+
+describe('leak rate from the cut-out → cut-in interval', () => {
+  it('by hand from Boyle\'s law: 100 in³ × 1000 × (1/2500 − 1/3000) = 6.667 in³ in 5 min', () => {
+    const result = leakRate({ ...cycle, interval: { value: 5, unit: 'min' } })
+    expect(result.fluidReleased.value).toBeCloseTo(6.6667, 4)
+    expect(result.leakRate).toEqual({ value: expect.closeTo(1.33333, 4), unit: 'in3/min' })
+  })
+
+  it('the interval for a leak rate inverts it', () => {
+    const rate = leakRate({ ...cycle, model: 'real', interval: { value: 300, unit: 's' } })
+    const back = leakInterval({ ...cycle, model: 'real', leakRate: { value: rate.leakRate.value, unit: 'in3' }, intervalUnit: 's' })
+    expect(back.interval.value).toBeCloseTo(300, 8)
+  })
+
+  it('refuses cut-in above cut-out and a pre-charge above cut-out', () => {
+    expect(() => leakRate({ ...cycle, cutIn: psia(3100), interval: { value: 5, unit: 'min' } })).toThrow(/must be below the cut-out/)
+    expect(() => leakRate({ ...cycle, precharge: psia(3100), interval: { value: 5, unit: 'min' } })).toThrow(/holds no fluid/)
+  })
+})
+
+describe('pre-charge loss from a unit\'s history', () => {
+  const reference = { pressure: { value: 1000, unit: 'psi' as const, basis: 'gauge' as const }, temperature: room }
+  const reading = (day: number, value: number, celsius = 20) => ({
+    takenAt: new Date(Date.UTC(2026, 0, 1) + day * 86_400_000).toISOString(),
+    pressure: { value, unit: 'psi' as const, basis: 'gauge' as const },
+    temperature: { value: celsius, unit: 'C' as const },
+  })
+
+  it('a steady leak: slope and forecast by hand', () => {
+    const result = prechargeTrend({ reference, tolerance: { minus: 50, plus: 50, unit: 'psi' }, readings: [0, 30, 60, 90].map(day => reading(day, 1000 - 0.5 * day)) })
+    expect(result.lossRatePerDay).toBeCloseTo(-0.5, 8)
+    expect(result.lossRateStandardError).toBeCloseTo(0, 8)
+    // 1000 − 0.5 d = 950 at d = 100.
+    expect(result.predictedOutOfLimitsAt).toBe(new Date(Date.UTC(2026, 0, 1) + 100 * 86_400_000).toISOString())
+  })
+
+  it('slope and its standard error for a noisy series, by hand: b = Sxy/Sxx = 7/5, SE = √(2.1/5)', () => {
+    const result = prechargeTrend({ reference, readings: [reading(0, 1010), reading(1, 1012), reading(2, 1011), reading(3, 1015)] })
+    expect(result.lossRatePerDay).toBeCloseTo(1.4, 8)
+    expect(result.lossRateStandardError).toBeCloseTo(Math.sqrt(2.1 / 5), 8)
+    expect(result.predictedOutOfLimitsAt).toBeUndefined()
+  })
+
+  it('normalises each reading to the reference temperature, so cold mornings are not a leak', () => {
+    // A tight unit read at −10, 20 and 40 °C: the readings differ, their normalised values do not.
+    const readings = [-10, 20, 40].map((celsius, index) => {
+      const carried = 1000 + (celsius - 20) * 3.5
+      return reading(index * 60, carried, celsius)
+    })
+    const result = prechargeTrend({ reference, readings, model: 'ideal' })
+    const spread = Math.max(...result.normalised.map(point => point.value)) - Math.min(...result.normalised.map(point => point.value))
+    const rawSpread = 60 * 3.5
+    expect(spread).toBeLessThan(0.1 * rawSpread)
+  })
+})

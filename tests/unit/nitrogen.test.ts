@@ -1,0 +1,70 @@
+import { describe, expect, it } from 'vitest'
+import {
+  nitrogenCompressibility, nitrogenDensity, nitrogenEntropy, nitrogenHeatCapacities, nitrogenIsentropicToPressure, nitrogenPressure,
+  NITROGEN_GAS_CONSTANT,
+} from '../../shared/gas/nitrogen'
+
+/**
+ * Check values for nitrogen. Source: Span, Lemmon, Jacobsen, Wagner and Yokozeki, J. Phys.
+ * Chem. Ref. Data 29(6), 1361–1433 (2000), as computed with CoolProp 8.0.0 (which implements
+ * that equation), copied from the team's reference file data/nitrogen-span2000.json.
+ * Entropy is compared as differences between points (reference states differ between tools).
+ */
+const CHECK_POINTS = [
+  { T: 250, pMPa: 5, density: 69.5435, Z: 0.968955, s: 5443.717, gamma: 1.53962 },
+  { T: 250, pMPa: 10, density: 140.5924, Z: 0.958581, s: 5189.958, gamma: 1.67637 },
+  { T: 250, pMPa: 20, density: 268.096, Z: 1.00538, s: 4912.301, gamma: 1.83053 },
+  { T: 250, pMPa: 30, density: 362.7576, Z: 1.114539, s: 4751.282, gamma: 1.83899 },
+  { T: 300, pMPa: 5, density: 56.3445, Z: 0.996615, s: 5652.211, gamma: 1.48457 },
+  { T: 300, pMPa: 10, density: 111.7254, Z: 1.005211, s: 5416.536, gamma: 1.56229 },
+  { T: 300, pMPa: 20, density: 212.5372, Z: 1.056828, s: 5163.007, gamma: 1.6669 },
+  { T: 300, pMPa: 30, density: 294.7812, Z: 1.142959, s: 5010.263, gamma: 1.7038 },
+  { T: 350, pMPa: 5, density: 47.6684, Z: 1.009721, s: 5822.846, gamma: 1.4559 },
+  { T: 350, pMPa: 10, density: 93.741, Z: 1.026911, s: 5596.555, gamma: 1.5066 },
+  { T: 350, pMPa: 20, density: 178.0313, Z: 1.081424, s: 5356.936, gamma: 1.5794 },
+  { T: 350, pMPa: 30, density: 249.6801, Z: 1.156644, s: 5211.615, gamma: 1.61528 },
+]
+
+describe('nitrogen by Span et al. (2000)', () => {
+  it.each(CHECK_POINTS)('density, Z and cp/cv at $T K, $pMPa MPa', ({ T, pMPa, density, Z, gamma }) => {
+    const rho = nitrogenDensity(pMPa * 1e6, T)
+    expect(rho / density - 1).toBeCloseTo(0, 5) // within 5·10⁻⁶ relative (the check value's printed digits)
+    expect(nitrogenCompressibility(rho, T)).toBeCloseTo(Z, 5)
+    expect(nitrogenHeatCapacities(rho, T).ratio / gamma - 1).toBeCloseTo(0, 4)
+  })
+
+  it.each(CHECK_POINTS)('pressure from the check density at $T K, $pMPa MPa', ({ T, pMPa, density }) => {
+    expect(nitrogenPressure(density, T) / (pMPa * 1e6) - 1).toBeCloseTo(0, 5)
+  })
+
+  it('entropy differences between check points', () => {
+    const base = CHECK_POINTS[4]!
+    const baseEntropy = nitrogenEntropy(nitrogenDensity(base.pMPa * 1e6, base.T), base.T)
+    for (const point of CHECK_POINTS) {
+      const entropy = nitrogenEntropy(nitrogenDensity(point.pMPa * 1e6, point.T), point.T)
+      expect(entropy - baseEntropy).toBeCloseTo(point.s - base.s, 1)
+    }
+  })
+
+  it('an isentropic change keeps the entropy and lands on the check state', () => {
+    // From 300 K, 30 MPa, expand isentropically to 10 MPa; entropy must equal the start's.
+    const startDensity = nitrogenDensity(30e6, 300)
+    const end = nitrogenIsentropicToPressure(startDensity, 300, 10e6)
+    expect(nitrogenEntropy(end.density, end.temperature)).toBeCloseTo(nitrogenEntropy(startDensity, 300), 5)
+    expect(nitrogenPressure(end.density, end.temperature) / 10e6).toBeCloseTo(1, 9)
+    expect(end.temperature).toBeLessThan(300)
+  })
+
+  it('tends to the ideal gas at low pressure', () => {
+    // Z → 1 as p → 0; at 0.1 MPa and 300 K, Z = 0.9998 for nitrogen (NIST Chemistry WebBook; from memory).
+    const rho = nitrogenDensity(1e5, 300)
+    expect(nitrogenCompressibility(rho, 300)).toBeCloseTo(0.9998, 4)
+    // Specific gas constant of nitrogen 296.80 J/(kg·K) = 8.31451 / 0.02801348 (CODATA-era R used by the equation).
+    expect(NITROGEN_GAS_CONSTANT).toBeCloseTo(296.80, 2)
+  })
+
+  it('refuses states outside the accepted range with a clear error', () => {
+    expect(() => nitrogenDensity(1e6, 100)).toThrow(/outside the range/)
+    expect(() => nitrogenDensity(60e6, 300, false)).toThrow(/above the real-gas range/)
+  })
+})

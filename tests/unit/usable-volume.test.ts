@@ -1,0 +1,99 @@
+import { describe, expect, it } from 'vitest'
+import { optimumPrecharge, requiredVolume, usableVolume, usableVolumeEnvelope } from '../../shared/gas/usable-volume'
+
+const psia = (value: number) => ({ value, unit: 'psi' as const, basis: 'absolute' as const })
+const psig = (value: number) => ({ value, unit: 'psi' as const, basis: 'gauge' as const })
+const room = { value: 20, unit: 'C' as const }
+
+/**
+ * From memory: the usual fluid-power textbook sizing example — 1 gallon of gas pre-charged to
+ * 1000 psia, working between 3000 and 2000 psia. Boyle's law gives V₃₀₀₀ = 1/3, V₂₀₀₀ = 1/2 and
+ * 1/6 gal usable (isothermal); with p·V^1.4 = const on discharge, V₂₀₀₀ = (1/3)·1.5^(1/1.4) and
+ * 0.1120 gal usable.
+ */
+const textbook = { gasVolume: { value: 1, unit: 'L' as const }, precharge: psia(1000), prechargeTemperature: room, maxPressure: psia(3000), minPressure: psia(2000), model: 'ideal' as const }
+
+describe('usable volume, ideal gas', () => {
+  it('isothermal both ways: 1/6 of the gas volume', () => {
+    const result = usableVolume({ ...textbook, discharge: 'isothermal' })
+    expect(result.gasVolumeAtMax.value).toBeCloseTo(1 / 3, 10)
+    expect(result.gasVolumeAtMin.value).toBeCloseTo(1 / 2, 10)
+    expect(result.usableVolume.value).toBeCloseTo(1 / 6, 10)
+    expect(result.method).toMatch(/Boyle/)
+  })
+
+  it('isothermal charge, adiabatic discharge: 0.1120 of the gas volume', () => {
+    const result = usableVolume(textbook)
+    expect(result.usableVolume.value).toBeCloseTo(0.11197, 4)
+    // Adiabatic expansion cools the gas: T₂ = T₁ (p₂/p₁)^((n−1)/n) = 293.15 × (2/3)^0.2857 = 261.08 K.
+    expect(result.temperatureAtMin.value).toBeCloseTo(261.08 - 273.15, 1)
+  })
+
+  it('a custom polytropic exponent lies between the two', () => {
+    const result = usableVolume({ ...textbook, discharge: { n: 1.2 } })
+    expect(result.usableVolume.value).toBeGreaterThan(0.11197)
+    expect(result.usableVolume.value).toBeLessThan(1 / 6)
+  })
+
+  it('counts whole applications and the pressure after the last (by hand: 8 × 0.02 L, p = 3000 × (1/3)/(1/3 + 0.16))', () => {
+    const result = usableVolume({ ...textbook, discharge: 'isothermal', perApplication: { value: 0.02, unit: 'L' } })
+    expect(result.applications).toBe(8)
+    expect(result.residualPressure!.value).toBeCloseTo(1000 / (1 / 3 + 0.16), 6)
+  })
+
+  it('caps the gas volume at the pre-charge volume when the separator bottoms out, and says so', () => {
+    const result = usableVolume({ ...textbook, precharge: psia(2500), discharge: 'isothermal' })
+    expect(result.gasVolumeAtMin.value).toBeCloseTo(1, 10)
+    expect(result.usableVolume.value).toBeCloseTo(1 - 2500 / 3000, 10)
+    expect(result.bottomOutPressure!.value).toBeCloseTo(2500, 6)
+    expect(result.warnings.join(' ')).toMatch(/bottoms out/)
+  })
+
+  it('warms the pre-charge to the operating temperature at constant volume first', () => {
+    const hot = usableVolume({ ...textbook, discharge: 'isothermal', operatingTemperature: { value: 50, unit: 'C' } })
+    expect(hot.prechargeAtOperatingTemperature.value).toBeCloseTo(1000 * 323.15 / 293.15, 6)
+  })
+
+  it('refuses impossible limits', () => {
+    expect(() => usableVolume({ ...textbook, minPressure: psia(3500) })).toThrow(/must be below the maximum/)
+    expect(() => usableVolume({ ...textbook, precharge: psia(3200) })).toThrow(/at or above the maximum/)
+  })
+})
+
+describe('real gas sizing', () => {
+  it('gives less usable fluid than the ideal law at 20 MPa (Z > 1, cp/cv > 1.4)', () => {
+    const ideal = usableVolume(textbook).usableVolume.value
+    const real = usableVolume({ ...textbook, model: 'real' }).usableVolume.value
+    expect(real).toBeLessThan(ideal)
+    expect(real).toBeGreaterThan(0.5 * ideal)
+  })
+
+  it('a brake accumulator on a cold-soaked day gives fewer applications', () => {
+    const brake = { gasVolume: { value: 60, unit: 'in3' as const }, precharge: psig(1000), prechargeTemperature: { value: 21, unit: 'C' as const }, maxPressure: psig(3000), minPressure: psig(1500), perApplication: { value: 2.5, unit: 'in3' as const } }
+    const envelope = usableVolumeEnvelope({ ...brake, temperatures: [{ label: 'Cold soak', temperature: { value: -40, unit: 'C' } }, { label: 'Standard day', temperature: { value: 15, unit: 'C' } }, { label: 'Hot day', temperature: { value: 50, unit: 'C' } }] })
+    const applications = envelope.rows.map(row => 'result' in row ? row.result.applications! : -1)
+    expect(applications[0]).toBeLessThan(applications[1]!)
+    expect(applications.every(count => count > 0)).toBe(true)
+  })
+})
+
+describe('inverse and optimum', () => {
+  it('required volume gives back the demanded applications exactly', () => {
+    const result = requiredVolume({ ...textbook, model: 'real', applications: 12, perApplication: { value: 10, unit: 'in3' } })
+    expect(result.gasVolume.unit).toBe('in3')
+    expect(result.check.applications).toBe(12)
+    expect(result.check.usableVolume.value).toBeCloseTo(120, 6)
+  })
+
+  it('the optimum pre-charge for isothermal charge and discharge is the minimum pressure', () => {
+    // Ideal, isothermal: usable = V₀·p₀(1/p_min − 1/p_max) until the separator stops at p_min, so p₀ = p_min.
+    const result = optimumPrecharge({ ...textbook, discharge: 'isothermal' })
+    expect(result.precharge.value).toBeCloseTo(2000, 3)
+    expect(result.usableVolume.value).toBeCloseTo(1 / 3, 6)
+  })
+
+  it('with adiabatic discharge it is p_max·(p_min/p_max)^(1/1.4)', () => {
+    const result = optimumPrecharge(textbook)
+    expect(result.precharge.value).toBeCloseTo(3000 * (2 / 3) ** (1 / 1.4), 3)
+  })
+})
