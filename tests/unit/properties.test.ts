@@ -78,7 +78,7 @@ describe('sizing properties', () => {
       fc.pre(case_.precharge * 0.8 < case_.max * 0.95)
       const { gasVolume: _gasVolume, ...conditions } = sizingInput(case_)
       const forward = usableVolume({ ...conditions, gasVolume: { value: litres, unit: 'L' } })
-      fc.pre(forward.usableVolume.value > 1e-6)
+      fc.pre(forward.usableVolume.value > 1e-3 * litres) // a usable share of at least 0.1 % (near zero the inverse is ill-conditioned)
       const back = requiredVolume({ ...conditions, usable: forward.usableVolume })
       expect(back.gasVolume.value).toBeCloseTo(litres, 8)
     }), { numRuns: 60 })
