@@ -1,4 +1,4 @@
-import type { Pressure, Temperature, Volume } from './types'
+import type { Pressure, PressureBasis, PressureUnit, Temperature, Volume } from './types'
 
 const UNIT_LABEL: Record<string, string> = { in3: 'in³', cm3: 'cm³', m3: 'm³', L: 'L', C: '°C', F: '°F', K: 'K', R: '°R' }
 
@@ -14,9 +14,22 @@ export function unitLabel(unit: string): string {
   return UNIT_LABEL[unit] ?? unit
 }
 
-export function formatPressure(pressure: Pressure, significant = 4): string {
-  const suffix = pressure.unit === 'psi' ? (pressure.basis === 'gauge' ? 'psig' : 'psia') : `${pressure.unit} ${pressure.basis === 'gauge' ? 'gauge' : 'abs'}`
-  return `${formatNumber(pressure.value, significant)} ${suffix}`
+/** Decimals shown per pressure unit: finer than any charging gauge resolves, no finer. */
+const PRESSURE_DECIMALS: Record<PressureUnit, number> = { psi: 1, bar: 2, kPa: 0, MPa: 3 }
+
+export function formatPressureValue(value: number, unit: PressureUnit): string {
+  return Number.isFinite(value) ? value.toFixed(PRESSURE_DECIMALS[unit]) : '—'
+}
+
+/** psig / psia, or "bar gauge" / "bar abs"; without a basis (a difference), the bare unit. */
+export function pressureUnitLabel(unit: PressureUnit, basis?: PressureBasis): string {
+  if (!basis) return unit
+  if (unit === 'psi') return basis === 'gauge' ? 'psig' : 'psia'
+  return `${unit} ${basis === 'gauge' ? 'gauge' : 'abs'}`
+}
+
+export function formatPressure(pressure: Pressure): string {
+  return `${formatPressureValue(pressure.value, pressure.unit)} ${pressureUnitLabel(pressure.unit, pressure.basis)}`
 }
 
 export function formatTemperature(temperature: Temperature): string {

@@ -63,21 +63,48 @@ const GAUSS_EPSILON = [1, 1, 1, 1]
 const POWER_COUNT = POWER_N.length
 const GAUSS_COUNT = GAUSS_N.length
 
-// τ-dependent factors, kept for the last τ: a density solve at one temperature reuses them.
-let preparedTau = Number.NaN
-const powerTau = new Float64Array(POWER_COUNT) // n·τ^t
-const gaussTau = new Float64Array(GAUSS_COUNT) // n·τ^t·exp(−β(τ−γ)²)
-const gaussTauSlope = new Float64Array(GAUSS_COUNT) // t/τ − 2β(τ−γ)
+// τ-dependent factors. Every exponent t is a multiple of 1/8, so τ^t comes from a table of
+// τ^(k/8) built by repeated multiplication (one root instead of 36 powers). Two slots are kept:
+// a charge target alternates between the reference and the gas temperature.
+const POWER_T_EIGHTHS = POWER_T.map(exponent => Math.round(exponent * 8))
+const GAUSS_T_EIGHTHS = GAUSS_T.map(exponent => Math.round(exponent * 8))
+const MAX_EIGHTHS = Math.max(...POWER_T_EIGHTHS, ...GAUSS_T_EIGHTHS)
+const tauEighths = new Float64Array(MAX_EIGHTHS + 1)
 
-function prepareTau(tau: number): void {
-  if (tau === preparedTau) return
-  for (let i = 0; i < POWER_COUNT; i++) powerTau[i] = POWER_N[i]! * Math.pow(tau, POWER_T[i]!)
+interface TauSlot {
+  tau: number
+  /** n·τ^t of each power term */
+  power: Float64Array
+  /** n·τ^t·exp(−β(τ−γ)²) of each Gaussian term */
+  gauss: Float64Array
+  /** t/τ − 2β(τ−γ) of each Gaussian term */
+  gaussSlope: Float64Array
+}
+
+const newSlot = (): TauSlot => ({ tau: Number.NaN, power: new Float64Array(POWER_COUNT), gauss: new Float64Array(GAUSS_COUNT), gaussSlope: new Float64Array(GAUSS_COUNT) })
+const tauSlots = [newSlot(), newSlot()]
+let lastSlot = 0
+
+function prepareTau(tau: number): TauSlot {
+  if (tauSlots[lastSlot]!.tau === tau) return tauSlots[lastSlot]!
+  const other = 1 - lastSlot
+  if (tauSlots[other]!.tau === tau) {
+    lastSlot = other
+    return tauSlots[other]!
+  }
+  const slot = tauSlots[other]!
+  const eighth = Math.sqrt(Math.sqrt(Math.sqrt(tau)))
+  tauEighths[0] = 1
+  for (let k = 1; k <= MAX_EIGHTHS; k++) tauEighths[k] = tauEighths[k - 1]! * eighth
+  for (let i = 0; i < POWER_COUNT; i++) slot.power[i] = POWER_N[i]! * tauEighths[POWER_T_EIGHTHS[i]!]!
   for (let i = 0; i < GAUSS_COUNT; i++) {
     const offset = tau - GAUSS_GAMMA[i]!
-    gaussTau[i] = GAUSS_N[i]! * Math.pow(tau, GAUSS_T[i]!) * Math.exp(-GAUSS_BETA[i]! * offset * offset)
-    gaussTauSlope[i] = GAUSS_T[i]! / tau - 2 * GAUSS_BETA[i]! * offset
+    slot.gauss[i] = GAUSS_N[i]! * tauEighths[GAUSS_T_EIGHTHS[i]!]! * Math.exp(-GAUSS_BETA[i]! * offset * offset)
+    slot.gaussSlope[i] = GAUSS_T[i]! / tau - 2 * GAUSS_BETA[i]! * offset
   }
-  preparedTau = tau
+  slot.tau = tau
+  lastSlot = other
+  return slot
 }
 
 /** αʳ and its partial derivatives at one (δ, τ). */
@@ -94,8 +121,7 @@ const deltaPower = new Float64Array(5)
 const expMinusDeltaPower = new Float64Array(5)
 
 /** Residual Helmholtz energy αʳ(δ, τ) with first and second derivatives. */
-export function residualHelmholtz(delta: number, tau: number, out: ResidualHelmholtz = { value: 0, d: 0, dd: 0, t: 0, tt: 0, dt: 0 }): ResidualHelmholtz {
-  prepareTau(tau)
+function prepareDelta(delta: number): void {
   deltaPower[0] = 0 // l = 0: no exponential factor, and no l·δ^l term
   expMinusDeltaPower[0] = 1
   let power = 1
@@ -104,6 +130,11 @@ export function residualHelmholtz(delta: number, tau: number, out: ResidualHelmh
     deltaPower[l] = power
     expMinusDeltaPower[l] = Math.exp(-power)
   }
+}
+
+export function residualHelmholtz(delta: number, tau: number, out: ResidualHelmholtz = { value: 0, d: 0, dd: 0, t: 0, tt: 0, dt: 0 }): ResidualHelmholtz {
+  const slot = prepareTau(tau)
+  prepareDelta(delta)
   const inverseDelta = 1 / delta
   const inverseTau = 1 / tau
   let value = 0; let d = 0; let dd = 0; let t = 0; let tt = 0; let dt = 0
@@ -114,7 +145,7 @@ export function residualHelmholtz(delta: number, tau: number, out: ResidualHelmh
     const deltaL = deltaPower[exponentL]!
     let deltaD = delta
     for (let k = 1; k < exponentD; k++) deltaD *= delta
-    const term = powerTau[i]! * deltaD * expMinusDeltaPower[exponentL]!
+    const term = slot.power[i]! * deltaD * expMinusDeltaPower[exponentL]!
     const slope = exponentD - exponentL * deltaL // δ·∂ln(term)/∂δ
     value += term
     d += term * slope * inverseDelta
@@ -129,9 +160,9 @@ export function residualHelmholtz(delta: number, tau: number, out: ResidualHelmh
     const eta = GAUSS_ETA[i]!
     let deltaD = delta
     for (let k = 1; k < exponentD; k++) deltaD *= delta
-    const term = gaussTau[i]! * deltaD * Math.exp(-eta * offset * offset)
+    const term = slot.gauss[i]! * deltaD * Math.exp(-eta * offset * offset)
     const slopeDelta = exponentD * inverseDelta - 2 * eta * offset
-    const slopeTau = gaussTauSlope[i]!
+    const slopeTau = slot.gaussSlope[i]!
     value += term
     d += term * slopeDelta
     dd += term * (slopeDelta * slopeDelta - exponentD * inverseDelta * inverseDelta - 2 * eta)
@@ -161,6 +192,42 @@ export function idealHelmholtz(delta: number, tau: number): { value: number, t: 
   return { value, t, tt }
 }
 
+/** ∂αʳ/∂δ and ∂²αʳ/∂δ² only: all a density solve needs. */
+const deltaDerivatives = { d: 0, dd: 0 }
+function residualDeltaDerivatives(delta: number, tau: number): typeof deltaDerivatives {
+  const slot = prepareTau(tau)
+  prepareDelta(delta)
+  const inverseDelta = 1 / delta
+  let d = 0; let dd = 0
+  for (let i = 0; i < POWER_COUNT; i++) {
+    const exponentD = POWER_D[i]!
+    const exponentL = POWER_L[i]!
+    const deltaL = deltaPower[exponentL]!
+    let deltaD = delta
+    for (let k = 1; k < exponentD; k++) deltaD *= delta
+    const term = slot.power[i]! * deltaD * expMinusDeltaPower[exponentL]!
+    const slope = exponentD - exponentL * deltaL
+    d += term * slope
+    dd += term * (slope * (slope - 1) - exponentL * exponentL * deltaL)
+  }
+  d *= inverseDelta
+  dd *= inverseDelta * inverseDelta
+  for (let i = 0; i < GAUSS_COUNT; i++) {
+    const exponentD = GAUSS_D[i]!
+    const offset = delta - GAUSS_EPSILON[i]!
+    const eta = GAUSS_ETA[i]!
+    let deltaD = delta
+    for (let k = 1; k < exponentD; k++) deltaD *= delta
+    const term = slot.gauss[i]! * deltaD * Math.exp(-eta * offset * offset)
+    const slopeDelta = exponentD * inverseDelta - 2 * eta * offset
+    d += term * slopeDelta
+    dd += term * (slopeDelta * slopeDelta - exponentD * inverseDelta * inverseDelta - 2 * eta)
+  }
+  deltaDerivatives.d = d
+  deltaDerivatives.dd = dd
+  return deltaDerivatives
+}
+
 const scratch: ResidualHelmholtz = { value: 0, d: 0, dd: 0, t: 0, tt: 0, dt: 0 }
 
 function checkState(temperature: number, pressureOrDensity: number, internal: boolean): void {
@@ -182,7 +249,7 @@ function checkState(temperature: number, pressureOrDensity: number, internal: bo
 export function nitrogenPressure(density: number, temperature: number): number {
   checkState(temperature, density, true)
   const delta = density / REDUCING_DENSITY
-  const residual = residualHelmholtz(delta, REDUCING_TEMPERATURE / temperature, scratch)
+  const residual = residualDeltaDerivatives(delta, REDUCING_TEMPERATURE / temperature)
   return density * NITROGEN_GAS_CONSTANT * temperature * (1 + delta * residual.d)
 }
 
@@ -191,6 +258,9 @@ export function nitrogenPressure(density: number, temperature: number): number {
  * ideal-gas density, kept inside a bracket that tightens each step and falls back to
  * bisection, so it converges for every supercritical state (all of Chargewell's range).
  */
+/** Newton steps the last density solve took (for the benchmark). */
+export let densityIterations = 0
+
 export function nitrogenDensity(pressure: number, temperature: number, internal = true): number {
   checkState(temperature, pressure, internal)
   if (pressure > (internal ? INTERNAL_RANGE.maxPascal : REAL_GAS_INPUT_RANGE.maxPascal) * (1 + 1e-12)) {
@@ -203,14 +273,19 @@ export function nitrogenDensity(pressure: number, temperature: number, internal 
   let density = pressure / rt
   for (let iteration = 0; iteration < 100; iteration++) {
     const delta = density / REDUCING_DENSITY
-    const residual = residualHelmholtz(delta, tau, scratch)
+    const residual = residualDeltaDerivatives(delta, tau)
     const error = density * rt * (1 + delta * residual.d) - pressure
     if (error > 0) high = density
     else low = density
     const slope = rt * (1 + 2 * delta * residual.d + delta * delta * residual.dd)
-    let next = density - error / slope
+    const step = error / slope
+    if (slope > 0 && Math.abs(step) <= 1e-12 * density) {
+      densityIterations = iteration + 1
+      return density - step
+    }
+    let next = density - step
+    // A step out of the bracket (or a non-monotone slope) falls back to bisection.
     if (!(slope > 0) || !(next > low && next < high)) next = 0.5 * (low + high)
-    if (Math.abs(next - density) <= 1e-12 * density) return next
     density = next
   }
   throw new EngineInputError(`The nitrogen density did not converge at ${(pressure / 1e6).toFixed(3)} MPa and ${(temperature - 273.15).toFixed(1)} °C.`)

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import {
-  nitrogenCompressibility, nitrogenDensity, nitrogenEntropy, nitrogenHeatCapacities, nitrogenIsentropicToPressure, nitrogenPressure,
+  densityIterations, nitrogenCompressibility, nitrogenDensity, nitrogenEntropy, nitrogenHeatCapacities, nitrogenIsentropicToPressure, nitrogenPressure,
   NITROGEN_GAS_CONSTANT,
 } from '../../shared/gas/nitrogen'
 
@@ -61,6 +61,18 @@ describe('nitrogen by Span et al. (2000)', () => {
     expect(nitrogenCompressibility(rho, 300)).toBeCloseTo(0.9998, 4)
     // Specific gas constant of nitrogen 296.80 J/(kg·K) = 8.31451 / 0.02801348 (CODATA-era R used by the equation).
     expect(NITROGEN_GAS_CONSTANT).toBeCloseTo(296.80, 2)
+  })
+
+  it('the density solve converges in a few Newton steps for every state in range', () => {
+    let worst = 0
+    for (let pressure = 5e4; pressure <= 50e6; pressure *= 1.1) {
+      for (let temperature = 203.15; temperature <= 393.15; temperature += 5) {
+        const density = nitrogenDensity(pressure, temperature, false)
+        expect(nitrogenPressure(density, temperature) / pressure).toBeCloseTo(1, 10)
+        worst = Math.max(worst, densityIterations)
+      }
+    }
+    expect(worst).toBeLessThanOrEqual(8)
   })
 
   it('refuses states outside the accepted range with a clear error', () => {
