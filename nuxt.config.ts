@@ -1,17 +1,7 @@
 // https://nuxt.com/docs/api/configuration/nuxt-config
 export default defineNuxtConfig({
-  compatibilityDate: '2025-07-15',
-  // The repo root is the source root (no app/ folder); see DEVELOPERS.md.
-  srcDir: '.',
   modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@nuxt/eslint'],
   devtools: { enabled: false },
-  telemetry: false,
-  css: [
-    '@fontsource/source-sans-3/400.css',
-    '@fontsource/source-sans-3/600.css',
-    '@fontsource/source-sans-3/700.css',
-    '~/assets/css/main.css',
-  ],
   app: {
     head: {
       title: 'Chargewell',
@@ -24,6 +14,12 @@ export default defineNuxtConfig({
       link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
     },
   },
+  css: [
+    '@fontsource/source-sans-3/400.css',
+    '@fontsource/source-sans-3/600.css',
+    '@fontsource/source-sans-3/700.css',
+    '~/assets/css/main.css',
+  ],
   // Every value here is overridden at run time by NUXT_<KEY> (NUXT_DB_PATH, NUXT_UPLOADS_DIR, NUXT_SMTP_URL …).
   // The session password has no default on purpose: see server/plugins/0.config.ts.
   runtimeConfig: {
@@ -37,7 +33,11 @@ export default defineNuxtConfig({
     fakeSmtpPort: 2525,
     publicUrl: 'http://localhost:3000',
   },
+  // The repo root is the source root (no app/ folder); see DEVELOPERS.md.
+  srcDir: '.',
+  compatibilityDate: '2025-07-15',
   typescript: { strict: true },
+  telemetry: false,
   eslint: { config: { stylistic: true } },
   tailwindcss: { cssPath: '~/assets/css/main.css' },
 })

@@ -103,7 +103,8 @@ export function chargeTargetFromTable(input: TableTargetInput): TableTargetResul
     if (rows[i]!.kelvin === rows[i - 1]!.kelvin) throw new EngineInputError('Two table points have the same temperature.', 'points')
   }
   const gasK = temperatureToKelvin(input.gasTemperature)
-  const lowest = rows[0]!; const highest = rows[rows.length - 1]!
+  const lowest = rows[0]!
+  const highest = rows[rows.length - 1]!
   if (gasK < lowest.kelvin - 1e-9 || gasK > highest.kelvin + 1e-9) {
     const unit = input.gasTemperature.unit
     const show = (k: number) => kelvinToTemperature(k, unit).value.toFixed(1)
@@ -114,7 +115,8 @@ export function chargeTargetFromTable(input: TableTargetInput): TableTargetResul
   }
   let upper = rows.findIndex(row => row.kelvin >= gasK)
   if (upper === 0) upper = 1
-  const a = rows[upper - 1]!; const b = rows[upper]!
+  const a = rows[upper - 1]!
+  const b = rows[upper]!
   const targetPa = a.pascals + (b.pascals - a.pascals) * (gasK - a.kelvin) / (b.kelvin - a.kelvin)
   const show = (pascals: number) => pascalAbsoluteToPressure(pascals, first.unit, first.basis, ambientPa)
   const result: TableTargetResult = {
@@ -166,8 +168,10 @@ export function correctionCurve(input: CorrectionCurveInput): CorrectionCurveRes
   const referencePa = pressureToPascalAbsolute(pressure, ambientPa)
   const referenceK = temperatureToKelvin(temperature)
   law.checkInput(referenceK, referencePa, 'reference.pressure')
-  const fromK = temperatureToKelvin(input.from); const toK = temperatureToKelvin(input.to)
-  law.checkInput(fromK, referencePa, 'from'); law.checkInput(toK, referencePa, 'to')
+  const fromK = temperatureToKelvin(input.from)
+  const toK = temperatureToKelvin(input.to)
+  law.checkInput(fromK, referencePa, 'from')
+  law.checkInput(toK, referencePa, 'to')
   const band = input.tolerance ? referenceBand(referencePa, pressure, input.tolerance, ambientPa) : undefined
   const densities = [referencePa, band?.low, band?.high].map(pa => pa === undefined ? undefined : law.density(pa, referenceK))
   const lines: number[][] = [[], [], []]

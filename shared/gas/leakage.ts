@@ -184,8 +184,8 @@ export function prechargeTrend(input: PrechargeTrendInput): PrechargeTrendResult
   const values = normalised.map(point => point.value)
   const dayMean = mean(days) as number
   const valueMean = mean(values) as number
-  let sxx = 0; let sxy = 0
-  days.forEach((day, i) => { sxx += (day - dayMean) ** 2; sxy += (day - dayMean) * (values[i]! - valueMean) })
+  const sxx = days.reduce((total, day) => total + (day - dayMean) ** 2, 0)
+  const sxy = days.reduce((total, day, i) => total + (day - dayMean) * (values[i]! - valueMean), 0)
   if (sxx === 0) return result
   const slope = sxy / sxx
   const intercept = valueMean - slope * dayMean

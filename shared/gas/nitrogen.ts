@@ -137,7 +137,12 @@ export function residualHelmholtz(delta: number, tau: number, out: ResidualHelmh
   prepareDelta(delta)
   const inverseDelta = 1 / delta
   const inverseTau = 1 / tau
-  let value = 0; let d = 0; let dd = 0; let t = 0; let tt = 0; let dt = 0
+  let value = 0
+  let d = 0
+  let dd = 0
+  let t = 0
+  let tt = 0
+  let dt = 0
   for (let i = 0; i < POWER_COUNT; i++) {
     const exponentD = POWER_D[i]!
     const exponentL = POWER_L[i]!
@@ -170,8 +175,7 @@ export function residualHelmholtz(delta: number, tau: number, out: ResidualHelmh
     tt += term * (slopeTau * slopeTau - GAUSS_T[i]! * inverseTau * inverseTau - 2 * GAUSS_BETA[i]!)
     dt += term * slopeDelta * slopeTau
   }
-  out.value = value; out.d = d; out.dd = dd; out.t = t; out.tt = tt; out.dt = dt
-  return out
+  return Object.assign(out, { value, d, dd, t, tt, dt })
 }
 
 /** Ideal-gas Helmholtz energy α⁰(δ, τ) and its τ derivatives. */
@@ -180,7 +184,8 @@ export function idealHelmholtz(delta: number, tau: number): { value: number, t: 
   let t = LEAD_A2 + LOG_TAU / tau
   let tt = -LOG_TAU / (tau * tau)
   for (let i = 0; i < IDEAL_POWER_N.length; i++) {
-    const n = IDEAL_POWER_N[i]!; const exponent = IDEAL_POWER_T[i]!
+    const n = IDEAL_POWER_N[i]!
+    const exponent = IDEAL_POWER_T[i]!
     value += n * Math.pow(tau, exponent)
     t += n * exponent * Math.pow(tau, exponent - 1)
     tt += n * exponent * (exponent - 1) * Math.pow(tau, exponent - 2)
@@ -198,7 +203,8 @@ function residualDeltaDerivatives(delta: number, tau: number): typeof deltaDeriv
   const slot = prepareTau(tau)
   prepareDelta(delta)
   const inverseDelta = 1 / delta
-  let d = 0; let dd = 0
+  let d = 0
+  let dd = 0
   for (let i = 0; i < POWER_COUNT; i++) {
     const exponentD = POWER_D[i]!
     const exponentL = POWER_L[i]!
@@ -258,8 +264,11 @@ export function nitrogenPressure(density: number, temperature: number): number {
  * ideal-gas density, kept inside a bracket that tightens each step and falls back to
  * bisection, so it converges for every supercritical state (all of Chargewell's range).
  */
-/** Newton steps the last density solve took (for the benchmark). */
-export let densityIterations = 0
+/** Newton steps the last density solve took (read by the tests of the solver). */
+const solverStatistics = { densityIterations: 0 }
+export function lastDensityIterations(): number {
+  return solverStatistics.densityIterations
+}
 
 export function nitrogenDensity(pressure: number, temperature: number, internal = true): number {
   checkState(temperature, pressure, internal)
@@ -280,7 +289,7 @@ export function nitrogenDensity(pressure: number, temperature: number, internal 
     const slope = rt * (1 + 2 * delta * residual.d + delta * delta * residual.dd)
     const step = error / slope
     if (slope > 0 && Math.abs(step) <= 1e-12 * density) {
-      densityIterations = iteration + 1
+      solverStatistics.densityIterations = iteration + 1
       return density - step
     }
     let next = density - step

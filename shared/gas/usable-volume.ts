@@ -252,11 +252,25 @@ export function optimumPrecharge(input: OptimumPrechargeInput): OptimumPrecharge
   let low = Math.max(maxPa * 0.01, ambientPa * 1.01)
   let high = maxPa * 0.9999
   const ratio = (Math.sqrt(5) - 1) / 2
-  let a = high - ratio * (high - low); let b = low + ratio * (high - low)
-  let fa = probe(a).usable; let fb = probe(b).usable
+  let a = high - ratio * (high - low)
+  let b = low + ratio * (high - low)
+  let fa = probe(a).usable
+  let fb = probe(b).usable
   for (let iteration = 0; iteration < 90 && high - low > 1e-9 * maxPa; iteration++) {
-    if (fa < fb) { low = a; a = b; fa = fb; b = low + ratio * (high - low); fb = probe(b).usable }
-    else { high = b; b = a; fb = fa; a = high - ratio * (high - low); fa = probe(a).usable }
+    if (fa < fb) {
+      low = a
+      a = b
+      fa = fb
+      b = low + ratio * (high - low)
+      fb = probe(b).usable
+    }
+    else {
+      high = b
+      b = a
+      fb = fa
+      a = high - ratio * (high - low)
+      fa = probe(a).usable
+    }
   }
   const bestPa = (low + high) / 2
   const best = probe(bestPa)

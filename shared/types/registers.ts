@@ -1,3 +1,5 @@
+import type { GasModel, PressureBasis, PressureUnit, TemperatureUnit, VolumeUnit } from '../gas/types'
+
 export const ACCUMULATOR_TYPES = ['piston', 'bladder', 'diaphragm'] as const
 export type AccumulatorType = (typeof ACCUMULATOR_TYPES)[number]
 
@@ -10,8 +12,6 @@ export type SpecificationStatus = (typeof SPECIFICATION_STATUSES)[number]
 
 export const TOOL_KINDS = ['gauge', 'cart'] as const
 export type ToolKind = (typeof TOOL_KINDS)[number]
-
-import type { GasModel, PressureBasis, PressureUnit, TemperatureUnit, VolumeUnit } from '../gas/types'
 
 /** A specification as pages and routes exchange it. Pressures in `pressureUnit` / `pressureBasis`. */
 export interface SpecificationDto {

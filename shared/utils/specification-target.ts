@@ -5,9 +5,9 @@ import type { SpecificationDto } from '../types/registers'
 
 type SpecificationForTarget = Omit<SpecificationDto, 'id' | 'status' | 'title'>
 
-export type SpecificationTargetRequest =
-  | { route: 'charge-target', body: ChargeTargetInput }
-  | { route: 'table-target', body: TableTargetInput }
+export type SpecificationTargetRequest
+  = | { route: 'charge-target', body: ChargeTargetInput }
+    | { route: 'table-target', body: TableTargetInput }
 
 export function specificationPressure(specification: Pick<SpecificationDto, 'pressureUnit' | 'pressureBasis'>, value: number): Pressure {
   return { value, unit: specification.pressureUnit, basis: specification.pressureBasis }

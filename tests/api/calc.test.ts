@@ -2,7 +2,9 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { api, DEMO, signIn } from '../support/api'
 
 let cookie: string
-beforeAll(async () => { cookie = await signIn(DEMO.technician) })
+beforeAll(async () => {
+  cookie = await signIn(DEMO.technician)
+})
 
 const psig = (value: number) => ({ value, unit: 'psi', basis: 'gauge' })
 const celsius = (value: number) => ({ value, unit: 'C' })

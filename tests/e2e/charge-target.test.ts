@@ -5,8 +5,12 @@ import { formatPressureValue } from '../../shared/gas/format'
 import { launchBrowser, signedInPage } from '../support/browser'
 
 let browser: Browser
-beforeAll(async () => { browser = await launchBrowser() })
-afterAll(async () => { await browser?.close() })
+beforeAll(async () => {
+  browser = await launchBrowser()
+})
+afterAll(async () => {
+  await browser?.close()
+})
 
 describe('Charge target page', () => {
   it('gives the target for an installed unit, the verdict of an as-found reading, the plot and the cautions', async () => {

@@ -5,8 +5,12 @@ import type { Role } from '../../shared/types/user'
 import { launchBrowser, signedInPage } from '../support/browser'
 
 let browser: Browser
-beforeAll(async () => { browser = await launchBrowser() })
-afterAll(async () => { await browser?.close() })
+beforeAll(async () => {
+  browser = await launchBrowser()
+})
+afterAll(async () => {
+  await browser?.close()
+})
 
 const accounts: [string, Role[]][] = [
   ['technician@chargewell.test', ['technician']],

@@ -9,20 +9,26 @@ export const DEMO = {
   lead: 'lead@chargewell.test',
 } as const
 
+// Route answers are checked field by field in the tests, so their body is loosely typed.
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
 export interface ApiAnswer<T = any> { status: number, body: T, headers: Headers }
 
 /** One request to the test server; `cookie` carries a session from `signIn`. */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
 export async function api<T = any>(path: string, options: { method?: string, body?: unknown, cookie?: string, raw?: string } = {}): Promise<ApiAnswer<T>> {
   const headers: Record<string, string> = { accept: 'application/json' }
   if (options.cookie) headers.cookie = options.cookie
   let body: string | undefined
-  if (options.raw !== undefined) { body = options.raw; headers['content-type'] = 'application/json' }
-  else if (options.body !== undefined) { body = JSON.stringify(options.body); headers['content-type'] = 'application/json' }
+  if (options.raw !== undefined) body = options.raw
+  else if (options.body !== undefined) body = JSON.stringify(options.body)
+  if (body !== undefined) headers['content-type'] = 'application/json'
   const response = await fetch(`${inject('baseURL')}${path}`, { method: options.method ?? (body ? 'POST' : 'GET'), headers, body })
   const text = await response.text()
   let parsed: unknown = text
-  try { parsed = text ? JSON.parse(text) : undefined }
-  catch { /* not JSON */ }
+  try {
+    parsed = text ? JSON.parse(text) : undefined
+  }
+  catch { /* not JSON: keep the text */ }
   return { status: response.status, body: parsed as T, headers: response.headers }
 }
 

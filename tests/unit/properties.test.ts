@@ -50,7 +50,9 @@ const sizingArbitrary = fc.record({
   discharge: fc.constantFrom('isothermal' as const, 'adiabatic' as const, { n: 1.25 }),
 })
 
-function sizingInput(case_: fc.RecordValue<typeof sizingArbitrary extends fc.Arbitrary<infer T> ? { [K in keyof T]: fc.Arbitrary<T[K]> } : never>, litres = 1) {
+type SizingCase = typeof sizingArbitrary extends fc.Arbitrary<infer Case> ? Case : never
+
+function sizingInput(case_: SizingCase, litres = 1) {
   return {
     gasVolume: { value: litres, unit: 'L' as const },
     precharge: { value: case_.precharge, unit: 'psi' as const, basis: 'gauge' as const },
