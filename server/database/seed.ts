@@ -9,12 +9,14 @@
 import { Hash } from '@adonisjs/hash'
 import { Scrypt } from '@adonisjs/hash/drivers/scrypt'
 import type { Sequelize } from 'sequelize'
-import { assessReading } from '../../shared/gas/charge-target'
 import { ENGINE_VERSION } from '../../shared/gas/version'
 import type { Pressure, Temperature } from '../../shared/gas/types'
 import { DEFAULT_PREFERENCES, type Role } from '../../shared/types/user'
 import type { SpecificationDto } from '../../shared/types/registers'
 import { specificationChargeTarget, specificationPressure } from '../../shared/utils/specification-target'
+import { assessWorksheetReading } from '../../shared/utils/worksheet-results'
+import { gaugeAccuracy } from '../../shared/utils/tool-accuracy'
+import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT, type ToolSnapshot, type WorksheetContent, type WorksheetResults } from '../../shared/types/worksheet'
 import { DEFAULT_DB_PATH, openDatabase } from './connection'
 import { migrate } from './migrate'
 import { appendAudit } from './audit-chain'
@@ -159,6 +161,9 @@ async function seedScenario(sequelize: Sequelize, users: Record<string, User>): 
       await Tool.create({ kind: 'cart', assetNumber: 'NC-11', description: 'Nitrogen cart, booster, regulator to 5000 psi', rangeMax: 5000, rangeUnit: 'psi', resolution: null, accuracy: null, accuracyUnit: null, calibrationDue: isoDate(new Date(now.getTime() + 200 * DAY)) }, { transaction }),
     ]
 
+    // As a worksheet freezes them (GA-0141: 0.25 % of 4000 psi full scale = ±10 psi).
+    const gaugeSnapshot: ToolSnapshot = { id: gauges[0]!.id, assetNumber: gauges[0]!.assetNumber, description: gauges[0]!.description, calibrationDue: gauges[0]!.calibrationDue, accuracy: gaugeAccuracy(gauges[0]!) }
+    const cartSnapshot: ToolSnapshot = { id: carts[0]!.id, assetNumber: carts[0]!.assetNumber, description: carts[0]!.description, calibrationDue: carts[0]!.calibrationDue }
     const random = randomSource(4601)
     let serial = 1000
     const installedAt = isoDate(new Date(now.getTime() - 420 * DAY))
@@ -176,7 +181,7 @@ async function seedScenario(sequelize: Sequelize, users: Record<string, User>): 
         const leaking = aircraftSeed.registration === LEAKING_UNIT.registration && slot.position === LEAKING_UNIT.position
         await seedHistory({
           specification: { ...SPECIFICATIONS.find(seed => seed.partNumber === slot.partNumber)!, id: specification.id, status: 'current' },
-          aircraft, accumulator, leaking, random, gauge: gauges[0]!, cart: carts[0]!,
+          aircraft, accumulator, leaking, random, gauge: gaugeSnapshot, cart: cartSnapshot,
           performer: () => performers[Math.floor(random() * 2)]!, inspectorFor: (performer: User) => inspectors.find(user => user.id !== performer.id)!,
           transaction,
         })
@@ -192,8 +197,8 @@ interface HistoryContext {
   accumulator: Accumulator
   leaking: boolean
   random: () => number
-  gauge: Tool
-  cart: Tool
+  gauge: ToolSnapshot
+  cart: ToolSnapshot
   performer: () => User
   inspectorFor: (performer: User) => User
   transaction: import('sequelize').Transaction
@@ -219,41 +224,45 @@ async function seedHistory(context: HistoryContext): Promise<void> {
     // The true reading: the held charge carried from the reference temperature to today's gas temperature.
     const scale = heldAtReference / reference.target.value
     const target = specificationChargeTarget(specification, gasTemperature, ambient)
-    const asFoundValue = Math.round(target.target.value * scale / 5) * 5
-    const asFound: Pressure = specificationPressure(specification, asFoundValue)
-    const asFoundAssessment = assessReading({ reading: asFound, target: target.target, low: target.low!, high: target.high!, ambient })
-    const action = asFoundAssessment.verdict === 'low' || asFoundAssessment.difference < -0.6 * (target.target.value - target.low!.value) ? 'charge' : asFoundAssessment.verdict === 'high' ? 'vent' : 'none'
-    let asLeftValue = asFoundValue
+    const asFound: Pressure = specificationPressure(specification, Math.round(target.target.value * scale / 5) * 5)
+    const asFoundResult = assessWorksheetReading(specification, asFound, gasTemperature, ambient, context.gauge)
+    const halfBand = target.target.value - target.low!.value
+    const action = asFoundResult.assessment.verdict === 'low' || asFoundResult.assessment.difference < -0.6 * halfBand ? 'charge' : asFoundResult.assessment.verdict === 'high' ? 'vent' : 'none'
+    let asLeft = asFound
     if (action !== 'none') {
-      asLeftValue = Math.round(target.target.value / 5) * 5
+      asLeft = specificationPressure(specification, Math.round(target.target.value / 5) * 5)
       heldAtReference = specification.referencePressure + (random() - 0.5) * 10
     }
-    const asLeft = specificationPressure(specification, asLeftValue)
-    const asLeftAssessment = assessReading({ reading: asLeft, target: target.target, low: target.low!, high: target.high!, ambient })
+    const asLeftResult = assessWorksheetReading(specification, asLeft, gasTemperature, ambient, context.gauge)
     const performer = context.performer()
     const inspector = context.inspectorFor(performer)
     const performedAt = new Date(serviceTime)
-    const releasedAt = new Date(serviceTime + 2.5 * 3600_000)
+    const at = (minutes: number) => new Date(serviceTime + minutes * 60_000).toISOString()
+    const releasedAt = new Date(serviceTime + 150 * 60_000)
+    const { status: _status, ...frozenSpecification } = specification
+    const content: WorksheetContent = {
+      specification: frozenSpecification,
+      aircraft: { id: context.aircraft.id, registration: context.aircraft.registration, fleetNumber: context.aircraft.fleetNumber, type: context.aircraft.type },
+      accumulator: { id: context.accumulator.id, partNumber: context.accumulator.partNumber, serialNumber: context.accumulator.serialNumber, position: context.accumulator.position ?? '' },
+      preparation: { systemDepressurised: at(2), aircraftSafe: at(3), eyeProtection: at(4), nitrogenOnly: at(4) },
+      tools: { gauge: context.gauge, cart: context.cart },
+      conditions: { gasTemperature, temperatureMethod: 'ambient-shade', minutesSinceOperated: 120, ambient },
+      asFound: { reading: asFound, recordedAt: at(10) },
+      action: { kind: action, recordedAt: at(12) },
+      asLeft: { reading: asLeft, gasTemperature, recordedAt: at(12 + (action === 'none' ? 1 : specification.settleMinutes + 5)) },
+      finish: { valveLeakCheck: true, capFitted: true, remarks: action === 'charge' ? 'Charged to target.' : '', unserviceableReference: null, recordedAt: at(50) },
+    }
+    const results: WorksheetResults = { asFound: asFoundResult, asLeft: asLeftResult }
     const worksheet = await Worksheet.create({
       state: 'released', accumulatorId: context.accumulator.id, aircraftId: context.aircraft.id, specificationId: specification.id,
       performerId: performer.id, correctsId: null, workOrder: `WO-${new Date(serviceTime).getUTCFullYear()}-${String(Math.floor(random() * 90000) + 10000)}`,
-      reason: 'scheduled', serviceable: true, returnReason: null, voidReason: null, voidedById: null,
-      content: {
-        specification,
-        preparation: { systemDepressurised: performedAt.toISOString(), aircraftSafe: performedAt.toISOString(), eyeProtection: performedAt.toISOString(), nitrogenOnly: performedAt.toISOString() },
-        tools: { gaugeId: context.gauge.id, gaugeAssetNumber: context.gauge.assetNumber, gaugeCalibrationDue: context.gauge.calibrationDue, cartId: context.cart.id, cartAssetNumber: context.cart.assetNumber },
-        conditions: { gasTemperature, temperatureMethod: 'ambient-shade', minutesSinceOperated: 120, ambient },
-        asFound: { reading: asFound },
-        action: { kind: action },
-        asLeft: { reading: asLeft, gasTemperature, settledMinutes: specification.settleMinutes },
-        finish: { valveLeakCheck: true, capFitted: true, remarks: action === 'charge' ? 'Charged to target.' : '' },
-      },
-      results: { asFound: { target, assessment: asFoundAssessment }, asLeft: { target, assessment: asLeftAssessment } },
-      engineVersion: ENGINE_VERSION, performedAt, submittedAt: new Date(serviceTime + 3600_000), releasedAt,
+      reason: 'scheduled', serviceable: asLeftResult.assessment.verdict === 'in-limits', returnReason: null, voidReason: null, voidedById: null,
+      content: content as unknown as Record<string, unknown>, results: results as Record<string, unknown>,
+      engineVersion: ENGINE_VERSION, performedAt, submittedAt: new Date(serviceTime + 60 * 60_000), releasedAt,
       createdAt: performedAt, updatedAt: releasedAt,
     }, { transaction })
-    await Signature.create({ worksheetId: worksheet.id, userId: performer.id, capacity: 'performer', name: performer.name, authorisationNumber: performer.authorisationNumber, statement: 'I certify that the work recorded here was carried out in accordance with the approved maintenance data.', signedAt: worksheet.submittedAt! }, { transaction })
-    await Signature.create({ worksheetId: worksheet.id, userId: inspector.id, capacity: 'inspector', name: inspector.name, authorisationNumber: inspector.authorisationNumber, statement: 'I have independently inspected the work recorded here and found it satisfactory.', signedAt: releasedAt }, { transaction })
+    await Signature.create({ worksheetId: worksheet.id, userId: performer.id, capacity: 'performer', name: performer.name, authorisationNumber: performer.authorisationNumber, statement: PERFORMER_STATEMENT, signedAt: worksheet.submittedAt! }, { transaction })
+    await Signature.create({ worksheetId: worksheet.id, userId: inspector.id, capacity: 'inspector', name: inspector.name, authorisationNumber: inspector.authorisationNumber, statement: INSPECTOR_STATEMENT, signedAt: releasedAt }, { transaction })
     await appendAudit({ at: releasedAt, actorId: inspector.id, entity: 'worksheet', entityId: String(worksheet.id), action: 'released', detail: { performer: performer.id, inspector: inspector.id } }, transaction)
     lastService = serviceTime
   }

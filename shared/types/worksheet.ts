@@ -12,3 +12,84 @@ export const WORKSHEET_STATE_LABELS: Record<WorksheetState, string> = {
 
 export const WORKSHEET_REASONS = ['scheduled', 'defect', 'after-replacement'] as const
 export type WorksheetReason = (typeof WORKSHEET_REASONS)[number]
+
+import type { AssessmentSummary } from '../utils/worksheet-results'
+import type { Ambient, Pressure, Temperature } from '../gas/types'
+import type { SpecificationDto } from './registers'
+
+export interface ToolSnapshot {
+  id: number
+  assetNumber: string
+  description: string
+  calibrationDue: string | null
+  /** ± accuracy in a pressure unit, as carried into the verdict (gauges only). */
+  accuracy?: { value: number, unit: Pressure['unit'] }
+}
+
+/** What the performer entered, step by step. Times are ISO strings stamped by the server. */
+export interface WorksheetContent {
+  specification: Omit<SpecificationDto, 'status'>
+  aircraft: { id: number, registration: string, fleetNumber: string, type: string }
+  accumulator: { id: number, partNumber: string, serialNumber: string, position: string }
+  preparation?: Partial<Record<PreparationCheck, string>>
+  tools?: { gauge: ToolSnapshot, cart: ToolSnapshot }
+  conditions?: { gasTemperature: Temperature, temperatureMethod: 'ambient-shade' | 'shell', minutesSinceOperated: number, ambient: Ambient }
+  asFound?: { reading: Pressure, recordedAt: string }
+  action?: { kind: 'none' | 'charge' | 'vent', recordedAt: string }
+  asLeft?: { reading: Pressure, gasTemperature: Temperature, recordedAt: string }
+  finish?: { valveLeakCheck: boolean, capFitted: boolean, remarks: string, unserviceableReference: string | null, recordedAt: string }
+}
+
+export interface WorksheetResults {
+  asFound?: AssessmentSummary
+  asLeft?: AssessmentSummary
+}
+
+export const PREPARATION_CHECKS = ['systemDepressurised', 'aircraftSafe', 'eyeProtection', 'nitrogenOnly'] as const
+export type PreparationCheck = (typeof PREPARATION_CHECKS)[number]
+
+export const PREPARATION_LABELS: Record<PreparationCheck, string> = {
+  systemDepressurised: 'Hydraulic system depressurised: system gauge reads zero (the pre-charge cannot be read otherwise)',
+  aircraftSafe: 'Aircraft made safe for maintenance (controls, gear and doors as the approved data requires)',
+  eyeProtection: 'Eye protection on',
+  nitrogenOnly: 'Nitrogen only: dry, oil-free nitrogen — never oxygen or shop air',
+}
+
+export const WORKSHEET_STEPS = ['identify', 'preparation', 'tools', 'conditions', 'asFound', 'action', 'asLeft', 'finish', 'sign'] as const
+export type WorksheetStep = (typeof WORKSHEET_STEPS)[number]
+
+export const PERFORMER_STATEMENT = 'I certify that the servicing recorded here was carried out in accordance with the approved maintenance data, and that the readings are the ones I took.'
+export const INSPECTOR_STATEMENT = 'I certify that I have independently inspected the work recorded here, that I did not perform it, and that I found it satisfactory.'
+
+export interface SignatureDto {
+  capacity: 'performer' | 'inspector'
+  name: string
+  authorisationNumber: string | null
+  statement: string
+  signedAt: string
+}
+
+export interface WorksheetDto {
+  id: number
+  state: WorksheetState
+  workOrder: string
+  reason: WorksheetReason
+  performer: { id: number, name: string }
+  correctsId: number | null
+  correctedBy: number[]
+  content: WorksheetContent
+  results: WorksheetResults
+  engineVersion: string
+  serviceable: boolean | null
+  returnReason: string | null
+  voidReason: string | null
+  performedAt: string | null
+  submittedAt: string | null
+  releasedAt: string | null
+  createdAt: string
+  updatedAt: string
+  signatures: SignatureDto[]
+  attachments: { id: number, kind: string, originalName: string, mimeType: string, sizeBytes: number }[]
+  /** The settle time's end, when a charge or vent started it. */
+  settleUntil: string | null
+}

@@ -1,0 +1,81 @@
+import { z } from 'zod'
+import { WORKSHEET_REASONS, WORKSHEET_STATES } from '../types/worksheet'
+import { ambientSchema, numberField, pressureSchema, temperatureSchema } from './quantities'
+
+export const worksheetCreateSchema = z.object({
+  accumulatorId: z.number({ required_error: 'Pick the installed accumulator.', invalid_type_error: 'Pick the installed accumulator.' }).int().positive(),
+  workOrder: z.string({ required_error: 'Enter the work order.' }).trim().min(3, 'Enter the work order reference.').max(60),
+  reason: z.enum(WORKSHEET_REASONS, { errorMap: () => ({ message: `The reason is one of: ${WORKSHEET_REASONS.join(', ')}.` }) }),
+  correctsId: z.number().int().positive().optional(),
+}).strict()
+export type WorksheetCreateBody = z.infer<typeof worksheetCreateSchema>
+
+const confirmation = z.boolean({ invalid_type_error: 'Confirm with true.' }).optional()
+
+export const preparationStepSchema = z.object({
+  step: z.literal('preparation'),
+  systemDepressurised: confirmation,
+  aircraftSafe: confirmation,
+  eyeProtection: confirmation,
+  nitrogenOnly: confirmation,
+}).strict()
+
+export const toolsStepSchema = z.object({
+  step: z.literal('tools'),
+  gaugeId: z.number({ required_error: 'Pick the gauge you used.', invalid_type_error: 'Pick the gauge you used.' }).int().positive(),
+  cartId: z.number({ required_error: 'Pick the nitrogen cart you used.', invalid_type_error: 'Pick the nitrogen cart you used.' }).int().positive(),
+}).strict()
+
+export const conditionsStepSchema = z.object({
+  step: z.literal('conditions'),
+  gasTemperature: temperatureSchema,
+  temperatureMethod: z.enum(['ambient-shade', 'shell'], { errorMap: () => ({ message: 'Say how the temperature was taken: ambient-shade or shell.' }) }),
+  minutesSinceOperated: numberField('the minutes since the system was last operated').int('Whole minutes.').min(0).max(100000),
+  ambient: ambientSchema,
+}).strict()
+
+export const asFoundStepSchema = z.object({ step: z.literal('asFound'), reading: pressureSchema }).strict()
+
+export const actionStepSchema = z.object({
+  step: z.literal('action'),
+  kind: z.enum(['none', 'charge', 'vent'], { errorMap: () => ({ message: 'The action is none, charge or vent.' }) }),
+}).strict()
+
+export const asLeftStepSchema = z.object({ step: z.literal('asLeft'), reading: pressureSchema, gasTemperature: temperatureSchema }).strict()
+
+export const finishStepSchema = z.object({
+  step: z.literal('finish'),
+  valveLeakCheck: z.boolean({ required_error: 'Confirm the charging valve leak check.' }),
+  capFitted: z.boolean({ required_error: 'Confirm the valve cap is fitted.' }),
+  remarks: z.string().trim().max(2000).default(''),
+  unserviceableReference: z.string().trim().max(80).transform(value => value || null).nullable().default(null),
+}).strict()
+
+/** One step of the worksheet, saved as it is completed. */
+export const worksheetStepSchema = z.discriminatedUnion('step', [
+  preparationStepSchema, toolsStepSchema, conditionsStepSchema, asFoundStepSchema, actionStepSchema, asLeftStepSchema, finishStepSchema,
+], { errorMap: (issue, context) => issue.code === 'invalid_union_discriminator' ? { message: 'Say which step: preparation, tools, conditions, asFound, action, asLeft or finish.' } : { message: context.defaultError } })
+export type WorksheetStepBody = z.infer<typeof worksheetStepSchema>
+
+export const signatureSchema = z.object({
+  password: z.string({ required_error: 'Enter your password to sign.' }).min(1, 'Enter your password to sign.'),
+  certify: z.literal(true, { errorMap: () => ({ message: 'Confirm the statement to sign.' }) }),
+}).strict()
+
+export const reasonSchema = z.object({
+  reason: z.string({ required_error: 'Give the reason.' }).trim().min(5, 'Give the reason in a few words.').max(2000),
+}).strict()
+
+export const worksheetListQuerySchema = z.object({
+  aircraftId: z.coerce.number().int().positive().optional(),
+  accumulatorId: z.coerce.number().int().positive().optional(),
+  state: z.enum(WORKSHEET_STATES).optional(),
+  performerId: z.coerce.number().int().positive().optional(),
+  from: z.string().date('Use a date like 2026-01-31.').optional(),
+  to: z.string().date('Use a date like 2026-01-31.').optional(),
+  sort: z.enum(['performedAt', 'createdAt', 'state', 'workOrder']).default('createdAt'),
+  direction: z.enum(['asc', 'desc']).default('desc'),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(25),
+})
+export type WorksheetListQuery = z.infer<typeof worksheetListQuerySchema>
