@@ -13,8 +13,8 @@ export interface NavigationItem {
 /** The product's pages and who uses them. Page guards and the navigation both read this. */
 export const NAVIGATION: NavigationItem[] = [
   { label: 'Charge target', to: '/charge-target', roles: [], description: 'The pre-charge to hold at the gas temperature now.' },
-  { label: 'Worksheets', to: '/worksheets', roles: ['technician', 'inspector', 'engineer', 'admin'], description: 'Step-by-step servicing records.', comingSoon: true },
-  { label: 'Countersign', to: '/countersign', roles: ['inspector'], description: 'Worksheets awaiting independent inspection.', comingSoon: true },
+  { label: 'Worksheets', to: '/worksheets', roles: ['technician', 'inspector', 'engineer', 'admin'], description: 'Step-by-step servicing records.' },
+  { label: 'Countersign', to: '/countersign', roles: ['inspector'], description: 'Worksheets awaiting independent inspection.' },
   { label: 'Sizing', to: '/sizing', roles: ['engineer', 'admin'], description: 'Usable volume, applications and required gas volume.', comingSoon: true },
   { label: 'Fleet', to: '/fleet', roles: [], description: 'Aircraft and installed accumulators.', comingSoon: true },
   { label: 'Specifications', to: '/specifications', roles: [], description: 'Servicing specifications by part number and revision.', comingSoon: true },

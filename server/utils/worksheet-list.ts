@@ -12,6 +12,7 @@ export function worksheetListItem(row: Worksheet) {
     workOrder: row.workOrder,
     reason: row.reason,
     performer: joined.performer?.name ?? '',
+    performerId: row.performerId,
     registration: joined.aircraft?.registration ?? '',
     fleetNumber: joined.aircraft?.fleetNumber ?? '',
     position: joined.accumulator?.position ?? '',

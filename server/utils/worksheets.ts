@@ -120,13 +120,11 @@ export async function applyStep(worksheet: Worksheet, step: WorksheetStepBody): 
   const now = new Date().toISOString()
   switch (step.step) {
     case 'preparation': {
-      const preparation = { ...content.preparation }
-      for (const check of PREPARATION_CHECKS) {
-        // Each confirmation is stamped when first given; withdrawing one clears it.
-        if (step[check] === true) preparation[check] ??= now
-        else if (step[check] === false) delete preparation[check]
-      }
-      content.preparation = preparation
+      // Each confirmation is stamped when first given; withdrawing one clears it.
+      content.preparation = Object.fromEntries(PREPARATION_CHECKS.flatMap((check) => {
+        const confirmed = step[check] ?? Boolean(content.preparation?.[check])
+        return confirmed ? [[check, content.preparation?.[check] ?? now]] : []
+      }))
       break
     }
     case 'tools': {

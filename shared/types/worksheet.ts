@@ -1,4 +1,8 @@
 /** Record states, in our own words: draft → awaiting countersign → released; returned and voided beside them. */
+import type { AssessmentSummary } from '../utils/worksheet-results'
+import type { Ambient, Pressure, Temperature } from '../gas/types'
+import type { SpecificationDto } from './registers'
+
 export const WORKSHEET_STATES = ['draft', 'awaiting-countersign', 'released', 'returned', 'voided'] as const
 export type WorksheetState = (typeof WORKSHEET_STATES)[number]
 
@@ -12,10 +16,6 @@ export const WORKSHEET_STATE_LABELS: Record<WorksheetState, string> = {
 
 export const WORKSHEET_REASONS = ['scheduled', 'defect', 'after-replacement'] as const
 export type WorksheetReason = (typeof WORKSHEET_REASONS)[number]
-
-import type { AssessmentSummary } from '../utils/worksheet-results'
-import type { Ambient, Pressure, Temperature } from '../gas/types'
-import type { SpecificationDto } from './registers'
 
 export interface ToolSnapshot {
   id: number

@@ -51,7 +51,7 @@ export async function signIn(email: string, password = DEMO_PASSWORD): Promise<s
 export async function upload(path: string, fields: Record<string, string>, file: { name: string, bytes: Uint8Array, type?: string }, cookie?: string): Promise<ApiAnswer> {
   const form = new FormData()
   for (const [name, value] of Object.entries(fields)) form.append(name, value)
-  form.append('file', new Blob([file.bytes], { type: file.type ?? 'application/octet-stream' }), file.name)
+  form.append('file', new Blob([file.bytes as Uint8Array<ArrayBuffer>], { type: file.type ?? 'application/octet-stream' }), file.name)
   const response = await fetch(`${inject('baseURL')}${path}`, { method: 'POST', body: form, headers: cookie ? { cookie } : {} })
   const text = await response.text()
   let body: unknown = text

@@ -1,0 +1,51 @@
+import { toTypedSchema } from '@vee-validate/zod'
+import { useForm } from 'vee-validate'
+import type { ZodType, ZodTypeDef } from 'zod'
+import type { WorksheetStepBody } from '~~/shared/schemas/worksheet'
+import type { WorksheetDto } from '~~/shared/types/worksheet'
+import { useWorksheetDraftsStore } from '~~/stores/worksheet-drafts'
+
+export type StepSaveStatus = 'idle' | 'saving' | 'saved' | 'queued' | 'error'
+
+/**
+ * One worksheet step's form: validated with the step's shared schema, every keystroke kept in
+ * the draft store (so a reload restores it), saved to the server on submit or queued offline.
+ */
+export function useWorksheetStepForm<Body extends WorksheetStepBody>(
+  worksheetId: number,
+  schema: ZodType<Body, ZodTypeDef, unknown>,
+  initialValues: () => Partial<Body>,
+  onSaved: (worksheet: WorksheetDto) => void,
+) {
+  const drafts = useWorksheetDraftsStore()
+  const step = (initialValues() as { step: Body['step'] }).step
+  const form = useForm({
+    validationSchema: toTypedSchema(schema),
+    initialValues: { ...initialValues(), ...(drafts.draftFor(worksheetId, step) ?? {}) } as never,
+  })
+  watch(form.values, values => drafts.remember(worksheetId, step, values as Record<string, unknown>), { deep: true })
+  const status = ref<StepSaveStatus>('idle')
+  const message = ref<string | null>(null)
+
+  const save = form.handleSubmit(async (body) => {
+    status.value = 'saving'
+    message.value = null
+    try {
+      const { worksheet, queued } = await drafts.saveStep(worksheetId, body as WorksheetStepBody)
+      if (queued) {
+        status.value = 'queued'
+        message.value = 'No connection: saved on this device, and sent as soon as the connection returns.'
+        return
+      }
+      status.value = 'saved'
+      onSaved(worksheet!)
+    }
+    catch (failure) {
+      status.value = 'error'
+      form.setErrors(fieldErrors(failure))
+      message.value = errorMessage(failure)
+    }
+  })
+
+  return { ...form, save, status, message }
+}
