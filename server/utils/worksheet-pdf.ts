@@ -1,22 +1,7 @@
-import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFPage } from 'pdf-lib'
 import { formatPressure, formatTemperature } from '../../shared/gas/format'
 import { WORKSHEET_STATE_LABELS, PREPARATION_CHECKS, PREPARATION_LABELS, type WorksheetDto } from '../../shared/types/worksheet'
 import type { AssessmentSummary } from '../../shared/utils/worksheet-results'
-
-export const CAUTIONS = [
-  'High-pressure nitrogen can kill.',
-  'Use only dry, oil-free nitrogen - never oxygen or shop air.',
-  'Depressurise the hydraulic system first.',
-  'Charge through a regulator, slowly. Wear eye protection. Stay clear of the valve line.',
-  'Every figure is an aid: the approved maintenance data, the operator\'s procedures and local regulations govern.',
-]
-
-/** The standard PDF fonts encode WinAnsi only: map the few characters outside it. */
-function printable(text: string): string {
-  return text
-    .replace(/[−–—]/g, '-').replace(/[‘’]/g, '\'').replace(/[“”]/g, '"').replace(/³/g, '3').replace(/ⁿ/g, '^n')
-    .replace(/→/g, '->').replace(/≤/g, '<=').replace(/≥/g, '>=').replace(/[^\n\r\x20-\x7E\xA0-\xFF]/g, '?')
-}
+import { CAUTIONS, PdfWriter } from './pdf-writer'
 
 const VERDICT: Record<string, string> = { 'in-limits': 'IN LIMITS', 'low': 'LOW', 'high': 'HIGH' }
 
@@ -34,51 +19,15 @@ function readingLine(label: string, reading: string, summary: AssessmentSummary 
 
 /** The worksheet as a record to print or file: every reading, calculation, tool and signature. */
 export async function worksheetPdf(worksheet: WorksheetDto): Promise<Uint8Array> {
-  const document = await PDFDocument.create()
-  document.setTitle(`Chargewell worksheet ${worksheet.id}`)
-  document.setCreator('Chargewell')
-  const regular = await document.embedFont(StandardFonts.Helvetica)
-  const bold = await document.embedFont(StandardFonts.HelveticaBold)
-  const margin = 50
-  let page: PDFPage = document.addPage([595.28, 841.89])
-  let y = page.getHeight() - margin
-
-  const write = (text: string, options: { font?: PDFFont, size?: number, gap?: number, colour?: [number, number, number] } = {}) => {
-    const font = options.font ?? regular
-    const size = options.size ?? 10
-    const width = page.getWidth() - 2 * margin
-    const words = printable(text).split(' ')
-    let line = ''
-    const lines: string[] = []
-    for (const word of words) {
-      const candidate = line ? `${line} ${word}` : word
-      if (font.widthOfTextAtSize(candidate, size) > width && line) {
-        lines.push(line)
-        line = `   ${word}`
-      }
-      else line = candidate
-    }
-    lines.push(line)
-    for (const text of lines) {
-      if (y < margin + size) {
-        page = document.addPage([595.28, 841.89])
-        y = page.getHeight() - margin
-      }
-      page.drawText(text, { x: margin, y, size, font, color: rgb(...(options.colour ?? [0.04, 0.16, 0.19])) })
-      y -= size * 1.35
-    }
-    y -= options.gap ?? 0
-  }
-  const heading = (text: string) => {
-    y -= 6
-    write(text, { font: bold, size: 12, gap: 2 })
-  }
+  const pdf = await PdfWriter.create(`Chargewell worksheet ${worksheet.id}`)
+  const write = (text: string, options: { font?: 'bold', size?: number, gap?: number, colour?: [number, number, number] } = {}) => pdf.write(text, { ...options, bold: options.font === 'bold' })
+  const heading = (text: string) => pdf.heading(text)
 
   const { content, results } = worksheet
   const specification = content.specification
-  write('Chargewell - accumulator servicing record', { font: bold, size: 16, gap: 4 })
-  write(`Worksheet ${worksheet.id} - ${WORKSHEET_STATE_LABELS[worksheet.state]}${worksheet.correctsId ? ` - corrects worksheet ${worksheet.correctsId}` : ''}${worksheet.correctedBy.length ? ` - corrected by worksheet ${worksheet.correctedBy.join(', ')}` : ''}`, { font: bold })
-  if (worksheet.voidReason) write(`VOIDED: ${worksheet.voidReason}`, { font: bold, colour: [0.55, 0.1, 0.07] })
+  write('Chargewell - accumulator servicing record', { font: 'bold', size: 16, gap: 4 })
+  write(`Worksheet ${worksheet.id} - ${WORKSHEET_STATE_LABELS[worksheet.state]}${worksheet.correctsId ? ` - corrects worksheet ${worksheet.correctsId}` : ''}${worksheet.correctedBy.length ? ` - corrected by worksheet ${worksheet.correctedBy.join(', ')}` : ''}`, { font: 'bold' })
+  if (worksheet.voidReason) write(`VOIDED: ${worksheet.voidReason}`, { font: 'bold', colour: [0.55, 0.1, 0.07] })
   write(`Work order ${worksheet.workOrder}, reason: ${worksheet.reason}. Engine version ${worksheet.engineVersion}.`)
 
   heading('Aircraft and unit')
@@ -118,11 +67,11 @@ export async function worksheetPdf(worksheet: WorksheetDto): Promise<Uint8Array>
   heading('Signatures')
   if (!worksheet.signatures.length) write('Not signed.')
   for (const signature of worksheet.signatures) {
-    write(`${signature.capacity === 'performer' ? 'Performed by' : 'Independent inspection by'} ${signature.name} (authorisation ${signature.authorisationNumber ?? 'none'}) at ${signature.signedAt}`, { font: bold })
+    write(`${signature.capacity === 'performer' ? 'Performed by' : 'Independent inspection by'} ${signature.name} (authorisation ${signature.authorisationNumber ?? 'none'}) at ${signature.signedAt}`, { font: 'bold' })
     write(`"${signature.statement}"`)
   }
 
   heading('Cautions')
   for (const caution of CAUTIONS) write(caution)
-  return document.save()
+  return pdf.save()
 }

@@ -306,3 +306,113 @@ export function usableVolumeEnvelope(input: EnvelopeInput): EnvelopeResult {
   })
   return { rows, inputs: input, method: 'usable volume at each temperature of the envelope', engineVersion: ENGINE_VERSION }
 }
+
+/**
+ * Highest ratio of maximum working pressure to pre-charge (absolute) usually accepted per
+ * accumulator type — common practice (no source): bladders about 4:1 (the bladder is
+ * squeezed against the poppet beyond that), diaphragms about 8:1, pistons about 10:1
+ * (seal friction and gas heating). The approved data and the maker's limits govern.
+ */
+export const COMPRESSION_RATIO_LIMITS = { bladder: 4, diaphragm: 8, piston: 10 } as const
+export type AccumulatorKind = keyof typeof COMPRESSION_RATIO_LIMITS
+
+/** Warnings on the compression ratio for an accumulator type (common practice limits). */
+export function compressionRatioWarnings(result: UsableVolumeResult, kind: AccumulatorKind | undefined, ambient?: Ambient): string[] {
+  if (!kind) return []
+  const ambientPa = ambientPressure(ambient)
+  const maxPa = pressureToPascalAbsolute(result.inputs.maxPressure, ambientPa)
+  const prechargePa = pressureToPascalAbsolute(result.prechargeAtOperatingTemperature, ambientPa)
+  const ratio = maxPa / prechargePa
+  const limit = COMPRESSION_RATIO_LIMITS[kind]
+  if (ratio <= limit) return []
+  return [`Compression ratio ${ratio.toFixed(1)}:1 (maximum pressure to pre-charge, absolute) is beyond the usual ${limit}:1 for a ${kind} accumulator (common practice; the maker's limits govern).`]
+}
+
+export interface DischargeCurveInput extends UsableVolumeInput {
+  points?: number
+}
+
+export interface DischargeCurveResult extends Provenance<DischargeCurveInput> {
+  /** Fluid delivered from the maximum pressure, in the gas volume's unit. */
+  delivered: number[]
+  /** Gas pressure, in the minimum pressure's unit and basis. */
+  pressure: number[]
+  /** The pressure after each whole application, when a volume per application is given. */
+  applications: { delivered: number, pressure: number }[]
+}
+
+/**
+ * Gas pressure against fluid delivered along the discharge, from the maximum working pressure
+ * to the minimum (or to where the separator bottoms out), for plotting, with each application
+ * as a step.
+ */
+export function dischargeCurve(input: DischargeCurveInput): DischargeCurveResult {
+  const count = input.points ?? 60
+  if (!(count >= 2 && count <= 1000)) throw new EngineInputError('A curve needs between 2 and 1000 points.', 'points')
+  const si = toSi(input)
+  const outcome = sizeSi(si)
+  const gasM3 = volumeToCubicMetres(input.gasVolume)
+  const unit = input.gasVolume.unit
+  const mass = outcome.atMax.density * outcome.atMaxFraction * gasM3
+  const pressureAt = (deliveredM3: number) => {
+    if (deliveredM3 === 0) return outcome.atMax.pressure
+    const state = changeToDensity(si.law, si.discharge, outcome.atMax, mass / (outcome.atMaxFraction * gasM3 + deliveredM3))
+    return state.pressure
+  }
+  const show = (pa: number) => pascalAbsoluteToPressure(pa, input.minPressure.unit, input.minPressure.basis, si.ambientPa).value
+  const usableM3 = outcome.usableFraction * gasM3
+  const delivered: number[] = []
+  const pressure: number[] = []
+  for (let i = 0; i < count; i++) {
+    const deliveredM3 = usableM3 * i / (count - 1)
+    delivered.push(cubicMetresToVolume(deliveredM3, unit).value)
+    pressure.push(show(pressureAt(deliveredM3)))
+  }
+  const applications: DischargeCurveResult['applications'] = []
+  if (input.perApplication) {
+    const perM3 = volumeToCubicMetres(input.perApplication)
+    for (let n = 1; n * perM3 <= usableM3 * (1 + 1e-12) && n <= 500; n++) {
+      applications.push({ delivered: cubicMetresToVolume(n * perM3, unit).value, pressure: show(pressureAt(n * perM3)) })
+    }
+  }
+  return { delivered, pressure, applications, inputs: input, method: `discharge ${describeProcess(si.discharge, si.law.model)} from the maximum pressure; ${describeModel(si.law.model)}`, engineVersion: ENGINE_VERSION }
+}
+
+export interface PrechargeSweepInput extends Omit<UsableVolumeInput, 'precharge'> {
+  /** Unit and basis of the pre-charge axis; defaults to the minimum pressure's. */
+  prechargeUnit?: Pick<Pressure, 'unit' | 'basis'>
+  points?: number
+}
+
+export interface PrechargeSweepResult extends Provenance<PrechargeSweepInput> {
+  /** Pre-charge at the pre-charge temperature. */
+  precharge: number[]
+  /** Usable volume, in the gas volume's unit; 0 where no fluid would enter. */
+  usable: number[]
+  optimum: { precharge: Pressure, usableVolume: Volume }
+}
+
+/** Usable volume against pre-charge (pre-charge from 20 % to 100 % of the maximum), with the optimum marked. */
+export function prechargeSweep(input: PrechargeSweepInput): PrechargeSweepResult {
+  const count = input.points ?? 50
+  if (!(count >= 2 && count <= 500)) throw new EngineInputError('A sweep needs between 2 and 500 points.', 'points')
+  const like = input.prechargeUnit ?? input.minPressure
+  const ambientPa = ambientPressure(input.ambient)
+  const maxPa = pressureToPascalAbsolute(input.maxPressure, ambientPa)
+  const precharge: number[] = []
+  const usable: number[] = []
+  for (let i = 0; i < count; i++) {
+    const pa = maxPa * (0.2 + 0.8 * i / (count - 1)) * (i === count - 1 ? 0.999 : 1)
+    const stated = pascalAbsoluteToPressure(pa, like.unit, like.basis, ambientPa)
+    precharge.push(stated.value)
+    try {
+      usable.push(usableVolume({ ...input, precharge: stated }).usableVolume.value)
+    }
+    catch (error) {
+      if (!(error instanceof EngineInputError && error.field === 'precharge')) throw error
+      usable.push(0)
+    }
+  }
+  const optimum = optimumPrecharge({ ...input, prechargeUnit: like })
+  return { precharge, usable, optimum: { precharge: optimum.precharge, usableVolume: optimum.usableVolume }, inputs: input, method: `usable volume at each pre-charge; ${optimum.method}`, engineVersion: ENGINE_VERSION }
+}

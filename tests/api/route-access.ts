@@ -41,4 +41,12 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'GET /api/attachments/[id]': 'signed-in',
   'GET /api/audit/verify': ['admin'],
   'GET /api/admin/outbox': ['admin'],
+  'POST /api/calc/study': 'signed-in',
+  'GET /api/studies': 'signed-in',
+  'POST /api/studies': ['engineer', 'admin'],
+  'GET /api/studies/[id]': 'signed-in',
+  'PATCH /api/studies/[id]': ['engineer', 'admin'],
+  'POST /api/studies/[id]/duplicate': ['engineer', 'admin'],
+  'GET /api/studies/[id]/csv': 'signed-in',
+  'GET /api/studies/[id]/pdf': 'signed-in',
 }

@@ -97,3 +97,32 @@ describe('inverse and optimum', () => {
     expect(result.precharge.value).toBeCloseTo(3000 * (2 / 3) ** (1 / 1.4), 3)
   })
 })
+
+describe('curves for the sizing plots', () => {
+  it('the discharge curve runs from the maximum to the minimum pressure, with applications as steps on it', async () => {
+    const { dischargeCurve } = await import('../../shared/gas/usable-volume')
+    const curve = dischargeCurve({ ...textbook, discharge: 'isothermal', perApplication: { value: 0.02, unit: 'L' }, points: 11 })
+    expect(curve.pressure[0]).toBeCloseTo(3000, 6)
+    expect(curve.pressure.at(-1)).toBeCloseTo(2000, 6)
+    expect(curve.delivered.at(-1)).toBeCloseTo(1 / 6, 10)
+    expect(curve.applications).toHaveLength(8)
+    // Boyle: after n applications p = 3000 × (1/3) / (1/3 + 0.02 n), by hand.
+    expect(curve.applications[2]!.pressure).toBeCloseTo(1000 / (1 / 3 + 0.06), 6)
+  })
+
+  it('the pre-charge sweep peaks at the optimum', async () => {
+    const { prechargeSweep } = await import('../../shared/gas/usable-volume')
+    const sweep = prechargeSweep({ ...textbook, discharge: 'isothermal', points: 81 })
+    const best = Math.max(...sweep.usable)
+    expect(sweep.optimum.usableVolume.value).toBeGreaterThanOrEqual(best - 1e-9)
+    expect(sweep.optimum.precharge.value).toBeCloseTo(2000, 3)
+    expect(sweep.usable.at(-1)).toBeLessThan(0.01)
+  })
+
+  it('warns beyond the usual compression ratio for a bladder (common practice 4:1)', async () => {
+    const { compressionRatioWarnings } = await import('../../shared/gas/usable-volume')
+    const low = usableVolume({ ...textbook, precharge: psia(600) })
+    expect(compressionRatioWarnings(low, 'bladder')[0]).toMatch(/5\.0:1 .* usual 4:1 for a bladder/)
+    expect(compressionRatioWarnings(low, 'piston')).toEqual([])
+  })
+})
