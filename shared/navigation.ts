@@ -15,7 +15,7 @@ export const NAVIGATION: NavigationItem[] = [
   { label: 'Charge target', to: '/charge-target', roles: [], description: 'The pre-charge to hold at the gas temperature now.' },
   { label: 'Worksheets', to: '/worksheets', roles: ['technician', 'inspector', 'engineer', 'admin'], description: 'Step-by-step servicing records.' },
   { label: 'Countersign', to: '/countersign', roles: ['inspector'], description: 'Worksheets awaiting independent inspection.' },
-  { label: 'Sizing', to: '/sizing', roles: ['engineer', 'admin'], description: 'Usable volume, applications and required gas volume.', comingSoon: true },
+  { label: 'Sizing', to: '/sizing', roles: ['engineer', 'admin'], description: 'Usable volume, applications and required gas volume.' },
   { label: 'Fleet', to: '/fleet', roles: [], description: 'Aircraft and installed accumulators.', comingSoon: true },
   { label: 'Specifications', to: '/specifications', roles: [], description: 'Servicing specifications by part number and revision.', comingSoon: true },
   { label: 'Tools', to: '/tools', roles: [], description: 'Gauges, calibration and nitrogen carts.', comingSoon: true },

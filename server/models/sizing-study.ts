@@ -1,4 +1,5 @@
-import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type NonAttribute, type Sequelize } from 'sequelize'
+import type { Specification } from './specification'
 
 export class SizingStudy extends Model<InferAttributes<SizingStudy>, InferCreationAttributes<SizingStudy>> {
   declare id: CreationOptional<number>
@@ -11,6 +12,7 @@ export class SizingStudy extends Model<InferAttributes<SizingStudy>, InferCreati
   declare updatedById: ForeignKey<number>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
+  declare specification?: NonAttribute<Specification>
 
   static initModel(sequelize: Sequelize): void {
     SizingStudy.init({
