@@ -6,14 +6,14 @@ export const AMBIENT = { elevation: { value: 420, unit: 'ft' } } as const
 export const GAS_TEMPERATURE = { value: 15, unit: 'C' } as const
 
 export async function unitAt(cookie: string, registration: string, position: RegExp) {
-  const units = (await api('/api/accumulators', { cookie })).body as { id: number, position: string, aircraft: { registration: string } }[]
+  const units = (await api('/api/accumulators?installed=true&pageSize=500', { cookie })).body.items as { id: number, position: string, aircraft: { registration: string } }[]
   const unit = units.find(candidate => candidate.aircraft.registration === registration && position.test(candidate.position))
   if (!unit) throw new Error(`No unit at ${registration} ${position}`)
   return unit
 }
 
 export async function toolId(cookie: string, assetNumber: string): Promise<number> {
-  const tools = (await api('/api/tools', { cookie })).body as { id: number, assetNumber: string }[]
+  const tools = (await api('/api/tools?pageSize=500', { cookie })).body.items as { id: number, assetNumber: string }[]
   return tools.find(tool => tool.assetNumber === assetNumber)!.id
 }
 

@@ -1,24 +1,24 @@
 import { Op } from 'sequelize'
-import { Accumulator, Aircraft, Specification } from '../../models'
+import { accumulatorQuerySchema } from '../../../shared/schemas/registers'
+import { Accumulator, Aircraft } from '../../models'
 
-/** Installed accumulators with their aircraft and current specification id. */
+/** Accumulators with their aircraft and current specification: search, filter, sort, pages. Every signed-in role. */
 export default defineEventHandler(async (event) => {
   await requireRole(event)
-  const accumulators = await Accumulator.findAll({
-    where: { aircraftId: { [Op.ne]: null } },
+  const query = await getValidatedQuery(event, validateWith(accumulatorQuerySchema))
+  const { total, rows } = await pageOf(Accumulator, {
+    where: {
+      ...searchWhere(query.q, ['partNumber', 'serialNumber', 'position', 'system', '$aircraft.registration$']),
+      ...(query.installed === true ? { aircraftId: { [Op.ne]: null } } : query.installed === false ? { aircraftId: null } : {}),
+      ...(query.aircraftId ? { aircraftId: query.aircraftId } : {}),
+      ...(query.partNumber ? { partNumber: query.partNumber } : {}),
+      ...(query.type ? { '$aircraft.type$': query.type } : {}),
+      ...(query.base ? { '$aircraft.base$': query.base } : {}),
+    },
     include: [{ model: Aircraft, as: 'aircraft' }],
-    order: [[{ model: Aircraft, as: 'aircraft' }, 'registration', 'ASC'], ['position', 'ASC']],
+    order: [[{ model: Aircraft, as: 'aircraft' }, 'registration', query.direction.toUpperCase()], [query.sort, query.direction.toUpperCase()]],
+    page: query.page,
+    pageSize: query.pageSize,
   })
-  const current = await Specification.findAll({ where: { status: 'current' }, attributes: ['id', 'partNumber'] })
-  const specificationFor = new Map(current.map(specification => [specification.partNumber, specification.id]))
-  return accumulators.map(accumulator => ({
-    id: accumulator.id,
-    partNumber: accumulator.partNumber,
-    serialNumber: accumulator.serialNumber,
-    position: accumulator.position,
-    system: accumulator.system,
-    installedAt: accumulator.installedAt,
-    aircraft: accumulator.aircraft ? { id: accumulator.aircraft.id, registration: accumulator.aircraft.registration, fleetNumber: accumulator.aircraft.fleetNumber, type: accumulator.aircraft.type, base: accumulator.aircraft.base } : null,
-    specificationId: specificationFor.get(accumulator.partNumber) ?? null,
-  }))
+  return { total, items: await toInstalledUnits(rows) }
 })

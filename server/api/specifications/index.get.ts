@@ -1,17 +1,20 @@
-import { z } from 'zod'
+import { specificationQuerySchema } from '../../../shared/schemas/registers'
 import { Specification, SpecificationTablePoint } from '../../models'
-import { toSpecificationDto } from '../../utils/registers'
 
-const querySchema = z.object({ status: z.enum(['current', 'superseded', 'all']).default('current') })
-
-/** Specifications, current revisions by default; every signed-in role may read them. */
+/** Specifications (current revisions by default): search, filter, sort, pages. Every signed-in role. */
 export default defineEventHandler(async (event) => {
   await requireRole(event)
-  const { status } = await getValidatedQuery(event, validateWith(querySchema))
-  const specifications = await Specification.findAll({
-    where: status === 'all' ? {} : { status },
+  const query = await getValidatedQuery(event, validateWith(specificationQuerySchema))
+  const { total, rows } = await pageOf(Specification, {
+    where: {
+      ...searchWhere(query.q, ['partNumber', 'title', 'dataReference']),
+      ...(query.status === 'all' ? {} : { status: query.status }),
+      ...(query.accumulatorType ? { accumulatorType: query.accumulatorType } : {}),
+    },
     include: [{ model: SpecificationTablePoint, as: 'tablePoints' }],
-    order: [['partNumber', 'ASC'], ['revision', 'DESC']],
+    order: [[query.sort, query.direction.toUpperCase()], ['revision', 'DESC']],
+    page: query.page,
+    pageSize: query.pageSize,
   })
-  return specifications.map(toSpecificationDto)
+  return { total, items: rows.map(toSpecificationDto) }
 })
