@@ -16,9 +16,9 @@ export const NAVIGATION: NavigationItem[] = [
   { label: 'Worksheets', to: '/worksheets', roles: ['technician', 'inspector', 'engineer', 'admin'], description: 'Step-by-step servicing records.' },
   { label: 'Countersign', to: '/countersign', roles: ['inspector'], description: 'Worksheets awaiting independent inspection.' },
   { label: 'Sizing', to: '/sizing', roles: ['engineer', 'admin'], description: 'Usable volume, applications and required gas volume.' },
-  { label: 'Fleet', to: '/fleet', roles: [], description: 'Aircraft and installed accumulators.', comingSoon: true },
-  { label: 'Specifications', to: '/specifications', roles: [], description: 'Servicing specifications by part number and revision.', comingSoon: true },
-  { label: 'Tools', to: '/tools', roles: [], description: 'Gauges, calibration and nitrogen carts.', comingSoon: true },
+  { label: 'Fleet', to: '/fleet', roles: [], description: 'Aircraft and installed accumulators.' },
+  { label: 'Specifications', to: '/specifications', roles: [], description: 'Servicing specifications by part number and revision.' },
+  { label: 'Tools', to: '/tools', roles: [], description: 'Gauges, calibration and nitrogen carts.' },
   { label: 'Trends', to: '/trends', roles: [], description: 'Pre-charge loss and pump cycle intervals across the fleet.', comingSoon: true },
   { label: 'Admin', to: '/admin', roles: ['admin'], description: 'Users, roles and authorisations.' },
 ]
