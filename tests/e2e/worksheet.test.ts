@@ -45,7 +45,7 @@ describe('the servicing worksheet in a real browser', () => {
     await technician.getByRole('button', { name: /NC-07/ }).click()
     await technician.getByRole('button', { name: 'Save and continue' }).click()
     await expect.poll(() => technician.getByTestId('step-message').innerText()).toMatch(/calibration expired/)
-    await technician.getByRole('button', { name: /GA-0141/ }).click()
+    await technician.getByRole('button', { name: /GA-0141(?!B)/ }).click()
     await technician.getByRole('button', { name: 'Save and continue' }).click()
 
     await technician.getByLabel(/Gas temperature/).fill('12')
@@ -128,7 +128,7 @@ describe('the servicing worksheet in a real browser', () => {
     const id = await startWorksheet(page, /QX-FML/, /System 1/, 'WO-E2E-OFFLINE')
     await confirmPreparation(page)
     await page.context().setOffline(true)
-    await page.getByRole('button', { name: /GA-0141/ }).click()
+    await page.getByRole('button', { name: /GA-0141(?!B)/ }).click()
     await page.getByRole('button', { name: /NC-07/ }).click()
     await page.getByRole('button', { name: 'Save and continue' }).click()
     await expect.poll(() => page.getByTestId('step-message').innerText()).toMatch(/saved on this device/)
