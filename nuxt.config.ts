@@ -32,6 +32,8 @@ export default defineNuxtConfig({
     fakeSmtp: '',
     fakeSmtpPort: 2525,
     publicUrl: 'http://localhost:3000',
+    /** A pump cycle interval this share below the system's baseline is flagged. */
+    cycleDropShare: 0.25,
   },
   // The repo root is the source root (no app/ folder); see DEVELOPERS.md.
   srcDir: '.',

@@ -6,8 +6,6 @@ export interface NavigationItem {
   /** Any of these roles sees the item; empty: every signed-in user. */
   roles: Role[]
   description: string
-  /** Not built yet: the page says so plainly. */
-  comingSoon?: boolean
 }
 
 /** The product's pages and who uses them. Page guards and the navigation both read this. */
@@ -19,7 +17,7 @@ export const NAVIGATION: NavigationItem[] = [
   { label: 'Fleet', to: '/fleet', roles: [], description: 'Aircraft and installed accumulators.' },
   { label: 'Specifications', to: '/specifications', roles: [], description: 'Servicing specifications by part number and revision.' },
   { label: 'Tools', to: '/tools', roles: [], description: 'Gauges, calibration and nitrogen carts.' },
-  { label: 'Trends', to: '/trends', roles: [], description: 'Pre-charge loss and pump cycle intervals across the fleet.', comingSoon: true },
+  { label: 'Trends', to: '/trends', roles: [], description: 'Pre-charge loss and pump cycle intervals across the fleet.' },
   { label: 'Admin', to: '/admin', roles: ['admin'], description: 'Users, roles and authorisations.' },
 ]
 

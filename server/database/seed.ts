@@ -16,12 +16,13 @@ import type { SpecificationDto } from '../../shared/types/registers'
 import { specificationChargeTarget, specificationPressure } from '../../shared/utils/specification-target'
 import { assessWorksheetReading } from '../../shared/utils/worksheet-results'
 import { gaugeAccuracy } from '../../shared/utils/tool-accuracy'
+import { cycleCheckLeakRate } from '../../shared/utils/cycle-check'
 import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT, type ToolSnapshot, type WorksheetContent, type WorksheetResults } from '../../shared/types/worksheet'
 import { DEFAULT_DB_PATH, openDatabase } from './connection'
 import { migrate } from './migrate'
 import { appendAudit } from './audit-chain'
 import {
-  Accumulator, AccumulatorInstallation, Aircraft, Signature, Specification, SpecificationTablePoint, Tool, User, Worksheet,
+  Accumulator, AccumulatorInstallation, Aircraft, CycleCheck, Signature, Specification, SpecificationTablePoint, Tool, User, Worksheet,
 } from '../models'
 
 export const DEMO_PASSWORD = 'chargewell-demo'
@@ -187,6 +188,7 @@ async function seedScenario(sequelize: Sequelize, users: Record<string, User>): 
         })
       }
     }
+    await seedCycleChecks(users['technician@chargewell.test']!, randomSource(7202), transaction)
     await appendAudit({ actorId: null, entity: 'system', entityId: 'seed', action: 'seeded', detail: { aircraft: AIRCRAFT.length, engineVersion: ENGINE_VERSION } }, transaction)
   })
 }
@@ -265,6 +267,36 @@ async function seedHistory(context: HistoryContext): Promise<void> {
     await Signature.create({ worksheetId: worksheet.id, userId: inspector.id, capacity: 'inspector', name: inspector.name, authorisationNumber: inspector.authorisationNumber, statement: INSPECTOR_STATEMENT, signedAt: releasedAt }, { transaction })
     await appendAudit({ at: releasedAt, actorId: inspector.id, entity: 'worksheet', entityId: String(worksheet.id), action: 'released', detail: { performer: performer.id, inspector: inspector.id } }, transaction)
     lastService = serviceTime
+  }
+}
+
+/** The system that develops an internal leak in the demo: its pump cycles come ever closer. */
+export const LEAKING_SYSTEM = { registration: 'QX-FMJ', system: 'Hydraulic system 1' }
+
+/** A year of monthly pump cycle checks on every hydraulic system; one shortens over the last months. */
+async function seedCycleChecks(technician: User, random: () => number, transaction: import('sequelize').Transaction): Promise<void> {
+  const systemUnits = (await Accumulator.findAll({ include: [{ model: Aircraft, as: 'aircraft' }], transaction }))
+    .filter(unit => unit.system?.startsWith('Hydraulic system'))
+  for (const unit of systemUnits) {
+    const specification = SPECIFICATIONS.find(seed => seed.partNumber === unit.partNumber)!
+    const leaking = unit.aircraft?.registration === LEAKING_SYSTEM.registration && unit.system === LEAKING_SYSTEM.system
+    for (let month = 0; month < 12; month++) {
+      const checkedAt = new Date(Date.now() - (350 - month * 30) * DAY)
+      const shortening = leaking && month >= 7 ? 1 - 0.12 * (month - 6) : 1
+      const seconds = Math.round((420 + (random() - 0.5) * 30) * shortening)
+      const body = {
+        aircraftId: unit.aircraft!.id, system: unit.system!, checkedAt: checkedAt.toISOString().slice(0, 10),
+        cutOut: { value: 3000, unit: 'psi' as const, basis: 'gauge' as const }, cutIn: { value: 2600, unit: 'psi' as const, basis: 'gauge' as const },
+        interval: { value: seconds, unit: 's' as const }, fluidTemperature: { value: Math.round(38 + random() * 8), unit: 'C' as const },
+        ambient: { elevation: { value: 420, unit: 'ft' as const } },
+      }
+      const result = cycleCheckLeakRate(body, specification)
+      await CycleCheck.create({
+        aircraftId: unit.aircraft!.id, accumulatorId: unit.id, system: unit.system!, checkedAt, inputs: body,
+        results: { fluidReleased: result.fluidReleased, leakRate: result.leakRate, warnings: result.warnings, method: result.method },
+        intervalSeconds: seconds, engineVersion: result.engineVersion, recordedById: technician.id, createdAt: checkedAt,
+      }, { transaction })
+    }
   }
 }
 

@@ -4,6 +4,7 @@ import { AccumulatorInstallation } from './accumulator-installation'
 import { Aircraft } from './aircraft'
 import { Attachment } from './attachment'
 import { AuditEvent } from './audit-event'
+import { CycleCheck } from './cycle-check'
 import { LoginAttempt } from './login-attempt'
 import { Notification } from './notification'
 import { Signature } from './signature'
@@ -11,19 +12,20 @@ import { SizingStudy } from './sizing-study'
 import { Specification } from './specification'
 import { SpecificationTablePoint } from './specification-table-point'
 import { Tool } from './tool'
+import { TrendAlert } from './trend-alert'
 import { User } from './user'
 import { Worksheet } from './worksheet'
 
 export {
-  Accumulator, AccumulatorInstallation, Aircraft, Attachment, AuditEvent, LoginAttempt, Notification, Signature,
-  SizingStudy, Specification, SpecificationTablePoint, Tool, User, Worksheet,
+  Accumulator, AccumulatorInstallation, Aircraft, Attachment, AuditEvent, CycleCheck, LoginAttempt, Notification, Signature,
+  SizingStudy, Specification, SpecificationTablePoint, Tool, TrendAlert, User, Worksheet,
 }
 
 /** Registers every model and association on a connection. */
 export function initModels(sequelize: Sequelize): void {
   for (const model of [
     User, LoginAttempt, Aircraft, Specification, SpecificationTablePoint, Accumulator, AccumulatorInstallation, Tool,
-    Worksheet, Signature, Attachment, AuditEvent, SizingStudy, Notification,
+    Worksheet, Signature, Attachment, AuditEvent, SizingStudy, Notification, CycleCheck, TrendAlert,
   ]) model.initModel(sequelize)
 
   Specification.hasMany(SpecificationTablePoint, { as: 'tablePoints', foreignKey: 'specificationId' })
@@ -41,4 +43,6 @@ export function initModels(sequelize: Sequelize): void {
   Worksheet.hasMany(Attachment, { as: 'attachments', foreignKey: 'worksheetId' })
   Signature.belongsTo(User, { as: 'user', foreignKey: 'userId' })
   SizingStudy.belongsTo(Specification, { as: 'specification', foreignKey: 'specificationId' })
+  CycleCheck.belongsTo(Aircraft, { as: 'aircraft', foreignKey: 'aircraftId' })
+  CycleCheck.belongsTo(Accumulator, { as: 'accumulator', foreignKey: 'accumulatorId' })
 }

@@ -1,4 +1,5 @@
 import { mean } from 'mathjs'
+import { linearRegression } from 'simple-statistics'
 import { ambientPressure, describeAmbient } from './atmosphere'
 import { chargeTarget } from './charge-target'
 import { EngineInputError } from './errors'
@@ -126,6 +127,10 @@ export interface PrechargeReading {
   takenAt: string
   pressure: Pressure
   temperature: Temperature
+  /** The local atmosphere when it was taken; defaults to the trend's. */
+  ambient?: Ambient
+  /** True for the as-left after a charge or vent: the gas mass changed, so a new segment starts here. */
+  startsSegment?: boolean
 }
 
 export interface PrechargeTrendInput {
@@ -137,66 +142,85 @@ export interface PrechargeTrendInput {
 }
 
 export interface PrechargeTrendResult extends Provenance<PrechargeTrendInput> {
-  /** Each reading carried to the reference temperature, in the reference pressure's unit and basis. */
-  normalised: { takenAt: string, value: number }[]
-  /** Least-squares slope, pressure units per day (negative: losing gas); undefined with fewer than two readings. */
+  /** Each reading carried to the reference temperature, in the reference pressure's unit and basis, oldest first. */
+  normalised: { takenAt: string, value: number, segment: number }[]
+  /** Fitted change, pressure units per day (negative: losing gas); undefined without two readings in one segment. */
   lossRatePerDay?: number
-  /** Standard error of the slope, same units. */
+  /** Standard error of that slope, same units. */
   lossRateStandardError?: number
-  /** When the fitted line crosses the low end of the band, if it is falling. */
+  /** Readings and segments the slope was fitted on. */
+  fit?: { readings: number, segments: number, degreesOfFreedom: number }
+  /** Where the fitted line for the latest segment stands today and when it crosses the low limit, if it is falling. */
   predictedOutOfLimitsAt?: string
   lowLimit?: number
+  highLimit?: number
 }
 
 const DAY_MS = 86_400_000
 
 /**
- * The pre-charge loss rate from a unit's readings: each reading is carried to the reference
- * temperature at constant gas mass and volume (so temperature swings are not mistaken for a
- * leak), then an ordinary least-squares line is fitted against time; the slope's standard
- * error is s/√Σ(t−t̄)² with s² = Σresidual²/(n−2).
+ * The pre-charge loss rate from a unit's readings. Each reading is carried to the reference
+ * temperature at constant gas mass and volume, so temperature swings are not taken for a
+ * leak. A charge or vent changes the gas mass and starts a new segment; one common slope is
+ * fitted across segments, each with its own level (least squares on the readings centred
+ * within their segment — simple-statistics' linear regression), with standard error
+ * s/√Σ(t − t̄ₛ)², s² = Σresidual²/(n − k − 1) for n readings in k segments.
  */
 export function prechargeTrend(input: PrechargeTrendInput): PrechargeTrendResult {
   const model = input.model ?? 'real'
   const reference = input.reference
-  const normalised = input.readings.map((reading, index) => {
-    if (Number.isNaN(Date.parse(reading.takenAt))) throw new EngineInputError('A reading has no valid date.', `readings.${index}.takenAt`)
-    const carried = chargeTarget({
-      reference: { pressure: reading.pressure, temperature: reading.temperature },
-      gasTemperature: reference.temperature,
-      ambient: input.ambient,
-      model,
-    }).target
-    return { takenAt: reading.takenAt, value: sameUnit(carried, reference.pressure, input.ambient) }
-  }).sort((a, b) => Date.parse(a.takenAt) - Date.parse(b.takenAt))
+  let segment = 0
+  const normalised = input.readings
+    .map((reading, index) => {
+      if (Number.isNaN(Date.parse(reading.takenAt))) throw new EngineInputError('A reading has no valid date.', `readings.${index}.takenAt`)
+      return { reading, index }
+    })
+    .sort((a, b) => Date.parse(a.reading.takenAt) - Date.parse(b.reading.takenAt) || a.index - b.index)
+    .map(({ reading }, order) => {
+      if (reading.startsSegment && order > 0) segment++
+      const ambient = reading.ambient ?? input.ambient
+      const carried = chargeTarget({ reference: { pressure: reading.pressure, temperature: reading.temperature }, gasTemperature: reference.temperature, ambient, model }).target
+      return { takenAt: reading.takenAt, value: sameUnit(carried, reference.pressure, ambient), segment }
+    })
 
   const result: PrechargeTrendResult = {
     normalised,
     inputs: input,
-    method: `${describeModel(model)}: readings carried to ${reference.temperature.value} °${reference.temperature.unit} at constant gas mass and volume; ordinary least squares against time`,
+    method: `${describeModel(model)}: readings carried to ${reference.temperature.value} °${reference.temperature.unit} at constant gas mass and volume; one least-squares loss rate across charge segments`,
     engineVersion: ENGINE_VERSION,
   }
   if (input.tolerance) {
-    result.lowLimit = chargeTarget({ reference, gasTemperature: reference.temperature, tolerance: input.tolerance, ambient: input.ambient, model }).low!.value
+    const band = chargeTarget({ reference, gasTemperature: reference.temperature, tolerance: input.tolerance, ambient: input.ambient, model })
+    result.lowLimit = band.low!.value
+    result.highLimit = band.high!.value
   }
-  if (normalised.length < 2) return result
-  const days = normalised.map(point => (Date.parse(point.takenAt) - Date.parse(normalised[0]!.takenAt)) / DAY_MS)
-  const values = normalised.map(point => point.value)
-  const dayMean = mean(days) as number
-  const valueMean = mean(values) as number
-  const sxx = days.reduce((total, day) => total + (day - dayMean) ** 2, 0)
-  const sxy = days.reduce((total, day, i) => total + (day - dayMean) * (values[i]! - valueMean), 0)
-  if (sxx === 0) return result
-  const slope = sxy / sxx
-  const intercept = valueMean - slope * dayMean
+  const origin = normalised.length ? Date.parse(normalised[0]!.takenAt) : 0
+  const day = (takenAt: string) => (Date.parse(takenAt) - origin) / DAY_MS
+  const segments = [...new Set(normalised.map(point => point.segment))]
+  const centred: [number, number][] = []
+  const centres = new Map<number, { day: number, value: number }>()
+  for (const id of segments) {
+    const points = normalised.filter(point => point.segment === id)
+    const centre = { day: mean(points.map(point => day(point.takenAt))) as number, value: mean(points.map(point => point.value)) as number }
+    centres.set(id, centre)
+    if (points.length > 1) for (const point of points) centred.push([day(point.takenAt) - centre.day, point.value - centre.value])
+  }
+  const sxx = centred.reduce((total, [x]) => total + x * x, 0)
+  if (centred.length < 2 || sxx === 0) return result
+  const slope = linearRegression(centred).m
+  const fittedSegments = new Set(normalised.filter(point => normalised.filter(other => other.segment === point.segment).length > 1).map(point => point.segment)).size
+  const degreesOfFreedom = centred.length - fittedSegments - 1
   result.lossRatePerDay = slope
-  if (normalised.length > 2) {
-    const residualSquares = days.reduce((total, day, i) => total + (values[i]! - intercept - slope * day) ** 2, 0)
-    result.lossRateStandardError = Math.sqrt(residualSquares / (normalised.length - 2) / sxx)
+  result.fit = { readings: centred.length, segments: fittedSegments, degreesOfFreedom }
+  if (degreesOfFreedom > 0) {
+    const residualSquares = centred.reduce((total, [x, y]) => total + (y - slope * x) ** 2, 0)
+    result.lossRateStandardError = Math.sqrt(residualSquares / degreesOfFreedom / sxx)
   }
-  if (result.lowLimit !== undefined && slope < 0) {
-    const crossingDay = (result.lowLimit - intercept) / slope
-    result.predictedOutOfLimitsAt = new Date(Date.parse(normalised[0]!.takenAt) + crossingDay * DAY_MS).toISOString()
+  const latest = centres.get(segments.at(-1)!)
+  if (result.lowLimit !== undefined && slope < 0 && latest) {
+    const crossingDay = latest.day + (result.lowLimit - latest.value) / slope
+    // Beyond fifty years a forecast says nothing useful (and leaves the range of a date).
+    if (crossingDay - latest.day < 50 * 365) result.predictedOutOfLimitsAt = new Date(origin + crossingDay * DAY_MS).toISOString()
   }
   return result
 }

@@ -39,7 +39,7 @@ describe('every route is in the role table', () => {
 
 describe.each(Object.entries(ROUTE_ACCESS).filter(([, access]) => access !== 'public'))('%s', (key, access) => {
   const [method, pattern] = key.split(' ') as [string, string]
-  const path = pattern.replace(/\[id\]/g, '1')
+  const path = pattern.replace(/\[\w+\]/g, '1')
   const body = method === 'GET' ? undefined : {}
 
   it('answers 401 without a session', async () => {

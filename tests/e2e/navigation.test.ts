@@ -24,8 +24,9 @@ describe('sign-in and navigation per role', () => {
   it.each(accounts)('%s sees exactly the pages of %j', async (email, roles) => {
     const page = await signedInPage(browser, email)
     const navigation = page.getByRole('navigation', { name: 'Main' })
-    const shown = await navigation.getByRole('link').allInnerTexts()
-    expect(shown.map(text => text.trim())).toEqual(navigationFor(roles).map(item => item.label))
+    const expected = navigationFor(roles).map(item => item.label)
+    await expect.poll(async () => (await navigation.getByRole('link').allInnerTexts()).map(text => text.trim())).toEqual(expected)
+    const shown = (await navigation.getByRole('link').allInnerTexts()).map(text => text.trim())
     for (const hidden of NAVIGATION.filter(item => !navigationFor(roles).includes(item))) {
       expect(shown).not.toContain(hidden.label)
     }

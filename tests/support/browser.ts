@@ -18,5 +18,6 @@ export async function signedInPage(browser: Browser, email: string, password = '
   await page.getByLabel('Password').fill(password)
   await page.getByRole('button', { name: 'Sign in' }).click()
   await page.waitForURL(url => url.pathname === '/')
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link').first().waitFor()
   return page
 }

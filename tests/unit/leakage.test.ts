@@ -59,3 +59,52 @@ describe('pre-charge loss from a unit\'s history', () => {
     expect(spread).toBeLessThan(0.1 * rawSpread)
   })
 })
+
+describe('pre-charge loss across recharges, and when it is flagged', () => {
+  const reference = { pressure: { value: 1000, unit: 'psi' as const, basis: 'gauge' as const }, temperature: { value: 20, unit: 'C' as const } }
+  const at = (day: number, value: number, startsSegment = false) => ({
+    takenAt: new Date(Date.UTC(2026, 0, 1) + day * 86_400_000).toISOString(),
+    pressure: { value, unit: 'psi' as const, basis: 'gauge' as const },
+    temperature: { value: 20, unit: 'C' as const },
+    startsSegment,
+  })
+  const tolerance = { minus: 50, plus: 50, unit: 'psi' as const }
+
+  it('a recharge mid-series: one common loss rate, by hand −0.5 psi/day, forecast from the latest segment', async () => {
+    const { prechargeTrend } = await import('../../shared/gas/leakage')
+    const readings = [at(0, 1000), at(30, 985), at(60, 970), at(60, 1000, true), at(90, 985), at(120, 970)]
+    const trend = prechargeTrend({ reference, tolerance, readings })
+    expect(trend.lossRatePerDay).toBeCloseTo(-0.5, 9)
+    expect(trend.fit).toEqual({ readings: 6, segments: 2, degreesOfFreedom: 3 })
+    expect(trend.lossRateStandardError).toBeCloseTo(0, 9)
+    // Latest segment centred at day 90, 985 psi: 950 is reached at 90 + (950 − 985)/(−0.5) = day 160.
+    expect(trend.predictedOutOfLimitsAt).toBe(new Date(Date.UTC(2026, 0, 1) + 160 * 86_400_000).toISOString())
+    // Fitting one line through all six readings, as if no charge happened, would hide most of the leak.
+    const naive = prechargeTrend({ reference, tolerance, readings: readings.map(reading => ({ ...reading, startsSegment: false })) })
+    expect(Math.abs(naive.lossRatePerDay!)).toBeLessThan(0.3)
+  })
+
+  it('agrees with simple-statistics on one segment (the package as a reference)', async () => {
+    const { linearRegression } = await import('simple-statistics')
+    const { prechargeTrend } = await import('../../shared/gas/leakage')
+    const values = [1004, 998, 1001, 990, 993, 985]
+    const trend = prechargeTrend({ reference, readings: values.map((value, index) => at(index * 45, value)) })
+    expect(trend.lossRatePerDay).toBeCloseTo(linearRegression(values.map((value, index) => [index * 45, value])).m, 12)
+  })
+
+  it('flags a steady leak; never a tight unit with noisy readings', async () => {
+    const { prechargeTrend } = await import('../../shared/gas/leakage')
+    const { assessUnitTrend } = await import('../../shared/utils/trend-flags')
+    const settings = { lossThresholdPerDay: 0.8, checkIntervalDays: 90, lastServiceAt: at(180, 0).takenAt }
+    const leak = prechargeTrend({ reference, tolerance, readings: [0, 45, 90, 135, 180].map(day => at(day, 1000 - 0.6 * day + (day % 2 ? 1 : -1))) })
+    const leakFlag = assessUnitTrend(leak, settings)
+    expect(leakFlag.flagged).toBe(true)
+    expect(leakFlag.reasons.join(' ')).toMatch(/before the next scheduled check/)
+    // Invented noise of ±4 psi around a constant charge, the size of a dial gauge's resolution.
+    const noise = [3, -4, 2, -3, 4, -2, 1]
+    const tight = prechargeTrend({ reference, tolerance, readings: noise.map((offset, index) => at(index * 60, 1000 + offset)) })
+    expect(assessUnitTrend(tight, { ...settings, lastServiceAt: at(360, 0).takenAt, lossThresholdPerDay: 0.01 }).flagged).toBe(false)
+    const fast = prechargeTrend({ reference, tolerance, readings: [0, 10, 20, 30].map(day => at(day, 1000 - 1.5 * day)) })
+    expect(assessUnitTrend(fast, { ...settings, lastServiceAt: at(30, 0).takenAt }).reasons[0]).toMatch(/above the alert threshold/)
+  })
+})

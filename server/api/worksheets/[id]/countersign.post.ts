@@ -20,5 +20,7 @@ export default defineEventHandler(async (event) => {
     await Signature.create({ worksheetId: worksheet.id, userId: user.id, capacity: 'inspector', name: user.name, authorisationNumber: user.authorisationNumber, statement: INSPECTOR_STATEMENT, signedAt: now }, { transaction })
     await appendAudit({ at: now, actorId: user.id, entity: 'worksheet', entityId: String(worksheet.id), action: 'countersigned', detail: { performerId: worksheet.performerId } }, transaction)
   })
+  // A released as-found may change a unit's trend.
+  await evaluateTrendAlerts()
   return toWorksheetDto(await findWorksheet(id))
 })

@@ -1,0 +1,32 @@
+import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+
+/** A pump cycle check: cut-out and cut-in pressures and the interval between them, with the leak rate the engine found. */
+export class CycleCheck extends Model<InferAttributes<CycleCheck>, InferCreationAttributes<CycleCheck>> {
+  declare id: CreationOptional<number>
+  declare aircraftId: ForeignKey<number>
+  declare accumulatorId: ForeignKey<number>
+  declare system: string
+  declare checkedAt: Date
+  declare inputs: Record<string, unknown>
+  declare results: Record<string, unknown>
+  declare intervalSeconds: number
+  declare engineVersion: string
+  declare recordedById: ForeignKey<number>
+  declare createdAt: CreationOptional<Date>
+
+  static initModel(sequelize: Sequelize): void {
+    CycleCheck.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      aircraftId: { type: DataTypes.INTEGER, allowNull: false },
+      accumulatorId: { type: DataTypes.INTEGER, allowNull: false },
+      system: { type: DataTypes.STRING(80), allowNull: false },
+      checkedAt: { type: DataTypes.DATE, allowNull: false },
+      inputs: { type: DataTypes.JSON, allowNull: false },
+      results: { type: DataTypes.JSON, allowNull: false },
+      intervalSeconds: { type: DataTypes.FLOAT, allowNull: false },
+      engineVersion: { type: DataTypes.STRING(20), allowNull: false },
+      recordedById: { type: DataTypes.INTEGER, allowNull: false },
+      createdAt: DataTypes.DATE,
+    }, { sequelize, tableName: 'cycle_checks', underscored: true, updatedAt: false })
+  }
+}

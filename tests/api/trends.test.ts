@@ -1,0 +1,79 @@
+import { beforeAll, describe, expect, it } from 'vitest'
+import { api, DEMO, signIn } from '../support/api'
+
+const cookies: Record<string, string> = {}
+beforeAll(async () => {
+  for (const [role, email] of Object.entries(DEMO)) cookies[role] = await signIn(email)
+})
+
+describe('pre-charge loss trends', () => {
+  it('rank the fleet by loss rate; the demo\'s slowly leaking unit is flagged, the tight ones are not', async () => {
+    const answer = await api('/api/trends/precharge', { cookie: cookies.technician })
+    expect(answer.status).toBe(200)
+    const [first] = answer.body.items
+    expect(first).toMatchObject({ registration: 'QX-FMC', position: 'Normal brake, nose bay', flagged: true })
+    // The seed loses 0.75 psi/day at the reference temperature (plus gauge rounding to 5 psi).
+    expect(first.lossRate).toBeGreaterThan(0.6)
+    expect(first.lossRate).toBeLessThan(0.9)
+    expect(first.lossRateStandardError).toBeGreaterThan(0)
+    const losses = answer.body.items.map((item: { lossRate: number | null }) => item.lossRate ?? -Infinity)
+    expect([...losses].sort((a: number, b: number) => b - a)).toEqual(losses)
+    expect(answer.body.items.filter((item: { flagged: boolean }) => item.flagged)).toHaveLength(1)
+  })
+
+  it('filter by aircraft type, base, position and part number', async () => {
+    const brakes = await api('/api/trends/precharge?partNumber=FA-2240-01&base=Skelby', { cookie: cookies.engineer })
+    expect(brakes.body.items.map((item: { registration: string }) => item.registration)).toEqual(['QX-FMC'])
+    expect((await api('/api/trends/precharge?flagged=false&type=Tarnwing 72', { cookie: cookies.engineer })).body.items.every((item: { type: string, flagged: boolean }) => item.type === 'Tarnwing 72' && !item.flagged)).toBe(true)
+  })
+
+  it('give one unit\'s readings carried to the reference temperature, with the band and each service', async () => {
+    const list = await api('/api/trends/precharge?partNumber=FA-2240-01&base=Skelby', { cookie: cookies.inspector })
+    const unit = await api(`/api/trends/precharge/${list.body.items[0].accumulatorId}`, { cookie: cookies.inspector })
+    expect(unit.body.trend.lowLimit).toBeCloseTo(950, 6)
+    expect(unit.body.services.length).toBeGreaterThanOrEqual(5)
+    expect(unit.body.services.every((service: { action: string }) => service.action === 'charge')).toBe(true)
+    expect(unit.body.trend.fit.segments).toBeGreaterThanOrEqual(5)
+    expect((await api('/api/trends/precharge/abc', { cookie: cookies.inspector })).status).toBe(400)
+  })
+
+  it('e-mail the engineers once per new flag', async () => {
+    await api('/api/trends/precharge', { cookie: cookies.engineer })
+    const outbox = (await api('/api/admin/outbox', { cookie: cookies.admin })).body
+    const alerts = outbox.received.filter((message: { to: string[], subject: string }) => message.to.includes(DEMO.engineer) && message.subject.startsWith('Trend alert') && message.subject.includes('QX-FMC'))
+    expect(alerts).toHaveLength(1)
+    expect(alerts[0].text).toMatch(/losing pre-charge/)
+  })
+})
+
+describe('pump cycle checks', () => {
+  it('the shortening system is flagged, with the advice to check the pre-charge first', async () => {
+    const answer = await api('/api/trends/cycles', { cookie: cookies.technician })
+    const [first] = answer.body.items
+    expect(first).toMatchObject({ registration: 'QX-FMJ', system: 'Hydraulic system 1', flagged: true })
+    expect(first.drop).toBeGreaterThan(answer.body.dropShare)
+    expect(first.message).toMatch(/low pre-charge[\s\S]*Check the accumulator's pre-charge first/)
+    expect(answer.body.items.filter((item: { flagged: boolean }) => item.flagged)).toHaveLength(1)
+  })
+
+  it('a technician logs a check; the server works out the leak rate (by hand, Boyle, for the ideal case)', async () => {
+    const fleet = (await api('/api/aircraft?q=QX-FMA', { cookie: cookies.technician })).body.items[0]
+    const body = {
+      aircraftId: fleet.id, system: 'Hydraulic system A', cutOut: { value: 3000, unit: 'psi', basis: 'gauge' }, cutIn: { value: 2600, unit: 'psi', basis: 'gauge' },
+      interval: { value: 7, unit: 'min' }, fluidTemperature: { value: 21, unit: 'C' }, checkedAt: '2026-11-30', ambient: { pressure: { value: 14.695949, unit: 'psi', basis: 'absolute' } },
+    }
+    const created = await api('/api/cycle-checks', { cookie: cookies.technician, body })
+    expect(created.status).toBe(201)
+    // Real gas, but a sanity bound from Boyle (ideal): 120 in³ × 1514.7 × (1/2614.7 − 1/3014.7) = 9.22 in³ over 7 min = 1.32 in³/min.
+    expect(created.body.results.leakRate.unit).toBe('in3/min')
+    expect(created.body.results.leakRate.value).toBeGreaterThan(1.0)
+    expect(created.body.results.leakRate.value).toBeLessThan(1.5)
+    expect((await api('/api/cycle-checks', { cookie: cookies.inspector, body })).status).toBe(403)
+    expect((await api('/api/cycle-checks', { cookie: cookies.engineer, body: { ...body, system: 'Hydraulic system Z' } })).status).toBe(422)
+    const wrong = await api('/api/cycle-checks', { cookie: cookies.engineer, body: { ...body, cutIn: { value: 3100, unit: 'psi', basis: 'gauge' } } })
+    expect(wrong.status).toBe(422)
+    expect(wrong.body.data.field).toBe('cutIn')
+    const list = await api(`/api/cycle-checks?aircraftId=${fleet.id}`, { cookie: cookies.inspector })
+    expect(list.body.total).toBeGreaterThanOrEqual(13)
+  })
+})
