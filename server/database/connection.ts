@@ -19,10 +19,17 @@ export async function openDatabase(path: string): Promise<Sequelize> {
     // One connection: SQLite serialises writes anyway, and transactions stay on one handle.
     pool: { max: 1, min: 0, idle: 10_000 },
     retry: { max: 5, match: [/SQLITE_BUSY/] },
+    hooks: {
+      // SQLite settings are per connection, and Sequelize opens one per transaction: set them on each.
+      afterConnect: async (connection) => {
+        const database = connection as unknown as { run: (sql: string, done: (error: Error | null) => void) => void }
+        for (const pragma of ['PRAGMA busy_timeout = 5000', 'PRAGMA foreign_keys = ON']) {
+          await new Promise<void>((done, fail) => database.run(pragma, error => error ? fail(error) : done()))
+        }
+      },
+    },
   })
   await sequelize.query('PRAGMA journal_mode = WAL')
-  await sequelize.query('PRAGMA busy_timeout = 5000')
-  await sequelize.query('PRAGMA foreign_keys = ON')
   initModels(sequelize)
   return sequelize
 }

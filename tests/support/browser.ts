@@ -1,5 +1,5 @@
 import { chromium, type Browser, type Page } from 'playwright-core'
-import { inject } from 'vitest'
+import { inject, onTestFailed } from 'vitest'
 
 /** Debian's Chromium, headless, with the flags this closed network needs. */
 export function launchBrowser(): Promise<Browser> {
@@ -13,6 +13,14 @@ export function launchBrowser(): Promise<Browser> {
 export async function signedInPage(browser: Browser, email: string, password = 'chargewell-demo'): Promise<Page> {
   const context = await browser.newContext({ baseURL: inject('baseURL'), viewport: { width: 1180, height: 820 } })
   const page = await context.newPage()
+  // When a test fails, say what the browser saw go wrong (answers of 400 and up, console errors).
+  const trouble: string[] = []
+  page.on('response', response => response.status() >= 400 && trouble.push(`${response.status()} ${response.request().method()} ${response.url()}`))
+  page.on('console', message => message.type() === 'error' && trouble.push(`console: ${message.text()}`))
+  onTestFailed(async () => {
+    const body = await page.locator('body').innerText({ timeout: 2000 }).catch(() => '(page gone)')
+    console.error(`Browser trouble for ${email}:\n${trouble.join('\n') || '(none)'}\nPage ${page.url()}:\n${body.slice(0, 1500)}`)
+  })
   await page.goto('/login')
   await page.getByLabel('E-mail').fill(email)
   await page.getByLabel('Password').fill(password)
