@@ -1,11 +1,23 @@
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { chargeTarget } from '../../shared/gas/charge-target'
+import { EngineInputError } from '../../shared/gas/errors'
 import { requiredVolume, usableVolume } from '../../shared/gas/usable-volume'
 import { leakRate } from '../../shared/gas/leakage'
 import type { GasModel } from '../../shared/gas/types'
 
 const models = fc.constantFrom<GasModel>('ideal', 'real')
+
+/** A case whose target the real-gas model refuses (above 50 MPa) is outside the property, not a failure. */
+function inRange<T>(calculate: () => T): T {
+  try {
+    return calculate()
+  }
+  catch (error) {
+    if (error instanceof EngineInputError && /real-gas range/.test(error.message)) fc.pre(false)
+    throw error
+  }
+}
 /** Temperatures inside the real-gas range, °C. */
 const celsius = fc.double({ min: -70, max: 120, noNaN: true })
 const gaugePsi = (min: number, max: number) => fc.double({ min, max, noNaN: true })
@@ -13,7 +25,7 @@ const gaugePsi = (min: number, max: number) => fc.double({ min, max, noNaN: true
 describe('charge target properties', () => {
   it('correcting T1 → T2 → T1 returns the start', () => {
     fc.assert(fc.property(models, gaugePsi(50, 4000), celsius, celsius, (model, start, t1, t2) => {
-      const there = chargeTarget({ reference: { pressure: { value: start, unit: 'psi', basis: 'gauge' }, temperature: { value: t1, unit: 'C' } }, gasTemperature: { value: t2, unit: 'C' }, model })
+      const there = inRange(() => chargeTarget({ reference: { pressure: { value: start, unit: 'psi', basis: 'gauge' }, temperature: { value: t1, unit: 'C' } }, gasTemperature: { value: t2, unit: 'C' }, model }))
       const back = chargeTarget({ reference: { pressure: there.target, temperature: { value: t2, unit: 'C' } }, gasTemperature: { value: t1, unit: 'C' }, model })
       expect(back.target.value / start - 1).toBeCloseTo(0, 9)
     }))
@@ -22,7 +34,7 @@ describe('charge target properties', () => {
   it('the target rises with the gas temperature', () => {
     fc.assert(fc.property(models, gaugePsi(50, 4000), celsius, celsius, (model, start, a, b) => {
       fc.pre(Math.abs(a - b) > 0.01)
-      const at = (t: number) => chargeTarget({ reference: { pressure: { value: start, unit: 'psi', basis: 'gauge' }, temperature: { value: 21, unit: 'C' } }, gasTemperature: { value: t, unit: 'C' }, model }).target.value
+      const at = (t: number) => inRange(() => chargeTarget({ reference: { pressure: { value: start, unit: 'psi', basis: 'gauge' }, temperature: { value: 21, unit: 'C' } }, gasTemperature: { value: t, unit: 'C' }, model })).target.value
       expect(Math.sign(at(a) - at(b))).toBe(Math.sign(a - b))
     }))
   })
