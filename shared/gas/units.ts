@@ -97,3 +97,13 @@ export function convertPressureDifference(value: number, from: PressureUnit, to:
 export function convertTemperature(temperature: Temperature, unit: TemperatureUnit): Temperature {
   return kelvinToTemperature(temperatureToKelvin(temperature), unit)
 }
+
+/** A barometer reading in hectopascals (QFE) as the engine's absolute ambient pressure; 1 hPa = 100 Pa. */
+export function stationPressureFromHectopascals(hectopascals: number): Pressure {
+  return { value: hectopascals * 100 / PASCALS_PER.kPa, unit: 'kPa', basis: 'absolute' }
+}
+
+/** An absolute pressure as a barometer reading in hectopascals. */
+export function pressureToHectopascals(pressure: Pressure): number {
+  return pressure.value * PASCALS_PER[pressure.unit] / 100
+}

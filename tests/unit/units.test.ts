@@ -57,3 +57,12 @@ describe('standard atmosphere', () => {
     expect(() => ambientPressure({ pressure: { value: 14.7, unit: 'psi', basis: 'gauge' } })).toThrow(/absolute/)
   })
 })
+
+describe('barometer readings', () => {
+  it('hectopascals to the engine\'s ambient and back', async () => {
+    const { stationPressureFromHectopascals, pressureToHectopascals } = await import('../../shared/gas/units')
+    // Source: NIST SP 811 (2008) App. B.9 — 1 hPa = 100 Pa; the standard atmosphere is 1013.25 hPa.
+    expect(stationPressureFromHectopascals(1013.25)).toEqual({ value: 101.325, unit: 'kPa', basis: 'absolute' })
+    expect(pressureToHectopascals({ value: 14.695949, unit: 'psi', basis: 'absolute' })).toBeCloseTo(1013.25, 2)
+  })
+})
