@@ -34,6 +34,14 @@ export default defineNuxtConfig({
     publicUrl: 'http://localhost:3000',
     /** A pump cycle interval this share below the system's baseline is flagged. */
     cycleDropShare: 0.25,
+    /** Seals the audit chain's head and signs its exports; empty: derived from the session password. */
+    auditSecret: '',
+    /** Failed sign-ins within the window that lock an account, and a network address. */
+    loginAccountFailures: 5,
+    loginAddressFailures: 30,
+    loginWindowMinutes: 15,
+    /** Behind a reverse proxy: take the client address from X-Forwarded-For. */
+    trustProxy: false,
   },
   // The repo root is the source root (no app/ folder); see DEVELOPERS.md.
   srcDir: '.',

@@ -2,8 +2,9 @@ import { defineConfig } from 'vitest/config'
 
 /**
  * Three projects: `unit` (the engine and pure logic, plain Node), `api` (routes against the
- * built server), `e2e` (real Chromium against the same server). `api` and `e2e` share one
- * server, started by tests/support/server-setup.ts.
+ * built server), `e2e` (real Chromium against it). The app is built and a template database
+ * seeded once (tests/support/global-setup.ts); each api and e2e file starts its own server on
+ * its own copy of that database (tests/support/file-server.ts).
  */
 export default defineConfig({
   test: {
@@ -15,7 +16,8 @@ export default defineConfig({
         test: {
           name: 'api',
           include: ['tests/api/**/*.test.ts'],
-          globalSetup: ['tests/support/server-setup.ts'],
+          globalSetup: ['tests/support/global-setup.ts'],
+          setupFiles: ['tests/support/file-server.ts'],
           testTimeout: 30_000,
           hookTimeout: 60_000,
         },
@@ -24,7 +26,8 @@ export default defineConfig({
         test: {
           name: 'e2e',
           include: ['tests/e2e/**/*.test.ts'],
-          globalSetup: ['tests/support/server-setup.ts'],
+          globalSetup: ['tests/support/global-setup.ts'],
+          setupFiles: ['tests/support/file-server.ts'],
           testTimeout: 90_000,
           hookTimeout: 90_000,
           // One browser at a time on a 2-core machine.

@@ -14,3 +14,8 @@ export function fieldErrors(failure: unknown): Record<string, string> {
   const issues = (failure as ApiFailure)?.data?.data?.issues ?? []
   return Object.fromEntries(issues.map(issue => [issue.field, issue.message]))
 }
+
+/** A 409: someone else changed the record first (or it is in a state that no longer allows this). */
+export function isConflict(failure: unknown): boolean {
+  return (failure as ApiFailure)?.statusCode === 409
+}

@@ -1,8 +1,11 @@
-import { createHash } from 'node:crypto'
-import type { Transaction } from 'sequelize'
-import { AuditEvent } from '../models'
+import { createHash, createHmac, createPrivateKey, createPublicKey, hkdfSync, sign, timingSafeEqual, type KeyObject } from 'node:crypto'
+import { Op, QueryTypes, type Transaction } from 'sequelize'
+import type { ChainReport, RecordProblem } from '../../shared/types/audit'
+import { AuditEvent, AuditHead } from '../models'
+import { canonical, isRecordKind, recordHash, recordHashes, RECORD_KINDS, type RecordKindName } from './record-hash'
 
 export const GENESIS_HASH = '0'.repeat(64)
+const HEAD_ID = 1
 
 interface AuditFields {
   at: Date
@@ -13,55 +16,248 @@ interface AuditFields {
   detail: Record<string, unknown>
 }
 
-/** SHA-256 over the previous hash and a canonical form of the entry. */
-export function auditHash(fields: AuditFields, previousHash: string): string {
-  const canonical = JSON.stringify([
-    previousHash, fields.at.toISOString(), fields.actorId, fields.entity, fields.entityId, fields.action, sortKeys(fields.detail),
-  ])
-  return createHash('sha256').update(canonical).digest('hex')
+// ---------------------------------------------------------------------------------------------
+// Keys. One server secret (NUXT_AUDIT_SECRET, or derived from the session password) gives two
+// keys by HKDF (RFC 5869): an HMAC key for the chain head's seal, and an Ed25519 key that signs
+// exports, so an export can be checked offline with the public key alone.
+
+let keys: { seal: Buffer, signing: KeyObject, publicKey: string, fingerprint: string } | null = null
+
+/** The audit secret: NUXT_AUDIT_SECRET when set, else one derived from the session password. */
+export function auditSecretFrom(settings: { auditSecret?: string | null, sessionPassword?: string | null }): string | null {
+  if (settings.auditSecret) return settings.auditSecret
+  if (settings.sessionPassword) return `session:${settings.sessionPassword}`
+  return null
 }
 
-function sortKeys(value: unknown): unknown {
-  if (Array.isArray(value)) return value.map(sortKeys)
-  if (value && typeof value === 'object') {
-    return Object.fromEntries(Object.keys(value).sort().map(key => [key, sortKeys((value as Record<string, unknown>)[key])]))
+/** Sets the secret the chain is sealed and exports are signed with (once, at start-up). */
+export function configureAuditSecret(secret: string | null): void {
+  if (!secret) {
+    keys = null
+    return
   }
-  return value
+  const derive = (info: string) => Buffer.from(hkdfSync('sha256', secret, 'chargewell-audit', info, 32))
+  // PKCS#8 wrapping of a raw Ed25519 seed (RFC 8410): a fixed 16-byte prefix, then the seed.
+  const pkcs8 = Buffer.concat([Buffer.from('302e020100300506032b657004220420', 'hex'), derive('export signing key')])
+  const signing = createPrivateKey({ key: pkcs8, format: 'der', type: 'pkcs8' })
+  const spki = createPublicKey(signing).export({ type: 'spki', format: 'der' })
+  const fingerprint = createHash('sha256').update(spki).digest('hex').slice(0, 32).match(/.{4}/g)!.join(':')
+  keys = { seal: derive('chain head seal'), signing, publicKey: spki.toString('base64'), fingerprint }
 }
 
-/** Appends one entry to the chain, inside the caller's transaction when given. */
-export async function appendAudit(fields: Omit<AuditFields, 'at'> & { at?: Date }, transaction?: Transaction): Promise<AuditEvent> {
+export function auditSigningKey(): { publicKey: string, fingerprint: string } | null {
+  return keys ? { publicKey: keys.publicKey, fingerprint: keys.fingerprint } : null
+}
+
+interface HeadFields { eventCount: number, lastEventId: number | null, lastHash: string }
+
+export function sealOf(head: HeadFields): string | null {
+  if (!keys) return null
+  return createHmac('sha256', keys.seal).update(`chargewell-audit-head:${head.eventCount}:${head.lastEventId ?? ''}:${head.lastHash}`).digest('hex')
+}
+
+// ---------------------------------------------------------------------------------------------
+// Entries.
+
+/** The hash of one entry: SHA-256 over the previous hash and a canonical form of the entry. */
+export function auditHash(fields: AuditFields & { recordHash?: string | null }, previousHash: string, version = 2): string {
+  const canonicalForm = version === 1
+    ? [previousHash, fields.at.toISOString(), fields.actorId, fields.entity, fields.entityId, fields.action, canonical(fields.detail)]
+    : [2, previousHash, fields.at.toISOString(), fields.actorId, fields.entity, fields.entityId, fields.action, canonical(fields.detail), fields.recordHash ?? null]
+  return createHash('sha256').update(JSON.stringify(canonicalForm)).digest('hex')
+}
+
+async function lockedHead(transaction: Transaction): Promise<AuditHead> {
+  const head = await AuditHead.findByPk(HEAD_ID, { transaction, lock: transaction.LOCK.UPDATE })
+  if (head) return head
+  // A database created before the head existed: start it from the newest entry.
   const last = await AuditEvent.findOne({ order: [['id', 'DESC']], transaction })
-  const previousHash = last?.hash ?? GENESIS_HASH
-  const entry = { ...fields, at: fields.at ?? new Date() }
-  // Millisecond precision is what the database keeps; hash what will be read back.
-  entry.at = new Date(Math.floor(entry.at.getTime()))
-  return AuditEvent.create({ ...entry, previousHash, hash: auditHash(entry, previousHash) }, { transaction })
+  return AuditHead.create({
+    id: HEAD_ID, eventCount: await AuditEvent.count({ transaction }), lastEventId: last?.id ?? null,
+    lastHash: last?.hash ?? GENESIS_HASH, seal: null, sealedAt: null,
+  }, { transaction })
 }
 
-export interface ChainReport {
-  ok: boolean
-  checked: number
-  /** The first entry whose stored hash or link does not match. */
-  firstBroken?: { id: number, reason: string }
+/**
+ * Appends one entry to the chain inside the caller's transaction, and moves the sealed head
+ * with it. An entry about a record (a worksheet, specification, tool, user, aircraft,
+ * accumulator or cycle check) carries the hash of that record's content as it now stands in
+ * this transaction, so call it after the record's own writes.
+ */
+export async function appendAudit(fields: Omit<AuditFields, 'at'> & { at?: Date }, transaction: Transaction): Promise<AuditEvent> {
+  const head = await lockedHead(transaction)
+  // Millisecond precision and JSON are what the database gives back; hash what will be read back.
+  const entry: AuditFields = {
+    ...fields,
+    at: new Date(Math.floor((fields.at ?? new Date()).getTime())),
+    detail: JSON.parse(JSON.stringify(fields.detail ?? {})),
+  }
+  const recordId = Number(entry.entityId)
+  const hashOfRecord = isRecordKind(entry.entity) && Number.isInteger(recordId) ? await recordHash(entry.entity, recordId, transaction) : null
+  const event = await AuditEvent.create({
+    ...entry, previousHash: head.lastHash, hash: auditHash({ ...entry, recordHash: hashOfRecord }, head.lastHash, 2), recordHash: hashOfRecord, hashVersion: 2,
+  }, { transaction })
+  const next = { eventCount: head.eventCount + 1, lastEventId: event.id, lastHash: event.hash }
+  await head.update({ ...next, seal: sealOf(next), sealedAt: keys ? new Date() : head.sealedAt }, { transaction })
+  return event
 }
 
-/** Walks the chain from the start and reports the first broken link. */
+/**
+ * For a database from before record hashes (or a fresh seed): one `integrity-baseline` entry
+ * for every record that has none yet, so that from here on each record is vouched for.
+ */
+export async function baselineRecords(transaction: Transaction): Promise<number> {
+  const sequelize = AuditEvent.sequelize!
+  const covered = new Set((await sequelize.query<{ entity: string, entity_id: string }>(
+    'SELECT DISTINCT entity, entity_id FROM audit_events WHERE hash_version = 2 AND record_hash IS NOT NULL', { type: QueryTypes.SELECT, transaction },
+  )).map(row => `${row.entity}:${row.entity_id}`))
+  let added = 0
+  for (const kind of Object.keys(RECORD_KINDS) as RecordKindName[]) {
+    const rows = await RECORD_KINDS[kind].model.findAll({ attributes: ['id'], order: [['id', 'ASC']], transaction, raw: true }) as unknown as { id: number }[]
+    for (const { id } of rows) {
+      if (covered.has(`${kind}:${id}`)) continue
+      await appendAudit({ actorId: null, entity: kind, entityId: String(id), action: 'integrity-baseline', detail: {} }, transaction)
+      added++
+    }
+  }
+  return added
+}
+
+/**
+ * At start-up: a chain that has never been sealed (a database from before the seal) gets its
+ * records baselined and its head sealed. A chain that holds sealed-format entries but no valid
+ * seal is left alone — that is for verification to report, not for the server to paper over.
+ */
+export async function establishSeal(transaction: Transaction): Promise<{ established: boolean, baselined: number }> {
+  if (!keys) return { established: false, baselined: 0 }
+  const head = await lockedHead(transaction)
+  if (head.seal) return { established: false, baselined: 0 }
+  const sealedFormat = await AuditEvent.count({ where: { hashVersion: 2 }, transaction })
+  if (sealedFormat > 0 && head.eventCount > 0) return { established: false, baselined: 0 }
+  const baselined = await baselineRecords(transaction)
+  await appendAudit({ actorId: null, entity: 'system', entityId: 'audit', action: 'seal-established', detail: { entriesBefore: head.eventCount, recordsBaselined: baselined } }, transaction)
+  return { established: true, baselined }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Verification.
+
+const BATCH = 2000
+
+/** Walks the chain from the start, checks its sealed head, then compares every record with its newest entry. */
 export async function verifyAuditChain(): Promise<ChainReport> {
   let previousHash = GENESIS_HASH
   let checked = 0
   let lastId = 0
+  let firstBroken: ChainReport['firstBroken']
+  const vouched = new Map<string, { recordHash: string, eventId: number }>()
   for (;;) {
-    const batch = await AuditEvent.findAll({ where: {}, order: [['id', 'ASC']], limit: 500, offset: checked })
+    const batch = await AuditEvent.findAll({ where: { id: { [Op.gt]: lastId } }, order: [['id', 'ASC']], limit: BATCH })
     if (batch.length === 0) break
     for (const event of batch) {
-      if (event.previousHash !== previousHash) return { ok: false, checked, firstBroken: { id: event.id, reason: `does not link to entry ${lastId}` } }
-      const expected = auditHash(event, previousHash)
-      if (expected !== event.hash) return { ok: false, checked, firstBroken: { id: event.id, reason: 'its content does not match its hash' } }
+      if (!firstBroken) {
+        if (event.previousHash !== previousHash) firstBroken = { id: event.id, reason: `does not link to entry ${lastId || 'at the start of the chain'}` }
+        else if (auditHash(event, previousHash, event.hashVersion) !== event.hash) firstBroken = { id: event.id, reason: 'its content does not match its hash' }
+      }
+      if (event.hashVersion === 2 && event.recordHash) vouched.set(`${event.entity}:${event.entityId}`, { recordHash: event.recordHash, eventId: event.id })
       previousHash = event.hash
       lastId = event.id
       checked++
     }
   }
-  return { ok: true, checked }
+
+  const head = await AuditHead.findByPk(HEAD_ID)
+  const headProblems: string[] = []
+  if (!head) headProblems.push('The chain has no head record: it cannot be checked for missing entries.')
+  else {
+    if (head.eventCount !== checked) headProblems.push(`The sealed head counts ${head.eventCount} entries but ${checked} are present: entries were ${head.eventCount > checked ? 'deleted' : 'added outside Chargewell'}.`)
+    if ((head.lastEventId ?? 0) !== lastId || head.lastHash !== previousHash) headProblems.push(`The newest entry (${lastId || 'none'}) is not the one the head was sealed with (${head.lastEventId ?? 'none'}).`)
+    if (!head.seal) headProblems.push('The chain head is not sealed.')
+    else if (keys) {
+      const expected = Buffer.from(sealOf(head)!, 'hex')
+      const stored = Buffer.from(head.seal, 'hex')
+      if (expected.length !== stored.length || !timingSafeEqual(expected, stored)) headProblems.push('The chain head\'s seal does not match: the head or the chain was rebuilt without the server\'s secret.')
+    }
+  }
+
+  const records: RecordProblem[] = []
+  let mismatches = 0
+  let recordsChecked = 0
+  const report = (problem: RecordProblem) => {
+    mismatches++
+    if (records.length < 50) records.push(problem)
+  }
+  for (const kind of Object.keys(RECORD_KINDS) as RecordKindName[]) {
+    let afterId = 0
+    for (;;) {
+      const ids = (await RECORD_KINDS[kind].model.findAll({ attributes: ['id'], where: { id: { [Op.gt]: afterId } }, order: [['id', 'ASC']], limit: 500, raw: true }) as unknown as { id: number }[]).map(row => row.id)
+      if (ids.length === 0) break
+      const hashes = await recordHashes(kind, ids)
+      for (const id of ids) {
+        recordsChecked++
+        const entry = vouched.get(`${kind}:${id}`)
+        vouched.delete(`${kind}:${id}`)
+        if (!entry) report({ entity: kind, entityId: String(id), reason: `${kind} ${id} has no audit entry vouching for its content: it was written outside Chargewell.` })
+        else if (entry.recordHash !== hashes.get(id)) report({ entity: kind, entityId: String(id), reason: `${kind} ${id} no longer matches its audit entry ${entry.eventId}: it was changed outside Chargewell.` })
+      }
+      afterId = ids.at(-1)!
+    }
+  }
+  for (const [key, entry] of vouched) {
+    const [entity, entityId] = key.split(':') as [string, string]
+    if (isRecordKind(entity)) report({ entity, entityId, reason: `${entity} ${entityId} is missing: audit entry ${entry.eventId} vouches for it, but the row was deleted.` })
+  }
+
+  const ok = !firstBroken && headProblems.length === 0 && mismatches === 0
+  return {
+    ok, checked, recordsChecked,
+    head: { eventCount: head?.eventCount ?? null, sealed: !!head?.seal, sealChecked: !!keys && !!head?.seal },
+    ...(firstBroken ? { firstBroken } : {}),
+    headProblems,
+    ...(records[0] ? { firstMismatch: records[0] } : {}),
+    mismatches,
+    records,
+  }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Signed export: newline-delimited JSON (a header line, one line per entry, a signature line),
+// read in batches so its size does not matter. scripts/check-audit-export.mjs checks it offline.
+
+export const EXPORT_FORMAT = 'chargewell-audit-export'
+
+export async function* auditExportLines(exportedBy: string): AsyncGenerator<string> {
+  if (!keys) throw new Error('No audit secret is configured: the export cannot be signed.')
+  const digest = createHash('sha256')
+  const emit = (value: unknown) => {
+    const line = `${JSON.stringify(value)}\n`
+    digest.update(line)
+    return line
+  }
+  yield emit({ format: EXPORT_FORMAT, version: 1, exportedAt: new Date().toISOString(), exportedBy, publicKey: keys.publicKey, keyFingerprint: keys.fingerprint })
+  let lastId = 0
+  let count = 0
+  let lastHash = GENESIS_HASH
+  for (;;) {
+    const batch = await AuditEvent.findAll({ where: { id: { [Op.gt]: lastId } }, order: [['id', 'ASC']], limit: BATCH })
+    if (batch.length === 0) break
+    let lines = ''
+    for (const event of batch) {
+      lines += emit({
+        id: event.id, at: event.at.toISOString(), actorId: event.actorId, entity: event.entity, entityId: event.entityId, action: event.action,
+        detail: event.detail, recordHash: event.recordHash, hashVersion: event.hashVersion, previousHash: event.previousHash, hash: event.hash,
+      })
+      lastId = event.id
+      lastHash = event.hash
+      count++
+    }
+    yield lines
+  }
+  const head = await AuditHead.findByPk(HEAD_ID)
+  const hex = digest.digest('hex')
+  const message = Buffer.from(`${EXPORT_FORMAT}:1:${hex}:${count}:${lastHash}`)
+  yield `${JSON.stringify({
+    entries: count, lastHash, sealedHead: head ? { eventCount: head.eventCount, lastEventId: head.lastEventId, lastHash: head.lastHash } : null,
+    digest: hex, signature: sign(null, message, keys.signing).toString('base64'),
+  })}\n`
 }

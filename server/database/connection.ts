@@ -23,7 +23,7 @@ export async function openDatabase(path: string): Promise<Sequelize> {
       // SQLite settings are per connection, and Sequelize opens one per transaction: set them on each.
       afterConnect: async (connection) => {
         const database = connection as unknown as { run: (sql: string, done: (error: Error | null) => void) => void }
-        for (const pragma of ['PRAGMA busy_timeout = 5000', 'PRAGMA foreign_keys = ON']) {
+        for (const pragma of ['PRAGMA busy_timeout = 15000', 'PRAGMA foreign_keys = ON']) {
           await new Promise<void>((done, fail) => database.run(pragma, error => error ? fail(error) : done()))
         }
       },

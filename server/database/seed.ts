@@ -8,6 +8,7 @@
  */
 import { Hash } from '@adonisjs/hash'
 import { Scrypt } from '@adonisjs/hash/drivers/scrypt'
+import { existsSync, readFileSync } from 'node:fs'
 import type { Sequelize } from 'sequelize'
 import { ENGINE_VERSION } from '../../shared/gas/version'
 import type { Pressure, Temperature } from '../../shared/gas/types'
@@ -20,7 +21,8 @@ import { cycleCheckLeakRate } from '../../shared/utils/cycle-check'
 import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT, type ToolSnapshot, type WorksheetContent, type WorksheetResults } from '../../shared/types/worksheet'
 import { DEFAULT_DB_PATH, openDatabase } from './connection'
 import { migrate } from './migrate'
-import { appendAudit } from './audit-chain'
+import { appendAudit, auditSecretFrom, baselineRecords, configureAuditSecret } from './audit-chain'
+import { createWriteQueue } from './write-queue'
 import {
   Accumulator, AccumulatorInstallation, Aircraft, CycleCheck, Signature, Specification, SpecificationTablePoint, Tool, User, Worksheet,
 } from '../models'
@@ -137,7 +139,7 @@ async function seedUsers(): Promise<Record<string, User>> {
 
 async function seedScenario(sequelize: Sequelize, users: Record<string, User>): Promise<void> {
   if (await Aircraft.count() > 0) return
-  await sequelize.transaction(async (transaction) => {
+  await createWriteQueue(sequelize)(async (transaction) => {
     const specifications: Record<string, Specification> = {}
     for (const { tablePoints, ...fields } of SPECIFICATIONS) {
       const specification = await Specification.create({ ...fields, status: 'current', supersedesId: null }, { transaction })
@@ -189,6 +191,9 @@ async function seedScenario(sequelize: Sequelize, users: Record<string, User>): 
       }
     }
     await seedCycleChecks(users['technician@chargewell.test']!, randomSource(7202), transaction)
+    await seedOpenWork({ specifications, gauge: gaugeSnapshot, cart: cartSnapshot, users, transaction })
+    // Every record the seed wrote directly is vouched for by the trail from here on.
+    await baselineRecords(transaction)
     await appendAudit({ actorId: null, entity: 'system', entityId: 'seed', action: 'seeded', detail: { aircraft: AIRCRAFT.length, engineVersion: ENGINE_VERSION } }, transaction)
   })
 }
@@ -263,10 +268,83 @@ async function seedHistory(context: HistoryContext): Promise<void> {
       engineVersion: ENGINE_VERSION, performedAt, submittedAt: new Date(serviceTime + 60 * 60_000), releasedAt,
       createdAt: performedAt, updatedAt: releasedAt,
     }, { transaction })
-    await Signature.create({ worksheetId: worksheet.id, userId: performer.id, capacity: 'performer', name: performer.name, authorisationNumber: performer.authorisationNumber, statement: PERFORMER_STATEMENT, signedAt: worksheet.submittedAt! }, { transaction })
-    await Signature.create({ worksheetId: worksheet.id, userId: inspector.id, capacity: 'inspector', name: inspector.name, authorisationNumber: inspector.authorisationNumber, statement: INSPECTOR_STATEMENT, signedAt: releasedAt }, { transaction })
+    await Signature.create({ worksheetId: worksheet.id, userId: performer.id, capacity: 'performer', name: performer.name, authorisationNumber: performer.authorisationNumber, statement: PERFORMER_STATEMENT, signedAt: worksheet.submittedAt!, round: 1 }, { transaction })
+    await Signature.create({ worksheetId: worksheet.id, userId: inspector.id, capacity: 'inspector', name: inspector.name, authorisationNumber: inspector.authorisationNumber, statement: INSPECTOR_STATEMENT, signedAt: releasedAt, round: 1 }, { transaction })
     await appendAudit({ at: releasedAt, actorId: inspector.id, entity: 'worksheet', entityId: String(worksheet.id), action: 'released', detail: { performer: performer.id, inspector: inspector.id } }, transaction)
     lastService = serviceTime
+  }
+}
+
+interface OpenWorkContext {
+  specifications: Record<string, Specification>
+  gauge: ToolSnapshot
+  cart: ToolSnapshot
+  users: Record<string, User>
+  transaction: import('sequelize').Transaction
+}
+
+/**
+ * Today's unfinished work, so every role has something on first sign-in: four worksheets
+ * awaiting countersign (three by the technician, one by the lead), one returned to the
+ * technician with a reason, and one draft the technician has started.
+ */
+async function seedOpenWork({ specifications, gauge, cart, users, transaction }: OpenWorkContext): Promise<void> {
+  const technician = users['technician@chargewell.test']!
+  const lead = users['lead@chargewell.test']!
+  const inspector = users['inspector@chargewell.test']!
+  const ambient = { elevation: { value: 420, unit: 'ft' as const } }
+  const plan: { registration: string, position: string, performer: User, state: 'awaiting-countersign' | 'returned' | 'draft', hoursAgo: number, gasCelsius: number }[] = [
+    { registration: 'QX-FMA', position: 'Main hydraulic, left wheel well', performer: technician, state: 'awaiting-countersign', hoursAgo: 5, gasCelsius: 6 },
+    { registration: 'QX-FMB', position: 'Emergency brake, nose bay', performer: technician, state: 'awaiting-countersign', hoursAgo: 4, gasCelsius: 7 },
+    { registration: 'QX-FMK', position: 'System 2, aft equipment bay', performer: technician, state: 'awaiting-countersign', hoursAgo: 3, gasCelsius: 8.5 },
+    { registration: 'QX-FML', position: 'Normal brake, left wheel well', performer: lead, state: 'awaiting-countersign', hoursAgo: 2, gasCelsius: 9 },
+    { registration: 'QX-FMJ', position: 'Normal brake, left wheel well', performer: technician, state: 'returned', hoursAgo: 26, gasCelsius: 4 },
+    { registration: 'QX-FMB', position: 'Main hydraulic, left wheel well', performer: technician, state: 'draft', hoursAgo: 1, gasCelsius: 10 },
+  ]
+  let workOrder = 88000
+  for (const item of plan) {
+    const aircraft = (await Aircraft.findOne({ where: { registration: item.registration }, transaction }))!
+    const accumulator = (await Accumulator.findOne({ where: { aircraftId: aircraft.id, position: item.position }, transaction }))!
+    const seedSpecification = SPECIFICATIONS.find(candidate => candidate.partNumber === accumulator.partNumber)!
+    const specification: SpecificationDto = { ...seedSpecification, id: specifications[accumulator.partNumber]!.id, status: 'current' }
+    const start = Date.now() - item.hoursAgo * 3_600_000
+    const at = (minutes: number) => new Date(start + minutes * 60_000).toISOString()
+    const gasTemperature: Temperature = { value: item.gasCelsius, unit: 'C' }
+    const target = specificationChargeTarget(specification, gasTemperature, ambient)
+    const reading = specificationPressure(specification, Math.round(target.target.value / 5) * 5)
+    const result = assessWorksheetReading(specification, reading, gasTemperature, ambient, gauge)
+    const { status: _status, ...frozenSpecification } = specification
+    const content: WorksheetContent = {
+      specification: frozenSpecification,
+      aircraft: { id: aircraft.id, registration: aircraft.registration, fleetNumber: aircraft.fleetNumber, type: aircraft.type },
+      accumulator: { id: accumulator.id, partNumber: accumulator.partNumber, serialNumber: accumulator.serialNumber, position: accumulator.position ?? '' },
+      preparation: { systemDepressurised: at(2), aircraftSafe: at(3), eyeProtection: at(4), nitrogenOnly: at(4) },
+      tools: { gauge, cart },
+      conditions: { gasTemperature, temperatureMethod: 'ambient-shade', minutesSinceOperated: 95, ambient },
+    }
+    const finished = item.state !== 'draft'
+    if (finished) {
+      content.asFound = { reading, recordedAt: at(10) }
+      content.action = { kind: 'none', recordedAt: at(11) }
+      content.asLeft = { reading, gasTemperature, recordedAt: at(12) }
+      content.finish = { valveLeakCheck: true, capFitted: true, remarks: 'In limits; no action.', unserviceableReference: null, recordedAt: at(20) }
+    }
+    const submittedAt = new Date(start + 25 * 60_000)
+    const worksheet = await Worksheet.create({
+      state: item.state, accumulatorId: accumulator.id, aircraftId: aircraft.id, specificationId: specification.id, performerId: item.performer.id,
+      correctsId: null, workOrder: `WO-${new Date().getUTCFullYear()}-${++workOrder}`, reason: 'scheduled',
+      serviceable: finished ? result.assessment.verdict === 'in-limits' : null,
+      returnReason: item.state === 'returned' ? 'The gas temperature was taken in the sun on the wheel; take it in the shade and re-read the as-found.' : null,
+      voidReason: null, voidedById: null, content: content as unknown as Record<string, unknown>,
+      results: (finished ? { asFound: result, asLeft: result } : {}) as Record<string, unknown>,
+      engineVersion: ENGINE_VERSION, performedAt: new Date(start), submittedAt: item.state === 'awaiting-countersign' ? submittedAt : null, releasedAt: null,
+      round: item.state === 'returned' ? 2 : 1, createdAt: new Date(start), updatedAt: submittedAt,
+    }, { transaction })
+    if (finished) {
+      await Signature.create({ worksheetId: worksheet.id, userId: item.performer.id, capacity: 'performer', name: item.performer.name, authorisationNumber: item.performer.authorisationNumber, statement: PERFORMER_STATEMENT, signedAt: submittedAt, round: 1 }, { transaction })
+    }
+    const action = item.state === 'returned' ? 'returned' : item.state === 'draft' ? 'started' : 'signed'
+    await appendAudit({ at: new Date(start + 30 * 60_000), actorId: item.state === 'returned' ? inspector.id : item.performer.id, entity: 'worksheet', entityId: String(worksheet.id), action, detail: { seeded: true } }, transaction)
   }
 }
 
@@ -300,7 +378,23 @@ async function seedCycleChecks(technician: User, random: () => number, transacti
   }
 }
 
+/** The environment the server would run with: the process's own, then the git-ignored .env for what it lacks. */
+function serverEnvironment(): Record<string, string | undefined> {
+  const env: Record<string, string | undefined> = { ...process.env }
+  if (existsSync('.env')) {
+    for (const line of readFileSync('.env', 'utf8').split('\n')) {
+      const match = line.match(/^\s*([A-Z_][A-Z0-9_]*)\s*=\s*(.*?)\s*$/)
+      if (match && env[match[1]!] === undefined) env[match[1]!] = match[2]!.replace(/^['"]|['"]$/g, '')
+    }
+  }
+  return env
+}
+
 export async function seed(path: string): Promise<{ applied: string[], users: number, aircraft: number, worksheets: number }> {
+  const env = serverEnvironment()
+  const secret = auditSecretFrom({ auditSecret: env.NUXT_AUDIT_SECRET, sessionPassword: env.NUXT_SESSION_PASSWORD })
+  if (!secret) throw new Error('Set NUXT_SESSION_PASSWORD (or NUXT_AUDIT_SECRET) as the server will have it: the seed seals the audit chain with it.')
+  configureAuditSecret(secret)
   const sequelize = await openDatabase(path)
   try {
     const applied = await migrate(sequelize)

@@ -10,6 +10,8 @@ export class Attachment extends Model<InferAttributes<Attachment>, InferCreation
   declare sizeBytes: number
   declare storageKey: string
   declare uploadedById: ForeignKey<number>
+  /** SHA-256 of the stored bytes, part of the worksheet's record hash. */
+  declare sha256: string | null
   declare createdAt: CreationOptional<Date>
 
   static initModel(sequelize: Sequelize): void {
@@ -22,6 +24,7 @@ export class Attachment extends Model<InferAttributes<Attachment>, InferCreation
       sizeBytes: { type: DataTypes.INTEGER, allowNull: false },
       storageKey: { type: DataTypes.STRING(200), allowNull: false, unique: true },
       uploadedById: { type: DataTypes.INTEGER, allowNull: false },
+      sha256: { type: DataTypes.STRING(64), allowNull: true },
       createdAt: DataTypes.DATE,
     }, { sequelize, tableName: 'attachments', underscored: true, updatedAt: false })
   }

@@ -11,6 +11,10 @@ export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreation
   declare detail: Record<string, unknown>
   declare previousHash: string
   declare hash: string
+  /** SHA-256 of the canonical content of the record the entry concerns, as it stood after the change. */
+  declare recordHash: string | null
+  /** 1: the first chain (entry fields only); 2: the record hash is part of the entry's hash. */
+  declare hashVersion: CreationOptional<number>
 
   static initModel(sequelize: Sequelize): void {
     AuditEvent.init({
@@ -23,6 +27,8 @@ export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreation
       detail: { type: DataTypes.JSON, allowNull: false },
       previousHash: { type: DataTypes.STRING(64), allowNull: false },
       hash: { type: DataTypes.STRING(64), allowNull: false },
+      recordHash: { type: DataTypes.STRING(64), allowNull: true },
+      hashVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 2 },
     }, {
       sequelize, tableName: 'audit_events', underscored: true, timestamps: false,
       hooks: {

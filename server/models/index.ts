@@ -4,6 +4,7 @@ import { AccumulatorInstallation } from './accumulator-installation'
 import { Aircraft } from './aircraft'
 import { Attachment } from './attachment'
 import { AuditEvent } from './audit-event'
+import { AuditHead } from './audit-head'
 import { CycleCheck } from './cycle-check'
 import { LoginAttempt } from './login-attempt'
 import { Notification } from './notification'
@@ -17,7 +18,7 @@ import { User } from './user'
 import { Worksheet } from './worksheet'
 
 export {
-  Accumulator, AccumulatorInstallation, Aircraft, Attachment, AuditEvent, CycleCheck, LoginAttempt, Notification, Signature,
+  Accumulator, AccumulatorInstallation, Aircraft, Attachment, AuditEvent, AuditHead, CycleCheck, LoginAttempt, Notification, Signature,
   SizingStudy, Specification, SpecificationTablePoint, Tool, TrendAlert, User, Worksheet,
 }
 
@@ -25,7 +26,7 @@ export {
 export function initModels(sequelize: Sequelize): void {
   for (const model of [
     User, LoginAttempt, Aircraft, Specification, SpecificationTablePoint, Accumulator, AccumulatorInstallation, Tool,
-    Worksheet, Signature, Attachment, AuditEvent, SizingStudy, Notification, CycleCheck, TrendAlert,
+    Worksheet, Signature, Attachment, AuditEvent, AuditHead, SizingStudy, Notification, CycleCheck, TrendAlert,
   ]) model.initModel(sequelize)
 
   Specification.hasMany(SpecificationTablePoint, { as: 'tablePoints', foreignKey: 'specificationId' })

@@ -5,6 +5,8 @@ export class LoginAttempt extends Model<InferAttributes<LoginAttempt>, InferCrea
   declare email: string
   declare succeeded: boolean
   declare at: Date
+  /** The client address the attempt came from (for the per-address limit). */
+  declare address: string | null
 
   static initModel(sequelize: Sequelize): void {
     LoginAttempt.init({
@@ -12,6 +14,7 @@ export class LoginAttempt extends Model<InferAttributes<LoginAttempt>, InferCrea
       email: { type: DataTypes.STRING(254), allowNull: false },
       succeeded: { type: DataTypes.BOOLEAN, allowNull: false },
       at: { type: DataTypes.DATE, allowNull: false },
+      address: { type: DataTypes.STRING(64), allowNull: true },
     }, { sequelize, tableName: 'login_attempts', underscored: true, timestamps: false })
   }
 }

@@ -2,7 +2,7 @@ import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAtt
 
 export type SignatureCapacity = 'performer' | 'inspector'
 
-/** An electronic signature: who, in what capacity, to what statement, when. Never updated. */
+/** An electronic signature: who, in what capacity, to what statement, when, in which round. Never updated. */
 export class Signature extends Model<InferAttributes<Signature>, InferCreationAttributes<Signature>> {
   declare id: CreationOptional<number>
   declare worksheetId: ForeignKey<number>
@@ -12,6 +12,8 @@ export class Signature extends Model<InferAttributes<Signature>, InferCreationAt
   declare authorisationNumber: string | null
   declare statement: string
   declare signedAt: Date
+  /** The worksheet's signing round; one performer and one inspector signature per round (unique in the database). */
+  declare round: number
 
   static initModel(sequelize: Sequelize): void {
     Signature.init({
@@ -23,6 +25,7 @@ export class Signature extends Model<InferAttributes<Signature>, InferCreationAt
       authorisationNumber: { type: DataTypes.STRING(40), allowNull: true },
       statement: { type: DataTypes.TEXT, allowNull: false },
       signedAt: { type: DataTypes.DATE, allowNull: false },
+      round: { type: DataTypes.INTEGER, allowNull: false },
     }, { sequelize, tableName: 'signatures', underscored: true, timestamps: false })
   }
 }

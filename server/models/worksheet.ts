@@ -29,6 +29,10 @@ export class Worksheet extends Model<InferAttributes<Worksheet>, InferCreationAt
   declare performedAt: Date | null
   declare submittedAt: Date | null
   declare releasedAt: Date | null
+  /** Row version: every write names the version it read and bumps it (compare-and-set). */
+  declare version: CreationOptional<number>
+  /** Signing round: 1 at the start, one more each time the record is returned to its performer. */
+  declare round: CreationOptional<number>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
   declare signatures?: NonAttribute<Signature[]>
@@ -54,6 +58,8 @@ export class Worksheet extends Model<InferAttributes<Worksheet>, InferCreationAt
       performedAt: { type: DataTypes.DATE, allowNull: true },
       submittedAt: { type: DataTypes.DATE, allowNull: true },
       releasedAt: { type: DataTypes.DATE, allowNull: true },
+      version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+      round: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
     }, { sequelize, tableName: 'worksheets', underscored: true })

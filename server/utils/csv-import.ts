@@ -59,10 +59,9 @@ export async function importCsv<Row>(
   }
   if (parsed.data.length === 0) rejected.push({ line: 1, field: '(file)', message: 'The file has a header but no rows.' })
   if (rejected.length === 0) {
-    const sequelize = await useDB()
     let current = 0
     try {
-      await sequelize.transaction(async (transaction) => {
+      await writeTransaction(async (transaction) => {
         for (const { row, line } of rows) {
           current = line
           await write(row, transaction, line)

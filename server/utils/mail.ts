@@ -29,10 +29,10 @@ export async function sendMail(request: MailRequest): Promise<Notification> {
   const config = useRuntimeConfig()
   try {
     const info = await useTransporter().sendMail({ from: config.mailFrom, to: request.to, subject: request.subject, text: request.text })
-    return await Notification.create({ recipient: request.to, subject: request.subject, body: request.text, kind: request.kind, worksheetId: request.worksheetId ?? null, status: 'sent', error: null, messageId: info.messageId ?? null })
+    return await writeTransaction(transaction => Notification.create({ recipient: request.to, subject: request.subject, body: request.text, kind: request.kind, worksheetId: request.worksheetId ?? null, status: 'sent', error: null, messageId: info.messageId ?? null }, { transaction }))
   }
   catch (error) {
     console.error(`Mail to ${request.to} failed:`, error)
-    return await Notification.create({ recipient: request.to, subject: request.subject, body: request.text, kind: request.kind, worksheetId: request.worksheetId ?? null, status: 'failed', error: String(error), messageId: null })
+    return await writeTransaction(transaction => Notification.create({ recipient: request.to, subject: request.subject, body: request.text, kind: request.kind, worksheetId: request.worksheetId ?? null, status: 'failed', error: String(error), messageId: null }, { transaction }))
   }
 }

@@ -31,9 +31,16 @@ export async function toInstalledUnits(rows: Accumulator[]): Promise<InstalledUn
   }))
 }
 
-/** Creates a specification revision with its table points (inside the caller's transaction) and audits it. */
+/**
+ * Creates a specification revision with its table points (inside the caller's transaction),
+ * marks the revision it supersedes, and audits both.
+ */
 export async function createRevision(body: SpecificationBody, supersedesId: number | null, actorId: number, transaction: Transaction): Promise<SpecificationDto> {
   const { tablePoints, ...fields } = body
+  if (supersedesId) {
+    await Specification.update({ status: 'superseded' }, { where: { id: supersedesId }, transaction })
+    await appendAudit({ actorId, entity: 'specification', entityId: String(supersedesId), action: 'superseded', detail: { by: fields.revision } }, transaction)
+  }
   const created = await Specification.create({ ...fields, status: 'current', supersedesId }, { transaction })
   for (const point of tablePoints) await SpecificationTablePoint.create({ ...point, specificationId: created.id }, { transaction })
   await appendAudit({ actorId, entity: 'specification', entityId: String(created.id), action: supersedesId ? 'revised' : 'created', detail: { partNumber: fields.partNumber, revision: fields.revision, supersedesId } }, transaction)

@@ -1,4 +1,5 @@
 import { Op } from 'sequelize'
+import { isEngineInputError } from '../../shared/gas/errors'
 import { prechargeTrend, type PrechargeTrendResult } from '../../shared/gas/leakage'
 import type { WorksheetContent } from '../../shared/types/worksheet'
 import { cycleTrend, type CycleTrend } from '../../shared/utils/cycle-check'
@@ -40,12 +41,20 @@ export async function unitTrend(accumulator: Accumulator & { aircraft?: Aircraft
       ? [found, { takenAt: content.asLeft!.recordedAt, pressure: content.asLeft!.reading, temperature: content.asLeft!.gasTemperature, ambient: content.conditions.ambient, startsSegment: true }]
       : [found]
   })
-  const trend = prechargeTrend({
-    readings,
-    reference: { pressure: specificationPressure(specification, specification.referencePressure), temperature: { value: specification.referenceTemperature, unit: specification.referenceTemperatureUnit } },
-    tolerance: { minus: specification.toleranceMinus, plus: specification.tolerancePlus, unit: specification.toleranceUnit },
-    model: specification.gasModel,
-  })
+  let trend: PrechargeTrendResult
+  try {
+    trend = prechargeTrend({
+      readings,
+      reference: { pressure: specificationPressure(specification, specification.referencePressure), temperature: { value: specification.referenceTemperature, unit: specification.referenceTemperatureUnit } },
+      tolerance: { minus: specification.toleranceMinus, plus: specification.tolerancePlus, unit: specification.toleranceUnit },
+      model: specification.gasModel,
+    })
+  }
+  catch (error) {
+    // One unit's impossible figures must not take the fleet's trends down with it: say why this one has none.
+    if (!isEngineInputError(error)) throw error
+    return { ...noTrend, flag: { ...noTrend.flag, reasons: [`No trend: ${error.message}`] } }
+  }
   const flag = assessUnitTrend(trend, { lossThresholdPerDay: specification.lossThresholdPerDay, checkIntervalDays: specification.checkIntervalDays, lastServiceAt: worksheets.at(-1)!.performedAt?.toISOString() ?? null })
   let cursor = 0
   const services = worksheets.map((worksheet) => {
@@ -105,23 +114,20 @@ export async function evaluateTrendAlerts(): Promise<{ raised: number, cleared: 
   for (const cycle of cycles) {
     if (cycle.flagged) current.set(`cycle:${cycle.aircraftId}:${cycle.system}`, { kind: 'cycle', message: `${cycle.registration} ${cycle.system}: ${cycle.message}` })
   }
-  const open = await TrendAlert.findAll({ where: { clearedAt: null } })
-  let raised = 0
-  let cleared = 0
-  for (const alert of open) {
-    if (!current.has(alert.subject)) {
-      await alert.update({ clearedAt: new Date() })
-      cleared++
-    }
-  }
-  const openSubjects = new Set(open.map(alert => alert.subject))
+  // Cleared and raised in one write, re-read inside it: two evaluations at once raise a flag once.
+  const { raised, cleared } = await writeTransaction(async (transaction) => {
+    const open = await TrendAlert.findAll({ where: { clearedAt: null }, transaction })
+    const stale = open.filter(alert => !current.has(alert.subject))
+    if (stale.length) await TrendAlert.update({ clearedAt: new Date() }, { where: { id: stale.map(alert => alert.id) }, transaction })
+    const openSubjects = new Set(open.map(alert => alert.subject))
+    const fresh = [...current].filter(([subject]) => !openSubjects.has(subject))
+    for (const [subject, { kind, message }] of fresh) await TrendAlert.create({ kind, subject, message, raisedAt: new Date(), clearedAt: null }, { transaction })
+    return { raised: fresh.map(([, alert]) => alert), cleared: stale.length }
+  })
   const engineers = (await User.findAll({ where: { disabled: false } })).filter(user => user.roles.includes('engineer'))
-  for (const [subject, { kind, message }] of current) {
-    if (openSubjects.has(subject)) continue
-    await TrendAlert.create({ kind, subject, message, raisedAt: new Date(), clearedAt: null })
-    raised++
-    const link = `${useRuntimeConfig().publicUrl}/trends`
+  const link = `${useRuntimeConfig().publicUrl}/trends`
+  for (const { kind, message } of raised) {
     await Promise.all(engineers.map(engineer => sendMail({ to: engineer.email, kind: `trend-${kind}`, subject: `Trend alert: ${message.slice(0, 90)}`, text: `${message}\n\nSee ${link}\n\nThe approved maintenance data and local regulations govern.` })))
   }
-  return { raised, cleared }
+  return { raised: raised.length, cleared }
 }

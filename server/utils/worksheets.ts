@@ -1,3 +1,4 @@
+import type { H3Event } from 'h3'
 import type { Transaction } from 'sequelize'
 import { ENGINE_VERSION } from '../../shared/gas/version'
 import type { WorksheetStepBody } from '../../shared/schemas/worksheet'
@@ -29,6 +30,13 @@ export async function findWorksheet(id: number, transaction?: Transaction): Prom
   return worksheet
 }
 
+/** A worksheet as the API answers it, with its row version as the ETag (for If-Match). */
+export async function worksheetAnswer(event: H3Event, id: number): Promise<WorksheetDto> {
+  const worksheet = await findWorksheet(id)
+  setVersionTag(event, worksheet.version)
+  return toWorksheetDto(worksheet)
+}
+
 export function settleUntil(content: WorksheetContent): string | null {
   if (!content.action || content.action.kind === 'none') return null
   return new Date(Date.parse(content.action.recordedAt) + content.specification.settleMinutes * 60_000).toISOString()
@@ -41,6 +49,8 @@ export async function toWorksheetDto(worksheet: Worksheet): Promise<WorksheetDto
   return {
     id: worksheet.id,
     state: worksheet.state,
+    version: worksheet.version,
+    round: worksheet.round,
     workOrder: worksheet.workOrder,
     reason: worksheet.reason,
     performer: { id: worksheet.performerId, name: performer?.name ?? '' },
@@ -57,8 +67,9 @@ export async function toWorksheetDto(worksheet: Worksheet): Promise<WorksheetDto
     releasedAt: worksheet.releasedAt?.toISOString() ?? null,
     createdAt: worksheet.createdAt.toISOString(),
     updatedAt: worksheet.updatedAt.toISOString(),
-    signatures: (worksheet.signatures ?? []).sort((a, b) => a.signedAt.getTime() - b.signedAt.getTime()).map(signature => ({
-      capacity: signature.capacity, name: signature.name, authorisationNumber: signature.authorisationNumber, statement: signature.statement, signedAt: signature.signedAt.toISOString(),
+    signatures: (worksheet.signatures ?? []).sort((a, b) => a.signedAt.getTime() - b.signedAt.getTime() || a.id - b.id).map(signature => ({
+      capacity: signature.capacity, name: signature.name, authorisationNumber: signature.authorisationNumber, statement: signature.statement,
+      signedAt: signature.signedAt.toISOString(), round: signature.round,
     })),
     attachments: ((worksheet as Worksheet & { attachments?: Attachment[] }).attachments ?? []).map(attachment => ({
       id: attachment.id, kind: attachment.kind, originalName: attachment.originalName, mimeType: attachment.mimeType, sizeBytes: attachment.sizeBytes,
@@ -90,6 +101,18 @@ async function toolSnapshot(id: number, kind: 'gauge' | 'cart', field: string): 
   }
   const accuracy = gaugeAccuracy(tool)
   return { id: tool.id, assetNumber: tool.assetNumber, description: tool.description, calibrationDue: tool.calibrationDue, ...(accuracy ? { accuracy } : {}) }
+}
+
+/**
+ * A pre-charge lies below the accumulator's working pressures: a reading above the maximum
+ * working pressure is the system's pressure, read because the system was not depressurised
+ * (or a typing slip). Refused, in the specification's unit.
+ */
+function checkBelowSystemPressure(reading: Pressure, specification: WorksheetContent['specification'], field: string): void {
+  const inSpecificationUnit = convertPressureDifference(reading.value, reading.unit, specification.pressureUnit)
+  if (inSpecificationUnit > specification.maxPressure) {
+    refuse(`${reading.value} ${reading.unit} is above the unit's maximum working pressure (${specification.maxPressure} ${specification.pressureUnit}): that is system pressure, not the pre-charge. Depressurise the hydraulic system and read again.`, field)
+  }
 }
 
 /** The gauge must be able to show the reading: refuse one beyond its range. */
@@ -146,6 +169,7 @@ export async function applyStep(worksheet: Worksheet, step: WorksheetStepBody): 
       if (!content.conditions) refuse('Record the conditions (gas temperature, atmosphere) first.', 'step', 409)
       const gauge = await Tool.findByPk(content.tools.gauge.id)
       checkWithinGauge(step.reading, content.tools.gauge, gauge?.rangeMax ?? null, gauge?.rangeUnit ?? null, 'reading.value')
+      checkBelowSystemPressure(step.reading, content.specification, 'reading.value')
       content.asFound = { reading: step.reading, recordedAt: now }
       results.asFound = assess(content, step.reading, content.conditions.gasTemperature, 'reading')
       break
@@ -164,6 +188,7 @@ export async function applyStep(worksheet: Worksheet, step: WorksheetStepBody): 
         const minutes = Math.ceil((Date.parse(until) - Date.now()) / 60_000)
         refuse(`Let the gas settle to ambient before the as-left reading: ${minutes} more minute(s) (settle time ${content.specification.settleMinutes} min). A reading taken at once reads high.`, 'reading', 409)
       }
+      checkBelowSystemPressure(step.reading, content.specification, 'reading.value')
       content.asLeft = { reading: step.reading, gasTemperature: step.gasTemperature, recordedAt: now }
       results.asLeft = assess(content, step.reading, step.gasTemperature, 'gasTemperature')
       break
@@ -199,7 +224,7 @@ export function missingForSignature(content: WorksheetContent, results: Workshee
 }
 
 /** The performer's or inspector's password, re-entered to sign. */
-export async function confirmPassword(user: User, password: string): Promise<void> {
+export async function confirmPassword(user: Pick<User, 'passwordHash'>, password: string): Promise<void> {
   if (!(await verifyPassword(user.passwordHash, password))) {
     throw createError({ status: 401, statusMessage: 'Unauthorized', message: 'That password is not right; the signature was not made.', data: { issues: [{ path: ['password'], field: 'password', message: 'Not your password.' }] } })
   }

@@ -17,7 +17,7 @@ export type CycleCheckBody = z.infer<typeof cycleCheckSchema>
 export const cycleCheckQuerySchema = z.object({
   aircraftId: z.coerce.number().int().positive().optional(),
   system: z.string().max(80).optional(),
-  page: z.coerce.number().int().min(1).default(1),
+  page: z.coerce.number().int().min(1).max(100_000, 'At most page 100000.').default(1),
   pageSize: z.coerce.number().int().min(1).max(500).default(50),
 })
 

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { convertPressureDifference } from '../gas/units'
 import { ACCUMULATOR_TYPES, CORRECTION_METHODS, TOOL_KINDS } from '../types/registers'
 import { numberField, pressureBasisSchema, pressureUnitSchema, temperatureUnitSchema, volumeUnitSchema } from './quantities'
 
@@ -9,7 +10,7 @@ const isoDate = z.string().date('Use a date like 2026-01-31.')
 export const registerQuery = {
   q: z.string().trim().max(80).optional(),
   direction: z.enum(['asc', 'desc']).default('asc'),
-  page: z.coerce.number().int().min(1).default(1),
+  page: z.coerce.number().int().min(1).max(100_000, 'At most page 100000.').default(1),
   pageSize: z.coerce.number().int().min(1).max(500).default(25),
 }
 const booleanQuery = z.enum(['true', 'false']).transform(value => value === 'true').optional()
@@ -104,6 +105,11 @@ function specificationRules(body: Partial<z.infer<z.ZodObject<typeof specificati
   }
   if (body.referencePressure !== undefined && body.maxPressure !== undefined && body.referencePressure >= body.maxPressure) {
     context.addIssue({ code: 'custom', path: ['referencePressure'], message: 'The pre-charge must be below the maximum working pressure.' })
+  }
+  if (body.toleranceMinus !== undefined && body.toleranceUnit !== undefined && body.referencePressure !== undefined && body.pressureUnit !== undefined) {
+    // The low end of the band has to be a pressure the gas can hold.
+    const minus = body.toleranceUnit === '%' ? body.toleranceMinus / 100 * body.referencePressure : convertPressureDifference(body.toleranceMinus, body.toleranceUnit, body.pressureUnit)
+    if (minus >= body.referencePressure) context.addIssue({ code: 'custom', path: ['toleranceMinus'], message: 'The minus tolerance must be smaller than the reference pre-charge.' })
   }
   if (body.correctionMethod === 'table' && (body.tablePoints?.length ?? 0) < 2) {
     context.addIssue({ code: 'custom', path: ['tablePoints'], message: 'A table correction needs at least two points from the approved data.' })

@@ -30,7 +30,7 @@ export type StudyInput = z.infer<typeof studyInputSchema>
 export const studyListQuerySchema = z.object({
   q: z.string().trim().max(80).optional(),
   specificationId: z.coerce.number().int().positive().optional(),
-  page: z.coerce.number().int().min(1).default(1),
+  page: z.coerce.number().int().min(1).max(100_000, 'At most page 100000.').default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(25),
 })
 

@@ -75,7 +75,7 @@ export const worksheetListQuerySchema = z.object({
   to: z.string().date('Use a date like 2026-01-31.').optional(),
   sort: z.enum(['performedAt', 'createdAt', 'state', 'workOrder']).default('createdAt'),
   direction: z.enum(['asc', 'desc']).default('desc'),
-  page: z.coerce.number().int().min(1).default(1),
+  page: z.coerce.number().int().min(1).max(100_000, 'At most page 100000.').default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(25),
 })
 export type WorksheetListQuery = z.infer<typeof worksheetListQuerySchema>

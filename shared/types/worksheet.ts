@@ -67,11 +67,16 @@ export interface SignatureDto {
   authorisationNumber: string | null
   statement: string
   signedAt: string
+  /** The signing round: one more each time the record was returned. */
+  round: number
 }
 
 export interface WorksheetDto {
   id: number
   state: WorksheetState
+  /** Row version, also the ETag: send it back as If-Match so a change acts on what was seen. */
+  version: number
+  round: number
   workOrder: string
   reason: WorksheetReason
   performer: { id: number, name: string }

@@ -1,4 +1,5 @@
-import { beforeAll, describe, expect, inject, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { baseURL } from '../support/file-server'
 import { api, DEMO, signIn } from '../support/api'
 
 const cookies: Record<string, string> = {}
@@ -7,7 +8,7 @@ beforeAll(async () => {
 })
 
 async function postCsv(path: string, csv: string, cookie: string) {
-  const response = await fetch(`${inject('baseURL')}${path}`, { method: 'POST', headers: { 'content-type': 'text/csv', cookie }, body: csv })
+  const response = await fetch(`${baseURL()}${path}`, { method: 'POST', headers: { 'content-type': 'text/csv', cookie }, body: csv })
   return { status: response.status, body: await response.json() }
 }
 
@@ -130,7 +131,7 @@ describe('tools', () => {
   })
 
   it('exports the register and imports the same format back', async () => {
-    const exported = await fetch(`${inject('baseURL')}/api/tools/export`, { headers: { cookie: cookies.technician! } })
+    const exported = await fetch(`${baseURL()}/api/tools/export`, { headers: { cookie: cookies.technician! } })
     const [header, ...lines] = (await exported.text()).trim().split(/\r?\n/)
     expect(header).toBe('kind,assetNumber,description,rangeMax,rangeUnit,resolution,accuracy,accuracyUnit,calibrationDue,active')
     const renamed = lines.filter(line => line.includes('GA-0141')).map(line => line.replace('GA-0141', 'GA-0141B'))

@@ -60,6 +60,7 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'POST /api/attachments': ['technician'],
   'GET /api/attachments/[id]': 'signed-in',
   'GET /api/audit/verify': ['admin'],
+  'GET /api/audit/export': ['admin'],
   'GET /api/admin/outbox': ['admin'],
   'GET /api/trends/precharge': 'signed-in',
   'GET /api/trends/precharge/[accumulatorId]': 'signed-in',

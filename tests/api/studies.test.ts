@@ -2,7 +2,8 @@ import { execFileSync } from 'node:child_process'
 import { mkdtempSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
-import { beforeAll, describe, expect, inject, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { baseURL } from '../support/file-server'
 import { api, DEMO, signIn } from '../support/api'
 
 const psia = (value: number) => ({ value, unit: 'psi', basis: 'absolute' })
@@ -80,11 +81,11 @@ describe('sizing studies', () => {
 
   it('exports a study as CSV and as a PDF report', async () => {
     const created = await api('/api/studies', { cookie: engineer, body: brake })
-    const csv = await fetch(`${inject('baseURL')}/api/studies/${created.body.id}/csv`, { headers: { cookie: technician } })
+    const csv = await fetch(`${baseURL()}/api/studies/${created.body.id}/csv`, { headers: { cookie: technician } })
     const lines = (await csv.text()).trim().split(/\r?\n/)
     expect(lines[0]).toMatch(/^Condition,Temperature,Pre-charge at temperature/)
     expect(lines).toHaveLength(4)
-    const pdf = await fetch(`${inject('baseURL')}/api/studies/${created.body.id}/pdf`, { headers: { cookie: technician } })
+    const pdf = await fetch(`${baseURL()}/api/studies/${created.body.id}/pdf`, { headers: { cookie: technician } })
     const file = join(mkdtempSync(join(tmpdir(), 'chargewell-study-')), 'study.pdf')
     writeFileSync(file, Buffer.from(await pdf.arrayBuffer()))
     const text = execFileSync('pdftotext', [file, '-'], { encoding: 'utf8' })

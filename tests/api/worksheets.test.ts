@@ -3,6 +3,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
+import { baseURL } from '../support/file-server'
 import { api, DEMO, DEMO_PASSWORD, signIn, upload } from '../support/api'
 import { expectedTarget, fillWorksheet, finishAndSign, GAS_TEMPERATURE, toolId, unitAt } from '../support/worksheet-flow'
 
@@ -142,7 +143,7 @@ describe('signing, countersign and the permanent record', () => {
     expect(released.body.state).toBe('released')
     expect(released.body.signatures.at(-1)).toMatchObject({ capacity: 'inspector', name: 'Imke Dorsey' })
 
-    const response = await fetch(`${(await import('vitest')).inject('baseURL')}/api/worksheets/${worksheetId}/pdf`, { headers: { cookie: cookies.engineer! } })
+    const response = await fetch(`${baseURL()}/api/worksheets/${worksheetId}/pdf`, { headers: { cookie: cookies.engineer! } })
     expect(response.headers.get('content-type')).toBe('application/pdf')
     const folder = mkdtempSync(join(tmpdir(), 'chargewell-pdf-'))
     writeFileSync(join(folder, 'record.pdf'), Buffer.from(await response.arrayBuffer()))
@@ -208,7 +209,7 @@ describe('attachments', () => {
     expect(fake.status).toBe(415)
     expect((await upload('/api/attachments', { worksheetId: String(created.body.id), kind: 'gauge-photo' }, { name: 'gauge.png', bytes: png }, cookies.inspector)).status).toBe(403)
     expect((await api(`/api/attachments/${stored.body.id}`)).status).toBe(401)
-    const served = await fetch(`${(await import('vitest')).inject('baseURL')}/api/attachments/${stored.body.id}`, { headers: { cookie: cookies.inspector! } })
+    const served = await fetch(`${baseURL()}/api/attachments/${stored.body.id}`, { headers: { cookie: cookies.inspector! } })
     expect(served.headers.get('content-type')).toBe('image/png')
     expect(new Uint8Array(await served.arrayBuffer())).toEqual(png)
     expect((await api(`/api/worksheets/${created.body.id}`, { cookie: cookies.technician })).body.attachments).toHaveLength(1)
@@ -222,7 +223,7 @@ describe('lists', () => {
     expect(page.body.total).toBeGreaterThanOrEqual(5)
     expect(page.body.items).toHaveLength(2)
     expect(Date.parse(page.body.items[0].performedAt)).toBeLessThan(Date.parse(page.body.items[1].performedAt))
-    const csv = await fetch(`${(await import('vitest')).inject('baseURL')}/api/worksheets/export?accumulatorId=${unit.id}&state=released`, { headers: { cookie: cookies.engineer! } })
+    const csv = await fetch(`${baseURL()}/api/worksheets/export?accumulatorId=${unit.id}&state=released`, { headers: { cookie: cookies.engineer! } })
     expect(csv.headers.get('content-type')).toMatch(/text\/csv/)
     const lines = (await csv.text()).trim().split(/\r?\n/)
     expect(lines[0]).toMatch(/^Worksheet,State,Work order,Registration/)

@@ -1,5 +1,6 @@
 import type { Browser } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { baseURL } from '../support/file-server'
 import { NAVIGATION, navigationFor } from '../../shared/navigation'
 import type { Role } from '../../shared/types/user'
 import { launchBrowser, signedInPage } from '../support/browser'
@@ -34,7 +35,7 @@ describe('sign-in and navigation per role', () => {
   })
 
   it('a wrong password shows the reason and keeps what was typed', async () => {
-    const context = await browser.newContext({ baseURL: (await import('vitest')).inject('baseURL') })
+    const context = await browser.newContext({ baseURL: baseURL() })
     const page = await context.newPage()
     await page.goto('/login')
     await page.getByLabel('E-mail').fill('technician@chargewell.test')
@@ -46,7 +47,7 @@ describe('sign-in and navigation per role', () => {
   })
 
   it('sends a signed-out visitor to sign-in, and a technician away from Admin', async () => {
-    const context = await browser.newContext({ baseURL: (await import('vitest')).inject('baseURL') })
+    const context = await browser.newContext({ baseURL: baseURL() })
     const anonymous = await context.newPage()
     await anonymous.goto('/charge-target')
     await anonymous.waitForURL(url => url.pathname === '/login')

@@ -1,4 +1,4 @@
-import { inject } from 'vitest'
+import { baseURL } from './file-server'
 
 export const DEMO_PASSWORD = 'chargewell-demo'
 export const DEMO = {
@@ -15,14 +15,14 @@ export interface ApiAnswer<T = any> { status: number, body: T, headers: Headers 
 
 /** One request to the test server; `cookie` carries a session from `signIn`. */
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
-export async function api<T = any>(path: string, options: { method?: string, body?: unknown, cookie?: string, raw?: string } = {}): Promise<ApiAnswer<T>> {
-  const headers: Record<string, string> = { accept: 'application/json' }
+export async function api<T = any>(path: string, options: { method?: string, body?: unknown, cookie?: string, raw?: string, headers?: Record<string, string> } = {}): Promise<ApiAnswer<T>> {
+  const headers: Record<string, string> = { accept: 'application/json', ...options.headers }
   if (options.cookie) headers.cookie = options.cookie
   let body: string | undefined
   if (options.raw !== undefined) body = options.raw
   else if (options.body !== undefined) body = JSON.stringify(options.body)
-  if (body !== undefined) headers['content-type'] = 'application/json'
-  const response = await fetch(`${inject('baseURL')}${path}`, { method: options.method ?? (body ? 'POST' : 'GET'), headers, body })
+  if (body !== undefined) headers['content-type'] ??= 'application/json'
+  const response = await fetch(`${baseURL()}${path}`, { method: options.method ?? (body ? 'POST' : 'GET'), headers, body })
   const text = await response.text()
   let parsed: unknown = text
   try {
@@ -38,7 +38,7 @@ const sessions = new Map<string, string>()
 export async function signIn(email: string, password = DEMO_PASSWORD): Promise<string> {
   const cached = sessions.get(`${email}:${password}`)
   if (cached) return cached
-  const response = await fetch(`${inject('baseURL')}/api/auth/login`, {
+  const response = await fetch(`${baseURL()}/api/auth/login`, {
     method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password }),
   })
   if (response.status !== 200) throw new Error(`Sign-in of ${email} failed with ${response.status}: ${await response.text()}`)
@@ -52,7 +52,7 @@ export async function upload(path: string, fields: Record<string, string>, file:
   const form = new FormData()
   for (const [name, value] of Object.entries(fields)) form.append(name, value)
   form.append('file', new Blob([file.bytes as Uint8Array<ArrayBuffer>], { type: file.type ?? 'application/octet-stream' }), file.name)
-  const response = await fetch(`${inject('baseURL')}${path}`, { method: 'POST', body: form, headers: cookie ? { cookie } : {} })
+  const response = await fetch(`${baseURL()}${path}`, { method: 'POST', body: form, headers: cookie ? { cookie } : {} })
   const text = await response.text()
   let body: unknown = text
   try {

@@ -1,5 +1,6 @@
 import { chromium, type Browser, type Page } from 'playwright-core'
-import { inject, onTestFailed } from 'vitest'
+import { onTestFailed } from 'vitest'
+import { baseURL } from './file-server'
 
 /** Debian's Chromium, headless, with the flags this closed network needs. */
 export function launchBrowser(): Promise<Browser> {
@@ -11,7 +12,7 @@ export function launchBrowser(): Promise<Browser> {
 
 /** A new tablet-sized page signed in as `email`. */
 export async function signedInPage(browser: Browser, email: string, password = 'chargewell-demo'): Promise<Page> {
-  const context = await browser.newContext({ baseURL: inject('baseURL'), viewport: { width: 1180, height: 820 } })
+  const context = await browser.newContext({ baseURL: baseURL(), viewport: { width: 1180, height: 820 } })
   const page = await context.newPage()
   // When a test fails, say what the browser saw go wrong (answers of 400 and up, console errors).
   const trouble: string[] = []

@@ -6,7 +6,7 @@ export const AMBIENT = { elevation: { value: 420, unit: 'ft' } } as const
 export const GAS_TEMPERATURE = { value: 15, unit: 'C' } as const
 
 export async function unitAt(cookie: string, registration: string, position: RegExp) {
-  const units = (await api('/api/accumulators?installed=true&pageSize=500', { cookie })).body.items as { id: number, position: string, aircraft: { registration: string } }[]
+  const units = (await api('/api/accumulators?installed=true&pageSize=500', { cookie })).body.items as { id: number, position: string, aircraft: { id: number, registration: string } }[]
   const unit = units.find(candidate => candidate.aircraft.registration === registration && position.test(candidate.position))
   if (!unit) throw new Error(`No unit at ${registration} ${position}`)
   return unit

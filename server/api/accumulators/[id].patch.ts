@@ -12,8 +12,7 @@ export default defineEventHandler(async (event) => {
   if (!accumulator) throw createError({ status: 404, statusMessage: 'Not Found', message: 'Accumulator not found.' })
   if (move?.aircraftId && !(await Aircraft.findByPk(move.aircraftId))) throw createError({ status: 422, statusMessage: 'Unprocessable Entity', message: 'No such aircraft.', data: { field: 'move.aircraftId' } })
   if (move && accumulator.installedAt && move.date < accumulator.installedAt) throw createError({ status: 422, statusMessage: 'Unprocessable Entity', message: `The move date is before the unit was installed (${accumulator.installedAt}).`, data: { field: 'move.date' } })
-  const sequelize = await useDB()
-  await uniqueOr409(() => sequelize.transaction(async (transaction) => {
+  await uniqueOr409(() => writeTransaction(async (transaction) => {
     if (Object.keys(fields).length) await accumulator.update(fields, { transaction })
     if (move) {
       await AccumulatorInstallation.update({ removedAt: move.date, removalReason: move.reason ?? null }, { where: { accumulatorId: id, removedAt: null }, transaction })

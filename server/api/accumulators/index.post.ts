@@ -7,8 +7,7 @@ export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'admin')
   const body = await readValidatedBody(event, validateWith(accumulatorSchema))
   if (body.aircraftId && !(await Aircraft.findByPk(body.aircraftId))) throw createError({ status: 422, statusMessage: 'Unprocessable Entity', message: 'No such aircraft.', data: { field: 'aircraftId' } })
-  const sequelize = await useDB()
-  const accumulator = await uniqueOr409(() => sequelize.transaction(async (transaction) => {
+  const accumulator = await uniqueOr409(() => writeTransaction(async (transaction) => {
     const created = await Accumulator.create(body, { transaction })
     if (body.aircraftId) await AccumulatorInstallation.create({ accumulatorId: created.id, aircraftId: body.aircraftId, position: body.position!, installedAt: body.installedAt!, removedAt: null, removalReason: null }, { transaction })
     await appendAudit({ actorId: user.id, entity: 'accumulator', entityId: String(created.id), action: 'created', detail: body }, transaction)

@@ -9,8 +9,7 @@ export default defineEventHandler(async (event) => {
   const body = await readValidatedBody(event, validateWith(aircraftUpdateSchema))
   const aircraft = await Aircraft.findByPk(id)
   if (!aircraft) throw createError({ status: 404, statusMessage: 'Not Found', message: 'Aircraft not found.' })
-  const sequelize = await useDB()
-  await uniqueOr409(() => sequelize.transaction(async (transaction) => {
+  await uniqueOr409(() => writeTransaction(async (transaction) => {
     await aircraft.update(body, { transaction })
     await appendAudit({ actorId: user.id, entity: 'aircraft', entityId: String(aircraft.id), action: 'updated', detail: body }, transaction)
   }), 'Another aircraft already has that registration or fleet number.')

@@ -5,8 +5,7 @@ import { Aircraft } from '../../models'
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'admin')
   const body = await readValidatedBody(event, validateWith(aircraftSchema))
-  const sequelize = await useDB()
-  const aircraft = await uniqueOr409(() => sequelize.transaction(async (transaction) => {
+  const aircraft = await uniqueOr409(() => writeTransaction(async (transaction) => {
     const created = await Aircraft.create(body, { transaction })
     await appendAudit({ actorId: user.id, entity: 'aircraft', entityId: String(created.id), action: 'created', detail: body }, transaction)
     return created

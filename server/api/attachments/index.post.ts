@@ -1,6 +1,7 @@
-import { randomUUID } from 'node:crypto'
+import { createHash, randomUUID } from 'node:crypto'
 import { z } from 'zod'
 import { canEdit } from '../../../shared/utils/worksheet-rules'
+import { appendAudit } from '../../database/audit-chain'
 import { Attachment } from '../../models'
 
 const fieldsSchema = z.object({
@@ -17,7 +18,7 @@ export default defineEventHandler(async (event) => {
   const parts = await readMultipartFormData(event)
   if (!parts) throw createError({ status: 400, statusMessage: 'Bad Request', message: 'Send the file as multipart/form-data with the fields worksheetId, kind and file.' })
   const text = (name: string) => parts.find(part => part.name === name && !part.filename)?.data.toString('utf8')
-  const fields = validateWith(fieldsSchema)({ worksheetId: text('worksheetId'), kind: text('kind') })
+  const fields = parseInput(fieldsSchema, { worksheetId: text('worksheetId'), kind: text('kind') })
   const file = parts.find(part => part.name === 'file' && part.filename)
   if (!file) throw createError({ status: 400, statusMessage: 'Bad Request', message: 'Attach the file in the field "file".', data: { issues: [{ path: ['file'], field: 'file', message: 'No file.' }] } })
   const { uploadMaxBytes } = useRuntimeConfig()
@@ -30,7 +31,16 @@ export default defineEventHandler(async (event) => {
   enforce(canEdit(user, worksheet))
   const storageKey = `${worksheet.id}/${randomUUID()}`
   await useStorage('uploads').setItemRaw(storageKey, file.data)
-  const attachment = await Attachment.create({ worksheetId: worksheet.id, kind: fields.kind, originalName: (file.filename ?? 'file').slice(0, 200), mimeType, sizeBytes: file.data.length, storageKey, uploadedById: user.id })
+  const sha256 = createHash('sha256').update(file.data).digest('hex')
+  const attachment = await writeTransaction(async (transaction) => {
+    // Still the performer's open worksheet now that it is our turn to write.
+    enforce(canEdit(user, await findWorksheet(worksheet.id, transaction)))
+    const created = await Attachment.create({
+      worksheetId: worksheet.id, kind: fields.kind, originalName: (file.filename ?? 'file').slice(0, 200), mimeType, sizeBytes: file.data.length, storageKey, uploadedById: user.id, sha256,
+    }, { transaction })
+    await appendAudit({ actorId: user.id, entity: 'worksheet', entityId: String(worksheet.id), action: 'attachment-added', detail: { attachmentId: created.id, kind: fields.kind, sha256 } }, transaction)
+    return created
+  })
   setResponseStatus(event, 201)
   return { id: attachment.id, kind: attachment.kind, originalName: attachment.originalName, mimeType, sizeBytes: attachment.sizeBytes }
 })

@@ -1,35 +1,21 @@
-import { Op } from 'sequelize'
 import { loginSchema } from '../../../shared/schemas/auth'
-import { LoginAttempt, User } from '../../models'
+import { User } from '../../models'
 
-const LOCKOUT_FAILURES = 5
-const LOCKOUT_WINDOW_MS = 15 * 60_000
 const WRONG_CREDENTIALS = 'That e-mail address and password do not match an active account.'
 
-/** Sign-in: open to anyone, so it validates first; 5 failures in 15 minutes lock the account for the rest of the window. */
+/**
+ * Sign-in: open to anyone, so it validates first. The attempt is counted and recorded before
+ * the password is checked (see server/utils/sign-in.ts): 5 failures in 15 minutes lock the
+ * account, and 30 lock the network address, for the rest of the window.
+ */
 export default defineEventHandler(async (event) => {
   const { email, password } = await readValidatedBody(event, validateWith(loginSchema))
-  const now = Date.now()
-  const lastSuccess = await LoginAttempt.max<Date, LoginAttempt>('at', { where: { email, succeeded: true } })
-  const since = new Date(Math.max(now - LOCKOUT_WINDOW_MS, lastSuccess ? new Date(lastSuccess).getTime() + 1 : 0))
-  const failures = await LoginAttempt.findAll({ where: { email, succeeded: false, at: { [Op.gte]: since } }, order: [['at', 'DESC']], limit: LOCKOUT_FAILURES })
-  if (failures.length >= LOCKOUT_FAILURES) {
-    const unlockAt = failures[LOCKOUT_FAILURES - 1]!.at.getTime() + LOCKOUT_WINDOW_MS
-    const retryAfterSeconds = Math.max(1, Math.ceil((unlockAt - now) / 1000))
-    setResponseHeader(event, 'Retry-After', retryAfterSeconds)
-    throw createError({
-      status: 429,
-      message: `Too many failed sign-ins for this account. Try again in ${Math.ceil(retryAfterSeconds / 60)} minute(s).`,
-      data: { retryAfterSeconds },
-    })
-  }
-
+  const ticket = await admitAttempt(event, email)
   const user = await User.findOne({ where: { email } })
-  const passwordMatches = user ? await verifyPassword(user.passwordHash, password) : false
-  await LoginAttempt.create({ email, succeeded: passwordMatches && !user!.disabled, at: new Date(now) })
-  if (!user || !passwordMatches) throw createError({ status: 401, message: WRONG_CREDENTIALS })
-  if (user.disabled) throw createError({ status: 401, message: 'This account is disabled. Ask an administrator to enable it.' })
-
-  await setUserSession(event, { user: sessionUser(user), loggedInAt: new Date(now).toISOString() })
+  const passwordMatches = await checkPassword(user?.passwordHash, password)
+  if (!user || !passwordMatches) throw createError({ status: 401, statusMessage: 'Unauthorized', message: WRONG_CREDENTIALS })
+  if (user.disabled) throw createError({ status: 401, statusMessage: 'Unauthorized', message: 'This account is disabled. Ask an administrator to enable it.' })
+  await attemptSucceeded(ticket)
+  await setUserSession(event, { user: sessionUser(user), loggedInAt: new Date().toISOString() })
   return user.toPublic()
 })

@@ -13,8 +13,7 @@ export default defineEventHandler(async (event) => {
   const specification = await Specification.findOne({ where: { partNumber: accumulator.partNumber, status: 'current' } })
   if (!specification) throw createError({ status: 422, statusMessage: 'Unprocessable Entity', message: `No current specification for P/N ${accumulator.partNumber}.`, data: { field: 'system' } })
   const result = runEngine(() => cycleCheckLeakRate(body, specification))
-  const sequelize = await useDB()
-  const check = await sequelize.transaction(async (transaction) => {
+  const check = await writeTransaction(async (transaction) => {
     const created = await CycleCheck.create({
       aircraftId: body.aircraftId, accumulatorId: accumulator.id, system: body.system, checkedAt: body.checkedAt ? new Date(`${body.checkedAt}T12:00:00Z`) : new Date(),
       inputs: body, results: { fluidReleased: result.fluidReleased, leakRate: result.leakRate, warnings: result.warnings, method: result.method },

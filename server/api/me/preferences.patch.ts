@@ -4,6 +4,6 @@ import { preferencesSchema } from '../../../shared/schemas/auth'
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event)
   const preferences = await readValidatedBody(event, validateWith(preferencesSchema))
-  await user.update({ preferences })
+  await writeTransaction(transaction => user.update({ preferences }, { transaction }))
   return user.toPublic()
 })

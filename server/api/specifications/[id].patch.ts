@@ -15,10 +15,9 @@ export default defineEventHandler(async (event) => {
   const specification = await Specification.findByPk(id, { include: [{ model: SpecificationTablePoint, as: 'tablePoints' }] })
   if (!specification) throw createError({ status: 404, statusMessage: 'Not Found', message: 'Specification not found.' })
   if (specification.status !== 'current') throw createError({ status: 409, statusMessage: 'Conflict', message: `Rev ${specification.revision} is superseded; change the current revision instead.` })
-  const sequelize = await useDB()
   const local = Object.keys(changes).every(key => (SPECIFICATION_LOCAL_FIELDS as readonly string[]).includes(key))
   if (local) {
-    await sequelize.transaction(async (transaction) => {
+    await writeTransaction(async (transaction) => {
       await specification.update(changes, { transaction })
       await appendAudit({ actorId: user.id, entity: 'specification', entityId: String(id), action: 'updated', detail: changes }, transaction)
     })
@@ -28,11 +27,8 @@ export default defineEventHandler(async (event) => {
     throw createError({ status: 422, statusMessage: 'Unprocessable Entity', message: 'A change to the approved-data figures is a new revision: give the new revision letter or number.', data: { field: 'revision', issues: [{ path: ['revision'], field: 'revision', message: 'Give the new revision.' }] } })
   }
   const { id: _id, status: _status, ...currentFields } = toSpecificationDto(specification)
-  const next = validateWith(specificationSchema)({ ...currentFields, ...changes })
-  const created = await uniqueOr409(() => sequelize.transaction(async (transaction) => {
-    await specification.update({ status: 'superseded' }, { transaction })
-    return createRevision(next, specification.id, user.id, transaction)
-  }), 'That revision already exists for this part number.')
+  const next = parseInput(specificationSchema, { ...currentFields, ...changes })
+  const created = await uniqueOr409(() => writeTransaction(transaction => createRevision(next, specification.id, user.id, transaction)), 'That revision already exists for this part number.')
   setResponseStatus(event, 201)
   return created
 })

@@ -9,7 +9,6 @@ export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'engineer')
   return importCsv(event, specificationCsvRow, async (row, transaction) => {
     const current = await Specification.findOne({ where: { partNumber: row.partNumber, status: 'current' }, transaction })
-    if (current) await current.update({ status: 'superseded' }, { transaction })
     await createRevision(row, current?.id ?? null, user.id, transaction)
   }, async (row, line) => {
     const same = await Specification.findOne({ where: { partNumber: row.partNumber, revision: row.revision } })

@@ -7,8 +7,7 @@ export default defineEventHandler(async (event) => {
   const body = await readValidatedBody(event, validateWith(specificationSchema))
   const current = await Specification.findOne({ where: { partNumber: body.partNumber, status: 'current' } })
   if (current) throw createError({ status: 409, statusMessage: 'Conflict', message: `P/N ${body.partNumber} already has a current specification (rev ${current.revision}); issue a new revision of it instead.`, data: { field: 'partNumber' } })
-  const sequelize = await useDB()
-  const created = await uniqueOr409(() => sequelize.transaction(transaction => createRevision(body, null, user.id, transaction)), 'That part number and revision already exist.')
+  const created = await uniqueOr409(() => writeTransaction(transaction => createRevision(body, null, user.id, transaction)), 'That part number and revision already exist.')
   setResponseStatus(event, 201)
   return created
 })

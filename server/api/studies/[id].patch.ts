@@ -11,8 +11,7 @@ export default defineEventHandler(async (event) => {
   const study = await findStudy(id)
   await requireSpecification(inputs.specificationId)
   const results = runEngine(() => computeStudy(inputs))
-  const sequelize = await useDB()
-  await sequelize.transaction(async (transaction) => {
+  await writeTransaction(async (transaction) => {
     await study.update({ name: inputs.name, specificationId: inputs.specificationId, inputs, results: results as unknown as Record<string, unknown>, engineVersion: results.engineVersion, updatedById: user.id }, { transaction })
     await appendAudit({ actorId: user.id, entity: 'study', entityId: String(study.id), action: 'updated', detail: { name: inputs.name } }, transaction)
   })

@@ -9,8 +9,7 @@ export default defineEventHandler(async (event) => {
   const inputs = await readValidatedBody(event, validateWith(studyInputSchema))
   await requireSpecification(inputs.specificationId)
   const results = runEngine(() => computeStudy(inputs))
-  const sequelize = await useDB()
-  const study = await sequelize.transaction(async (transaction) => {
+  const study = await writeTransaction(async (transaction) => {
     const created = await SizingStudy.create({ name: inputs.name, specificationId: inputs.specificationId, inputs, results: results as unknown as Record<string, unknown>, engineVersion: results.engineVersion, createdById: user.id, updatedById: user.id }, { transaction })
     await appendAudit({ actorId: user.id, entity: 'study', entityId: String(created.id), action: 'created', detail: { name: inputs.name } }, transaction)
     return created

@@ -1,5 +1,5 @@
 import { idParamsSchema } from '../../../shared/schemas/auth'
-import { toolUpdateSchema } from '../../../shared/schemas/registers'
+import { toolSchema, toolUpdateSchema } from '../../../shared/schemas/registers'
 import { appendAudit } from '../../database/audit-chain'
 import { Tool } from '../../models'
 
@@ -10,8 +10,10 @@ export default defineEventHandler(async (event) => {
   const body = await readValidatedBody(event, validateWith(toolUpdateSchema))
   const tool = await Tool.findByPk(id)
   if (!tool) throw createError({ status: 404, statusMessage: 'Not Found', message: 'Tool not found.' })
-  const sequelize = await useDB()
-  await sequelize.transaction(async (transaction) => {
+  // The tool as it would be must still be a whole tool: a gauge keeps a range and an accuracy.
+  const { id: _id, createdAt: _created, updatedAt: _updated, ...current } = tool.get({ plain: true })
+  parseInput(toolSchema, { ...current, ...body })
+  await writeTransaction(async (transaction) => {
     await tool.update(body, { transaction })
     await appendAudit({ actorId: user.id, entity: 'tool', entityId: String(id), action: 'updated', detail: body }, transaction)
   })

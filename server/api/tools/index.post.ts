@@ -5,8 +5,7 @@ import { Tool } from '../../models'
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'admin')
   const body = await readValidatedBody(event, validateWith(toolSchema))
-  const sequelize = await useDB()
-  const tool = await uniqueOr409(() => sequelize.transaction(async (transaction) => {
+  const tool = await uniqueOr409(() => writeTransaction(async (transaction) => {
     const created = await Tool.create(body, { transaction })
     await appendAudit({ actorId: user.id, entity: 'tool', entityId: String(created.id), action: 'created', detail: body }, transaction)
     return created

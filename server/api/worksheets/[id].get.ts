@@ -3,5 +3,5 @@ import { idParamsSchema } from '../../../shared/schemas/auth'
 export default defineEventHandler(async (event) => {
   await requireRole(event)
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  return toWorksheetDto(await findWorksheet(id))
+  return worksheetAnswer(event, id)
 })

@@ -12,8 +12,7 @@ export default defineEventHandler(async (event) => {
   if (user.id === admin.id && (body.disabled === true || (body.roles && !body.roles.includes('admin')))) {
     throw createError({ status: 422, message: 'You cannot disable yourself or remove your own admin role; ask another administrator.' })
   }
-  const sequelize = await useDB()
-  await sequelize.transaction(async (transaction) => {
+  await writeTransaction(async (transaction) => {
     await user.update(body, { transaction })
     await appendAudit({ actorId: admin.id, entity: 'user', entityId: String(user.id), action: 'updated', detail: { changes: body } }, transaction)
   })

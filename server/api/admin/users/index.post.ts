@@ -9,8 +9,7 @@ export default defineEventHandler(async (event) => {
   if (await User.findOne({ where: { email: body.email } })) {
     throw createError({ status: 409, message: `A user with the e-mail ${body.email} already exists.`, data: { issues: [{ path: ['email'], field: 'email', message: 'Already in use.' }] } })
   }
-  const sequelize = await useDB()
-  const user = await sequelize.transaction(async (transaction) => {
+  const user = await writeTransaction(async (transaction) => {
     const created = await User.create({
       email: body.email, name: body.name, roles: body.roles, authorisationNumber: body.authorisationNumber ?? null,
       passwordHash: await hashPassword(body.password), preferences: DEFAULT_PREFERENCES,

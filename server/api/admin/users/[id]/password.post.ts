@@ -9,8 +9,7 @@ export default defineEventHandler(async (event) => {
   const { password } = await readValidatedBody(event, validateWith(passwordResetSchema))
   const user = await User.findByPk(id)
   if (!user) throw createError({ status: 404, message: 'User not found.' })
-  const sequelize = await useDB()
-  await sequelize.transaction(async (transaction) => {
+  await writeTransaction(async (transaction) => {
     await user.update({ passwordHash: await hashPassword(password) }, { transaction })
     await appendAudit({ actorId: admin.id, entity: 'user', entityId: String(user.id), action: 'password-reset', detail: {} }, transaction)
   })

@@ -1,0 +1,102 @@
+import { createHash } from 'node:crypto'
+import { Op, type Model, type ModelStatic, type Transaction } from 'sequelize'
+import {
+  Accumulator, AccumulatorInstallation, Aircraft, Attachment, CycleCheck, Signature, Specification, SpecificationTablePoint, Tool, User, Worksheet,
+} from '../models'
+
+/**
+ * The records whose content the audit trail vouches for. Each audit entry about one of them
+ * carries the SHA-256 of the record's canonical content as it stood after the change, and
+ * verification recomputes it from the current rows: an edit made to the database file behind
+ * the application's back no longer matches. Fields that change without meaning (updatedAt,
+ * a user's display preferences and session version) are left out.
+ */
+interface Child { model: ModelStatic<Model>, foreignKey: string, name: string, exclude?: string[] }
+interface RecordKind { model: ModelStatic<Model>, exclude: string[], children: Child[] }
+
+export const RECORD_KINDS = {
+  'worksheet': {
+    model: Worksheet as ModelStatic<Model>,
+    exclude: ['updatedAt'],
+    children: [
+      { model: Signature as ModelStatic<Model>, foreignKey: 'worksheetId', name: 'signatures' },
+      { model: Attachment as ModelStatic<Model>, foreignKey: 'worksheetId', name: 'attachments' },
+    ],
+  },
+  'specification': {
+    model: Specification as ModelStatic<Model>,
+    exclude: ['updatedAt'],
+    children: [{ model: SpecificationTablePoint as ModelStatic<Model>, foreignKey: 'specificationId', name: 'tablePoints' }],
+  },
+  'tool': { model: Tool as ModelStatic<Model>, exclude: ['updatedAt'], children: [] },
+  'user': { model: User as ModelStatic<Model>, exclude: ['updatedAt', 'preferences', 'sessionVersion'], children: [] },
+  'aircraft': { model: Aircraft as ModelStatic<Model>, exclude: ['updatedAt'], children: [] },
+  'accumulator': {
+    model: Accumulator as ModelStatic<Model>,
+    exclude: ['updatedAt'],
+    children: [{ model: AccumulatorInstallation as ModelStatic<Model>, foreignKey: 'accumulatorId', name: 'installations' }],
+  },
+  'cycle-check': { model: CycleCheck as ModelStatic<Model>, exclude: [], children: [] },
+} satisfies Record<string, RecordKind>
+
+export type RecordKindName = keyof typeof RECORD_KINDS
+
+export function isRecordKind(entity: string): entity is RecordKindName {
+  return Object.hasOwn(RECORD_KINDS, entity)
+}
+
+/** A value in canonical form: keys sorted, dates as ISO strings, nothing undefined. */
+export function canonical(value: unknown): unknown {
+  // A date the file holds in a form that does not parse is still content (and a sign of tampering).
+  if (value instanceof Date) return Number.isNaN(value.getTime()) ? 'invalid date' : value.toISOString()
+  if (Array.isArray(value)) return value.map(canonical)
+  if (value && typeof value === 'object') {
+    return Object.fromEntries(Object.keys(value).sort()
+      .filter(key => (value as Record<string, unknown>)[key] !== undefined)
+      .map(key => [key, canonical((value as Record<string, unknown>)[key])]))
+  }
+  return value
+}
+
+export function sha256(text: string): string {
+  return createHash('sha256').update(text).digest('hex')
+}
+
+function plain(row: Model, exclude: string[] = []): Record<string, unknown> {
+  return Object.fromEntries(Object.entries(row.get({ plain: true }) as Record<string, unknown>).filter(([key]) => !exclude.includes(key)))
+}
+
+// Map.groupBy arrives with Node 21.
+function groupBy<T, K>(items: T[], key: (item: T) => K): Map<K, T[]> {
+  const groups = new Map<K, T[]>()
+  for (const item of items) {
+    const group = groups.get(key(item))
+    if (group) group.push(item)
+    else groups.set(key(item), [item])
+  }
+  return groups
+}
+
+/** The canonical content hashes of some records of one kind, read in the given transaction. */
+export async function recordHashes(kind: RecordKindName, ids: number[], transaction?: Transaction): Promise<Map<number, string>> {
+  const definition: RecordKind = RECORD_KINDS[kind]
+  if (ids.length === 0) return new Map()
+  const rows = await definition.model.findAll({ where: { id: { [Op.in]: ids } }, order: [['id', 'ASC']], transaction })
+  const children = await Promise.all(definition.children.map(child =>
+    child.model.findAll({ where: { [child.foreignKey]: { [Op.in]: ids } }, order: [['id', 'ASC']], transaction })))
+  const childrenOf = definition.children.map((child, index) => groupBy(children[index]!, row => row.get(child.foreignKey) as number))
+  const hashes = new Map<number, string>()
+  for (const row of rows) {
+    const id = row.get('id') as number
+    const snapshot: Record<string, unknown> = plain(row, definition.exclude)
+    definition.children.forEach((child, index) => {
+      snapshot[child.name] = (childrenOf[index]!.get(id) ?? []).map(candidate => plain(candidate, child.exclude))
+    })
+    hashes.set(id, sha256(JSON.stringify(canonical(snapshot))))
+  }
+  return hashes
+}
+
+export async function recordHash(kind: RecordKindName, id: number, transaction?: Transaction): Promise<string | null> {
+  return (await recordHashes(kind, [id], transaction)).get(id) ?? null
+}
