@@ -1,6 +1,10 @@
+import { fileURLToPath } from 'node:url'
+
+const packageFolder = (path: string) => fileURLToPath(new URL(`./node_modules/${path}`, import.meta.url))
+
 // https://nuxt.com/docs/api/configuration/nuxt-config
 export default defineNuxtConfig({
-  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@nuxt/eslint'],
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', 'nuxt-security', '@nuxt/eslint'],
   devtools: { enabled: false },
   app: {
     head: {
@@ -42,12 +46,62 @@ export default defineNuxtConfig({
     loginWindowMinutes: 15,
     /** Behind a reverse proxy: take the client address from X-Forwarded-For. */
     trustProxy: false,
+    public: {
+      /** The station's time zone (IANA name): dates on screen and "today" are the station's. */
+      stationTimeZone: 'UTC',
+      /** How dates and numbers are written on screen. */
+      locale: 'en-GB',
+    },
   },
   // The repo root is the source root (no app/ folder); see DEVELOPERS.md.
   srcDir: '.',
   compatibilityDate: '2025-07-15',
+  nitro: {
+    // The fonts PDFs are drawn in, bundled with the server (see server/utils/pdf-writer.ts).
+    serverAssets: [
+      { baseName: 'pdf-fonts', dir: packageFolder('@fontsource/source-sans-3/files'), pattern: 'source-sans-3-*-{400,700}-normal.woff' },
+      { baseName: 'pdf-fonts-fallback', dir: packageFolder('dejavu-fonts-ttf/ttf'), pattern: 'DejaVuSans{,-Bold}.ttf' },
+    ],
+  },
   typescript: { strict: true },
   telemetry: false,
   eslint: { config: { stylistic: true } },
+  // Headers on every answer: pages, API answers and errors alike. Scripts run only with the
+  // per-request nonce (no inline script without it); nothing may frame the app. HSTS is sent by
+  // server/middleware/2.hsts.ts, only over TLS. Size limits and sign-in throttling are our own.
+  security: {
+    nonce: true,
+    headers: {
+      contentSecurityPolicy: {
+        'default-src': ['\'self\''],
+        'base-uri': ['\'none\''],
+        'connect-src': ['\'self\''],
+        'font-src': ['\'self\''],
+        'form-action': ['\'self\''],
+        'frame-ancestors': ['\'none\''],
+        'img-src': ['\'self\'', 'data:', 'blob:'],
+        'manifest-src': ['\'self\''],
+        'object-src': ['\'none\''],
+        'script-src': ['\'self\'', '\'strict-dynamic\'', '\'nonce-{{nonce}}\''],
+        'script-src-attr': ['\'none\''],
+        // Vue's style bindings and the charts set inline styles.
+        'style-src': ['\'self\'', '\'unsafe-inline\''],
+        'worker-src': ['\'self\''],
+        'upgrade-insecure-requests': false,
+      },
+      xFrameOptions: 'DENY',
+      referrerPolicy: 'same-origin',
+      strictTransportSecurity: false,
+      // The camera is for scanning unit labels; nothing else is asked for.
+      permissionsPolicy: { 'camera': ['self'], 'display-capture': [], 'geolocation': [], 'microphone': [] },
+    },
+    hidePoweredBy: true,
+    removeLoggers: false,
+    rateLimiter: false,
+    requestSizeLimiter: false,
+    xssValidator: false,
+    corsHandler: false,
+    allowedMethodsRestricter: false,
+  },
   tailwindcss: { cssPath: '~/assets/css/main.css' },
 })

@@ -3,12 +3,14 @@ import { SequelizeStorage, Umzug } from 'umzug'
 import * as initial from '../migrations/0001-initial'
 import * as trends from '../migrations/0002-trends'
 import * as recordIntegrity from '../migrations/0003-record-integrity'
+import * as sessions from '../migrations/0004-sessions'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
   { name: '0001-initial', ...initial },
   { name: '0002-trends', ...trends },
   { name: '0003-record-integrity', ...recordIntegrity },
+  { name: '0004-sessions', ...sessions },
 ]
 
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */

@@ -15,18 +15,19 @@ import { SpecificationTablePoint } from './specification-table-point'
 import { Tool } from './tool'
 import { TrendAlert } from './trend-alert'
 import { User } from './user'
+import { UserSession } from './user-session'
 import { Worksheet } from './worksheet'
 
 export {
   Accumulator, AccumulatorInstallation, Aircraft, Attachment, AuditEvent, AuditHead, CycleCheck, LoginAttempt, Notification, Signature,
-  SizingStudy, Specification, SpecificationTablePoint, Tool, TrendAlert, User, Worksheet,
+  SizingStudy, Specification, SpecificationTablePoint, Tool, TrendAlert, User, UserSession, Worksheet,
 }
 
 /** Registers every model and association on a connection. */
 export function initModels(sequelize: Sequelize): void {
   for (const model of [
     User, LoginAttempt, Aircraft, Specification, SpecificationTablePoint, Accumulator, AccumulatorInstallation, Tool,
-    Worksheet, Signature, Attachment, AuditEvent, AuditHead, SizingStudy, Notification, CycleCheck, TrendAlert,
+    Worksheet, Signature, Attachment, AuditEvent, AuditHead, SizingStudy, Notification, CycleCheck, TrendAlert, UserSession,
   ]) model.initModel(sequelize)
 
   Specification.hasMany(SpecificationTablePoint, { as: 'tablePoints', foreignKey: 'specificationId' })
@@ -46,4 +47,5 @@ export function initModels(sequelize: Sequelize): void {
   SizingStudy.belongsTo(Specification, { as: 'specification', foreignKey: 'specificationId' })
   CycleCheck.belongsTo(Aircraft, { as: 'aircraft', foreignKey: 'aircraftId' })
   CycleCheck.belongsTo(Accumulator, { as: 'accumulator', foreignKey: 'accumulatorId' })
+  UserSession.belongsTo(User, { as: 'user', foreignKey: 'userId' })
 }

@@ -10,6 +10,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare authorisationNumber: string | null
   declare disabled: CreationOptional<boolean>
   declare preferences: UserPreferences
+  /** Bumped to end every session of this user at once (password, roles, disabling, sign out everywhere). */
+  declare sessionVersion: CreationOptional<number>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 
@@ -23,6 +25,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
       authorisationNumber: { type: DataTypes.STRING(40), allowNull: true },
       disabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       preferences: { type: DataTypes.JSON, allowNull: false },
+      sessionVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
     }, { sequelize, tableName: 'users', underscored: true })

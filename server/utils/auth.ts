@@ -1,21 +1,32 @@
 import type { H3Event } from 'h3'
 import type { Role } from '../../shared/types/user'
-import { User } from '../models'
+import type { User } from '../models'
+import { liveSession, SessionEnded } from '../services/sessions'
+
+function unauthorised(message: string) {
+  return createError({ status: 401, statusMessage: 'Unauthorized', message })
+}
 
 /**
- * The one gate every route passes first: 401 without a session (or for a user since
- * disabled), 403 when the user holds none of `roles` (no roles: any signed-in user).
- * Roles are read from the database, so a change by an admin takes effect at once.
+ * The one gate every route passes first: 401 without a live session (none, signed out, ended
+ * by a password or role change, or a user since disabled), 403 when the user holds none of
+ * `roles` (no roles: any signed-in user). The session row and the roles are read from the
+ * database, so a change by an admin takes effect at once. A request without a session cookie
+ * is refused without one being made.
  */
 export async function requireRole(event: H3Event, ...roles: Role[]): Promise<User> {
-  const session = await getUserSession(event)
-  if (!session.user) throw createError({ status: 401, statusMessage: 'Unauthorized', message: 'Please sign in first.' })
-  await useDB()
-  const user = await User.findByPk(session.user.id)
-  if (!user || user.disabled) {
-    await clearUserSession(event)
-    throw createError({ status: 401, statusMessage: 'Unauthorized', message: 'Your account is no longer active. Please sign in again or ask an administrator.' })
+  let live
+  try {
+    live = await liveSession(event)
   }
+  catch (error) {
+    if (!(error instanceof SessionEnded)) throw error
+    await clearUserSession(event)
+    throw unauthorised(error.message)
+  }
+  if (!live) throw unauthorised('Please sign in first.')
+  event.context.sessionId = live.session.id
+  const { user } = live
   if (roles.length > 0 && !user.roles.some(role => roles.includes(role))) {
     throw createError({ status: 403, statusMessage: 'Forbidden', message: `This needs the ${roles.join(' or ')} role.` })
   }

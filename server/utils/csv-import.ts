@@ -42,7 +42,7 @@ export async function importCsv<Row>(
   write: (row: Row, transaction: Transaction, line: number) => Promise<void>,
   check?: (row: Row, line: number) => Promise<RejectedRow[]>,
 ): Promise<ImportReport> {
-  const parsed = Papa.parse<Record<string, string>>((await readCsvText(event)).replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: 'greedy', transformHeader: header => header.trim() })
+  const parsed = Papa.parse<Record<string, string>>((await readCsvText(event)).replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: 'greedy', transformHeader: header => header.trim(), transform: unguardCell })
   if (parsed.data.length > MAX_ROWS) throw createError({ status: 413, statusMessage: 'Payload Too Large', message: `At most ${MAX_ROWS} rows per import.` })
   const rejected: RejectedRow[] = parsed.errors.map(error => ({ line: (error.row ?? 0) + 2, field: '(row)', message: error.message }))
   const rows: { row: Row, line: number }[] = []

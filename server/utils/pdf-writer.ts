@@ -1,70 +1,150 @@
-import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFPage } from 'pdf-lib'
+import fontkit from '@pdf-lib/fontkit'
+import { PDFDocument, rgb, type PDFFont } from 'pdf-lib'
 
-/** The standard PDF fonts encode WinAnsi only: map the few characters outside it. */
-export function printable(text: string): string {
-  return text
-    .replace(/[−–—]/g, '-').replace(/[‘’]/g, '\'').replace(/[“”]/g, '"').replace(/³/g, '3').replace(/ⁿ/g, '^n')
-    .replace(/→/g, '->').replace(/≤/g, '<=').replace(/≥/g, '>=').replace(/[^\n\r\x20-\x7E\xA0-\xFF]/g, '?')
+/**
+ * A4 pages of wrapped text with headings: all Chargewell's PDF reports need. A signed record
+ * must keep every character a person typed, so the text is drawn in fonts shipped with the
+ * app (bundled as server assets, see nuxt.config.ts): Source Sans 3, the app's own face, in its
+ * Latin, Greek, Cyrillic and Vietnamese subsets, then DejaVu Sans for whatever those lack
+ * (symbols, other scripts). Only the glyphs used are embedded. A character no shipped font can
+ * draw is printed as [U+XXXX] and the record says so at its end — never silently dropped.
+ */
+const SOURCE_SANS_SUBSETS = ['latin', 'latin-ext', 'greek', 'greek-ext', 'cyrillic', 'cyrillic-ext', 'vietnamese']
+const FACES = {
+  regular: [...SOURCE_SANS_SUBSETS.map(subset => `pdf-fonts:source-sans-3-${subset}-400-normal.woff`), 'pdf-fonts-fallback:DejaVuSans.ttf'],
+  bold: [...SOURCE_SANS_SUBSETS.map(subset => `pdf-fonts:source-sans-3-${subset}-700-normal.woff`), 'pdf-fonts-fallback:DejaVuSans-Bold.ttf'],
+}
+type Face = keyof typeof FACES
+
+interface FontFile { key: string, bytes: Uint8Array, codePoints: Set<number> }
+let fontFiles: Promise<Record<Face, FontFile[]>> | undefined
+
+/** The shipped font files with the characters each covers, read once per process. */
+function loadFontFiles(): Promise<Record<Face, FontFile[]>> {
+  fontFiles ??= (async () => {
+    const load = async (key: string): Promise<FontFile> => {
+      const [base, name] = key.split(':') as [string, string]
+      const raw = await useStorage(`assets:${base}`).getItemRaw<Uint8Array | Buffer>(name)
+      if (!raw) throw new Error(`The PDF font ${name} is missing from the server build.`)
+      const bytes = new Uint8Array(raw)
+      return { key, bytes, codePoints: new Set(fontkit.create(Buffer.from(bytes)).characterSet) }
+    }
+    return { regular: await Promise.all(FACES.regular.map(load)), bold: await Promise.all(FACES.bold.map(load)) }
+  })().catch((error) => {
+    fontFiles = undefined
+    throw error
+  })
+  return fontFiles
 }
 
-/** A4 pages of wrapped text with headings: all Chargewell's PDF reports need. */
-export class PdfWriter {
-  private page!: PDFPage
-  private y = 0
-  private readonly margin = 50
+interface Block { text: string, face: Face, size: number, gap: number, colour: [number, number, number], spaceBefore: number }
+interface Run { text: string, file: FontFile }
 
-  private constructor(private readonly document: PDFDocument, private readonly regular: PDFFont, private readonly bold: PDFFont) {
-    this.newPage()
-  }
+const INK: [number, number, number] = [0.04, 0.16, 0.19]
+const MARGIN = 50
+const A4: [number, number] = [595.28, 841.89]
+
+export class PdfWriter {
+  private readonly blocks: Block[] = []
+
+  private constructor(private readonly title: string) {}
 
   static async create(title: string): Promise<PdfWriter> {
-    const document = await PDFDocument.create()
-    document.setTitle(title)
-    document.setCreator('Chargewell')
-    return new PdfWriter(document, await document.embedFont(StandardFonts.Helvetica), await document.embedFont(StandardFonts.HelveticaBold))
-  }
-
-  private newPage() {
-    this.page = this.document.addPage([595.28, 841.89])
-    this.y = this.page.getHeight() - this.margin
+    return new PdfWriter(title)
   }
 
   write(text: string, options: { bold?: boolean, size?: number, gap?: number, colour?: [number, number, number] } = {}): void {
-    const font = options.bold ? this.bold : this.regular
-    const size = options.size ?? 10
-    const width = this.page.getWidth() - 2 * this.margin
-    const lines: string[] = []
-    let line = ''
-    for (const word of printable(text).split(' ')) {
-      const candidate = line ? `${line} ${word}` : word
-      if (font.widthOfTextAtSize(candidate, size) > width && line) {
-        lines.push(line)
-        line = `   ${word}`
-      }
-      else line = candidate
-    }
-    lines.push(line)
-    for (const text of lines) {
-      if (this.y < this.margin + size) this.newPage()
-      this.page.drawText(text, { x: this.margin, y: this.y, size, font, color: rgb(...(options.colour ?? [0.04, 0.16, 0.19])) })
-      this.y -= size * 1.35
-    }
-    this.y -= options.gap ?? 0
+    this.blocks.push({ text, face: options.bold ? 'bold' : 'regular', size: options.size ?? 10, gap: options.gap ?? 0, colour: options.colour ?? INK, spaceBefore: 0 })
   }
 
   heading(text: string): void {
-    this.y -= 6
-    this.write(text, { bold: true, size: 12, gap: 2 })
+    this.blocks.push({ text, face: 'bold', size: 12, gap: 2, colour: INK, spaceBefore: 6 })
   }
 
-  save(): Promise<Uint8Array> {
-    return this.document.save()
+  async save(): Promise<Uint8Array> {
+    const files = await loadFontFiles()
+    const document = await PDFDocument.create()
+    document.registerFontkit(fontkit)
+    document.setTitle(this.title)
+    document.setCreator('Chargewell')
+    const embedded = new Map<string, PDFFont>()
+    const fontFor = async (file: FontFile) => {
+      let font = embedded.get(file.key)
+      if (!font) {
+        font = await document.embedFont(file.bytes, { subset: true })
+        embedded.set(file.key, font)
+      }
+      return font
+    }
+    const undrawable = new Set<number>()
+    // Each character goes to the first shipped font that has it; runs of the same font are drawn together.
+    const runsOf = (text: string, face: Face): Run[] => {
+      const runs: Run[] = []
+      for (const character of text) {
+        const codePoint = character.codePointAt(0)!
+        let file = files[face].find(candidate => candidate.codePoints.has(codePoint))
+        let piece = character
+        if (!file) {
+          undrawable.add(codePoint)
+          piece = `[U+${codePoint.toString(16).toUpperCase().padStart(4, '0')}]`
+          file = files[face][0]!
+        }
+        const last = runs.at(-1)
+        if (last && last.file === file) last.text += piece
+        else runs.push({ text: piece, file })
+      }
+      return runs
+    }
+    const widthOf = async (runs: Run[], size: number) => {
+      let width = 0
+      for (const run of runs) width += (await fontFor(run.file)).widthOfTextAtSize(run.text, size)
+      return width
+    }
+
+    let page = document.addPage(A4)
+    let y = A4[1] - MARGIN
+    const width = A4[0] - 2 * MARGIN
+    const draw = async (block: Block) => {
+      y -= block.spaceBefore
+      for (const paragraph of block.text.split(/\r?\n/)) {
+        const lines: string[] = []
+        let line = ''
+        for (const word of paragraph.split(' ')) {
+          const candidate = line ? `${line} ${word}` : word
+          if (line && await widthOf(runsOf(candidate, block.face), block.size) > width) {
+            lines.push(line)
+            line = `   ${word}`
+          }
+          else line = candidate
+        }
+        lines.push(line)
+        for (const text of lines) {
+          if (y < MARGIN + block.size) {
+            page = document.addPage(A4)
+            y = A4[1] - MARGIN
+          }
+          let x = MARGIN
+          for (const run of runsOf(text, block.face)) {
+            const font = await fontFor(run.file)
+            page.drawText(run.text, { x, y, size: block.size, font, color: rgb(...block.colour) })
+            x += font.widthOfTextAtSize(run.text, block.size)
+          }
+          y -= block.size * 1.35
+        }
+      }
+      y -= block.gap
+    }
+    for (const block of this.blocks) await draw(block)
+    if (undrawable.size > 0) {
+      await draw({ text: 'Some characters in this record could not be drawn with the fonts Chargewell ships; each is shown as [U+code], its Unicode number, so nothing was dropped.', face: 'bold', size: 10, gap: 0, colour: [0.55, 0.1, 0.07], spaceBefore: 10 })
+    }
+    return document.save()
   }
 }
 
 export const CAUTIONS = [
   'High-pressure nitrogen can kill.',
-  'Use only dry, oil-free nitrogen - never oxygen or shop air.',
+  'Use only dry, oil-free nitrogen — never oxygen or shop air.',
   'Depressurise the hydraulic system first.',
   'Charge through a regulator, slowly. Wear eye protection. Stay clear of the valve line.',
   'Every figure is an aid: the approved maintenance data, the operator\'s procedures and local regulations govern.',

@@ -35,7 +35,22 @@ export const userUpdateSchema = z.object({
 }).refine(body => Object.keys(body).length > 0, 'Nothing to change.')
 export type UserUpdateBody = z.infer<typeof userUpdateSchema>
 
-export const passwordResetSchema = z.object({ password: passwordSchema })
+export const passwordResetSchema = z.object({ password: passwordSchema }).strict()
+
+/** A user changing their own password: the current one proves it is them. */
+export const passwordChangeSchema = z.object({
+  currentPassword: z.string({ required_error: 'Enter your current password.' }).min(1, 'Enter your current password.'),
+  newPassword: passwordSchema,
+}).strict().refine(body => body.newPassword !== body.currentPassword, { message: 'Choose a password different from the current one.', path: ['newPassword'] })
+export type PasswordChangeBody = z.infer<typeof passwordChangeSchema>
+
+/** The change-password form: the payload and the new password typed twice. */
+export const passwordChangeFormSchema = z.object({
+  currentPassword: z.string({ required_error: 'Enter your current password.' }).min(1, 'Enter your current password.'),
+  newPassword: passwordSchema,
+  repeatPassword: z.string({ required_error: 'Type the new password again.' }),
+}).refine(body => body.newPassword === body.repeatPassword, { message: 'The two new passwords differ.', path: ['repeatPassword'] })
+  .refine(body => body.newPassword !== body.currentPassword, { message: 'Choose a password different from the current one.', path: ['newPassword'] })
 
 export const preferencesSchema = z.object({
   pressureUnit: pressureUnitSchema,

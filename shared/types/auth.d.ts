@@ -7,6 +7,11 @@ declare module '#auth-utils' {
     email: string
     roles: Role[]
   }
+  interface UserSession {
+    /** Names the server-side session row (user_sessions.token); see server/services/sessions.ts. */
+    token?: string
+    loggedInAt?: string
+  }
 }
 
 export {}

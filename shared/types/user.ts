@@ -36,3 +36,14 @@ export interface PublicUser {
   disabled: boolean
   preferences: UserPreferences
 }
+
+/** One device the user is signed in on (`GET /api/me/sessions`). */
+export interface SessionDto {
+  id: number
+  /** The session making this request. */
+  current: boolean
+  userAgent: string | null
+  address: string | null
+  signedInAt: string
+  lastSeenAt: string
+}

@@ -83,7 +83,7 @@ describe('sizing studies', () => {
     const created = await api('/api/studies', { cookie: engineer, body: brake })
     const csv = await fetch(`${baseURL()}/api/studies/${created.body.id}/csv`, { headers: { cookie: technician } })
     const lines = (await csv.text()).trim().split(/\r?\n/)
-    expect(lines[0]).toMatch(/^Condition,Temperature,Pre-charge at temperature/)
+    expect(lines[0]).toMatch(/^Condition,Temperature,Temperature unit,Pre-charge at temperature,Pressure unit/)
     expect(lines).toHaveLength(4)
     const pdf = await fetch(`${baseURL()}/api/studies/${created.body.id}/pdf`, { headers: { cookie: technician } })
     const file = join(mkdtempSync(join(tmpdir(), 'chargewell-study-')), 'study.pdf')

@@ -55,8 +55,54 @@ describe('sign-in and navigation per role', () => {
 
     const page = await signedInPage(browser, 'technician@chargewell.test')
     await page.goto('/admin')
-    await expect.poll(() => page.locator('body').innerText()).toMatch(/needs the admin role|403/)
+    const error = page.getByTestId('error-page')
+    await expect.poll(() => error.innerText()).toMatch(/Error 403[\s\S]*Not open to your role[\s\S]*needs the admin role/)
+    // The app's own frame and a way back.
+    expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(true)
+    await error.getByRole('button', { name: 'Home' }).click()
+    await page.waitForURL(url => url.pathname === '/')
+    await page.goto('/no/such/page')
+    await expect.poll(() => page.getByTestId('error-page').innerText()).toMatch(/Error 404[\s\S]*Nothing here/)
     await page.context().close()
+  })
+
+  it.each(accounts)('every page %s can see runs under the content security policy without a violation', async (email, roles) => {
+    const page = await signedInPage(browser, email)
+    const violations: string[] = []
+    page.on('console', message => /Content Security Policy|Refused to (execute|load|apply)/i.test(message.text()) && violations.push(`${page.url()}: ${message.text()}`))
+    await page.exposeFunction('reportViolation', (text: string) => violations.push(text))
+    await page.addInitScript(() => document.addEventListener('securitypolicyviolation', event => (window as unknown as { reportViolation: (text: string) => void }).reportViolation(`${event.violatedDirective} ${event.blockedURI}`)))
+    for (const item of navigationFor(roles)) {
+      await page.goto(item.to)
+      await page.getByRole('heading', { level: 1 }).first().waitFor()
+      await page.waitForLoadState('networkidle')
+    }
+    expect(violations).toEqual([])
+    // The watch itself works: an inline handler, which the policy forbids, is reported.
+    await page.evaluate(() => {
+      const probe = document.createElement('button')
+      probe.setAttribute('onclick', 'document.title = "ran"')
+      document.body.append(probe)
+      probe.click()
+    })
+    await expect.poll(() => violations.length).toBeGreaterThan(0)
+    expect(await page.title()).not.toBe('ran')
+    await page.context().close()
+  })
+
+  it('an account page lists the devices; signing out everywhere else ends the other device\'s session', async () => {
+    const tablet = await signedInPage(browser, 'inspector@chargewell.test')
+    const phone = await signedInPage(browser, 'inspector@chargewell.test')
+    await tablet.getByTestId('user-menu').first().click()
+    await tablet.getByTestId('account-link').first().click()
+    await tablet.waitForURL(url => url.pathname === '/account')
+    await expect.poll(() => tablet.getByTestId('session-count').innerText()).toMatch(/Signed in on [2-9] devices/)
+    await tablet.getByTestId('end-other-sessions').click()
+    await expect.poll(() => tablet.getByTestId('session-count').innerText()).toBe('Signed in on 1 device.')
+    await phone.goto('/countersign')
+    await phone.waitForURL(url => url.pathname === '/login')
+    await tablet.context().close()
+    await phone.context().close()
   })
 
   it('keeps unit preferences from the user menu on the server', async () => {

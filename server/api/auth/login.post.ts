@@ -1,5 +1,6 @@
 import { loginSchema } from '../../../shared/schemas/auth'
 import { User } from '../../models'
+import { beginSession } from '../../services/sessions'
 
 const WRONG_CREDENTIALS = 'That e-mail address and password do not match an active account.'
 
@@ -16,6 +17,6 @@ export default defineEventHandler(async (event) => {
   if (!user || !passwordMatches) throw createError({ status: 401, statusMessage: 'Unauthorized', message: WRONG_CREDENTIALS })
   if (user.disabled) throw createError({ status: 401, statusMessage: 'Unauthorized', message: 'This account is disabled. Ask an administrator to enable it.' })
   await attemptSucceeded(ticket)
-  await setUserSession(event, { user: sessionUser(user), loggedInAt: new Date().toISOString() })
+  await beginSession(event, user)
   return user.toPublic()
 })

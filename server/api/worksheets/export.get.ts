@@ -1,7 +1,11 @@
-import Papa from 'papaparse'
 import { worksheetListQuerySchema } from '../../../shared/schemas/worksheet'
 import { WORKSHEET_STATE_LABELS } from '../../../shared/types/worksheet'
 import { Accumulator, Aircraft, User, Worksheet } from '../../models'
+
+const WORKSHEET_EXPORT_COLUMNS = [
+  'Worksheet', 'State', 'Work order', 'Registration', 'Fleet number', 'Position', 'Part number', 'Serial number', 'Performer',
+  'As-found verdict', 'As-left verdict', 'Corrects worksheet', 'Performed at', 'Released at',
+]
 
 /** The worksheets table, with the same filters, as CSV (up to 10 000 rows). */
 export default defineEventHandler(async (event) => {
@@ -17,7 +21,7 @@ export default defineEventHandler(async (event) => {
     order: [[query.sort, query.direction.toUpperCase()], ['id', query.direction.toUpperCase()]],
     limit: 10_000,
   })
-  const csv = Papa.unparse(rows.map(worksheetListItem).map(item => ({
+  return sendCsv(event, 'worksheets', rows.map(worksheetListItem).map(item => ({
     'Worksheet': item.id,
     'State': WORKSHEET_STATE_LABELS[item.state],
     'Work order': item.workOrder,
@@ -32,8 +36,5 @@ export default defineEventHandler(async (event) => {
     'Corrects worksheet': item.correctsId ?? '',
     'Performed at': item.performedAt ?? '',
     'Released at': item.releasedAt ?? '',
-  })))
-  setResponseHeader(event, 'content-type', 'text/csv; charset=utf-8')
-  setResponseHeader(event, 'content-disposition', `attachment; filename="chargewell-worksheets-${new Date().toISOString().slice(0, 10)}.csv"`)
-  return csv
+  })), WORKSHEET_EXPORT_COLUMNS)
 })
