@@ -4,12 +4,37 @@ import { Sequelize } from 'sequelize'
 // Imported statically and handed to Sequelize: its own dynamic require is not followed by
 // the server bundler, and the built server would then fail when run from a copy elsewhere.
 import sqlite3 from 'sqlite3'
+import pg from 'pg'
 import { initModels } from '../models'
 
 export const DEFAULT_DB_PATH = 'data/chargewell.sqlite'
 
-/** Opens the database at a path (creating its folder), in WAL mode with a busy timeout. */
-export async function openDatabase(path: string): Promise<Sequelize> {
+/** Where the database is: NUXT_DATABASE_URL (postgres://…) when set, else the SQLite file NUXT_DB_PATH. */
+export function databaseLocation(settings: { databaseUrl?: string | null, dbPath?: string | null }): string {
+  return settings.databaseUrl || settings.dbPath || DEFAULT_DB_PATH
+}
+
+export function isPostgresUrl(location: string): boolean {
+  return /^postgres(ql)?:\/\//.test(location)
+}
+
+/**
+ * Opens the database: PostgreSQL for a postgres:// URL (several servers can share it), else
+ * the SQLite file at that path (creating its folder), in WAL mode with a busy timeout.
+ */
+export async function openDatabase(location: string): Promise<Sequelize> {
+  if (isPostgresUrl(location)) {
+    const sequelize = new Sequelize(location, {
+      dialect: 'postgres',
+      dialectModule: pg,
+      logging: false,
+      pool: { max: Number(process.env.NUXT_DATABASE_POOL ?? 10), min: 0, idle: 10_000 },
+    })
+    await sequelize.authenticate()
+    initModels(sequelize)
+    return sequelize
+  }
+  const path = location
   if (path !== ':memory:') mkdirSync(dirname(path), { recursive: true })
   const sequelize = new Sequelize({
     dialect: 'sqlite',

@@ -4,6 +4,7 @@ import * as initial from '../migrations/0001-initial'
 import * as trends from '../migrations/0002-trends'
 import * as recordIntegrity from '../migrations/0003-record-integrity'
 import * as sessions from '../migrations/0004-sessions'
+import * as scale from '../migrations/0005-scale'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -11,6 +12,7 @@ const MIGRATIONS = [
   { name: '0002-trends', ...trends },
   { name: '0003-record-integrity', ...recordIntegrity },
   { name: '0004-sessions', ...sessions },
+  { name: '0005-scale', ...scale },
 ]
 
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */

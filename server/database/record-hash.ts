@@ -17,7 +17,8 @@ interface RecordKind { model: ModelStatic<Model>, exclude: string[], children: C
 export const RECORD_KINDS = {
   'worksheet': {
     model: Worksheet as ModelStatic<Model>,
-    exclude: ['updatedAt'],
+    // The list's columns are derived from content and results, which are hashed.
+    exclude: ['updatedAt', 'registration', 'fleetNumber', 'position', 'partNumber', 'serialNumber', 'asFoundVerdict', 'asLeftVerdict'],
     children: [
       { model: Signature as ModelStatic<Model>, foreignKey: 'worksheetId', name: 'signatures' },
       { model: Attachment as ModelStatic<Model>, foreignKey: 'worksheetId', name: 'attachments' },

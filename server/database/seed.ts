@@ -19,9 +19,10 @@ import { assessWorksheetReading } from '../../shared/utils/worksheet-results'
 import { gaugeAccuracy } from '../../shared/utils/tool-accuracy'
 import { cycleCheckLeakRate } from '../../shared/utils/cycle-check'
 import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT, type ToolSnapshot, type WorksheetContent, type WorksheetResults } from '../../shared/types/worksheet'
-import { DEFAULT_DB_PATH, openDatabase } from './connection'
+import { databaseLocation, openDatabase } from './connection'
 import { migrate } from './migrate'
 import { appendAudit, auditSecretFrom, baselineRecords, configureAuditSecret } from './audit-chain'
+import { rebuildTrends } from './trend-store'
 import { createWriteQueue } from './write-queue'
 import {
   Accumulator, AccumulatorInstallation, Aircraft, CycleCheck, Signature, Specification, SpecificationTablePoint, Tool, User, Worksheet,
@@ -400,6 +401,7 @@ export async function seed(path: string): Promise<{ applied: string[], users: nu
     const applied = await migrate(sequelize)
     const users = await seedUsers()
     await seedScenario(sequelize, users)
+    await rebuildTrends(createWriteQueue(sequelize))
     return { applied, users: await User.count(), aircraft: await Aircraft.count(), worksheets: await Worksheet.count() }
   }
   finally {
@@ -409,9 +411,10 @@ export async function seed(path: string): Promise<{ applied: string[], users: nu
 
 const isMain = process.argv[1] && import.meta.url === new URL(`file://${process.argv[1]}`).href
 if (isMain) {
-  const path = process.env.NUXT_DB_PATH || DEFAULT_DB_PATH
+  const env = serverEnvironment()
+  const path = databaseLocation({ databaseUrl: env.NUXT_DATABASE_URL, dbPath: env.NUXT_DB_PATH })
   seed(path).then((summary) => {
-    console.log(`Seeded ${path}: migrations applied ${summary.applied.length ? summary.applied.join(', ') : 'none'}; ${summary.users} users, ${summary.aircraft} aircraft, ${summary.worksheets} worksheets.`)
+    console.log(`Seeded ${path.replace(/\/\/[^@/]*@/, '//…@')}: migrations applied ${summary.applied.length ? summary.applied.join(', ') : 'none'}; ${summary.users} users, ${summary.aircraft} aircraft, ${summary.worksheets} worksheets.`)
   }).catch((error) => {
     console.error(error)
     process.exit(1)

@@ -8,26 +8,28 @@ import { AuditHead } from './audit-head'
 import { CycleCheck } from './cycle-check'
 import { LoginAttempt } from './login-attempt'
 import { Notification } from './notification'
+import { PrechargeReading } from './precharge-reading'
 import { Signature } from './signature'
 import { SizingStudy } from './sizing-study'
 import { Specification } from './specification'
 import { SpecificationTablePoint } from './specification-table-point'
 import { Tool } from './tool'
 import { TrendAlert } from './trend-alert'
+import { UnitTrend } from './unit-trend'
 import { User } from './user'
 import { UserSession } from './user-session'
-import { Worksheet } from './worksheet'
+import { listColumns, Worksheet } from './worksheet'
 
 export {
-  Accumulator, AccumulatorInstallation, Aircraft, Attachment, AuditEvent, AuditHead, CycleCheck, LoginAttempt, Notification, Signature,
-  SizingStudy, Specification, SpecificationTablePoint, Tool, TrendAlert, User, UserSession, Worksheet,
+  Accumulator, AccumulatorInstallation, Aircraft, Attachment, AuditEvent, AuditHead, CycleCheck, LoginAttempt, Notification, PrechargeReading, Signature,
+  SizingStudy, Specification, SpecificationTablePoint, Tool, TrendAlert, UnitTrend, User, UserSession, Worksheet, listColumns,
 }
 
 /** Registers every model and association on a connection. */
 export function initModels(sequelize: Sequelize): void {
   for (const model of [
     User, LoginAttempt, Aircraft, Specification, SpecificationTablePoint, Accumulator, AccumulatorInstallation, Tool,
-    Worksheet, Signature, Attachment, AuditEvent, AuditHead, SizingStudy, Notification, CycleCheck, TrendAlert, UserSession,
+    Worksheet, Signature, Attachment, AuditEvent, AuditHead, SizingStudy, Notification, CycleCheck, TrendAlert, UserSession, PrechargeReading, UnitTrend,
   ]) model.initModel(sequelize)
 
   Specification.hasMany(SpecificationTablePoint, { as: 'tablePoints', foreignKey: 'specificationId' })
@@ -48,4 +50,7 @@ export function initModels(sequelize: Sequelize): void {
   CycleCheck.belongsTo(Aircraft, { as: 'aircraft', foreignKey: 'aircraftId' })
   CycleCheck.belongsTo(Accumulator, { as: 'accumulator', foreignKey: 'accumulatorId' })
   UserSession.belongsTo(User, { as: 'user', foreignKey: 'userId' })
+  Accumulator.hasOne(UnitTrend, { as: 'trend', foreignKey: 'accumulatorId' })
+  UnitTrend.belongsTo(Accumulator, { as: 'accumulator', foreignKey: 'accumulatorId' })
+  PrechargeReading.belongsTo(Worksheet, { as: 'worksheet', foreignKey: 'worksheetId' })
 }

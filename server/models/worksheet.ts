@@ -5,6 +5,21 @@ import {
 import type { WorksheetReason, WorksheetState } from '../../shared/types/worksheet'
 import type { Signature } from './signature'
 
+/** The list's columns as the content and results give them; set on every write that changes either. */
+export function listColumns(content: Record<string, unknown>, results: Record<string, unknown>) {
+  const frozen = content as { aircraft?: { registration?: string, fleetNumber?: string }, accumulator?: { position?: string, partNumber?: string, serialNumber?: string } }
+  const computed = results as { asFound?: { assessment?: { verdict?: string } }, asLeft?: { assessment?: { verdict?: string } } }
+  return {
+    registration: frozen.aircraft?.registration ?? null,
+    fleetNumber: frozen.aircraft?.fleetNumber ?? null,
+    position: frozen.accumulator?.position ?? null,
+    partNumber: frozen.accumulator?.partNumber ?? null,
+    serialNumber: frozen.accumulator?.serialNumber ?? null,
+    asFoundVerdict: computed.asFound?.assessment?.verdict ?? null,
+    asLeftVerdict: computed.asLeft?.assessment?.verdict ?? null,
+  }
+}
+
 /**
  * A servicing record. `content` holds what the performer entered, step by step; `results`
  * the engine's results, recomputed by the server and frozen at signing with the engine version.
@@ -33,6 +48,15 @@ export class Worksheet extends Model<InferAttributes<Worksheet>, InferCreationAt
   declare version: CreationOptional<number>
   /** Signing round: 1 at the start, one more each time the record is returned to its performer. */
   declare round: CreationOptional<number>
+  // What the worksheet list shows, frozen from content and results (see listColumns): the
+  // list reads these, never the JSON.
+  declare registration: CreationOptional<string | null>
+  declare fleetNumber: CreationOptional<string | null>
+  declare position: CreationOptional<string | null>
+  declare partNumber: CreationOptional<string | null>
+  declare serialNumber: CreationOptional<string | null>
+  declare asFoundVerdict: CreationOptional<string | null>
+  declare asLeftVerdict: CreationOptional<string | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
   declare signatures?: NonAttribute<Signature[]>
@@ -58,10 +82,24 @@ export class Worksheet extends Model<InferAttributes<Worksheet>, InferCreationAt
       performedAt: { type: DataTypes.DATE, allowNull: true },
       submittedAt: { type: DataTypes.DATE, allowNull: true },
       releasedAt: { type: DataTypes.DATE, allowNull: true },
+      registration: { type: DataTypes.STRING(20), allowNull: true },
+      fleetNumber: { type: DataTypes.STRING(20), allowNull: true },
+      position: { type: DataTypes.STRING(80), allowNull: true },
+      partNumber: { type: DataTypes.STRING(60), allowNull: true },
+      serialNumber: { type: DataTypes.STRING(60), allowNull: true },
+      asFoundVerdict: { type: DataTypes.STRING(12), allowNull: true },
+      asLeftVerdict: { type: DataTypes.STRING(12), allowNull: true },
       version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
       round: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
-    }, { sequelize, tableName: 'worksheets', underscored: true })
+    }, {
+      sequelize, tableName: 'worksheets', underscored: true,
+      hooks: {
+        beforeSave: (worksheet) => {
+          if (worksheet.changed('content') || worksheet.changed('results') || worksheet.isNewRecord) Object.assign(worksheet, listColumns(worksheet.content, worksheet.results))
+        },
+      },
+    })
   }
 }

@@ -14,6 +14,38 @@ import type { SessionEndReason } from '../models/user-session'
 const SESSION_COOKIE = 'nuxt-session'
 const TOUCH_EVERY_MS = 60_000
 
+/**
+ * Checked sessions, by the sealed cookie's value, for a few seconds: most requests then need
+ * neither the unsealing nor a database read. Anything that must take effect at once (sign-out,
+ * a version bump, a change to the user) drops the user's entries when its write commits; with
+ * several servers, each drops them when told (see notifySessionChange).
+ */
+const CACHE_MS = 5_000
+const CACHE_LIMIT = 10_000
+const checked = new Map<string, { live: LiveSession, until: number }>()
+
+/** Forgets the checked sessions of one user (or of everyone). */
+export function forgetSessions(userId?: number): void {
+  for (const [key, entry] of checked) if (userId === undefined || entry.live.user.id === userId) checked.delete(key)
+}
+
+let broadcast: ((userId: number) => void) | undefined
+
+/** Lets other server instances know (PostgreSQL NOTIFY); set up by the database plugin. */
+export function onSessionChangeBroadcast(send: (userId: number) => void): void {
+  broadcast = send
+}
+
+/** After the write commits: this server forgets the user's checked sessions, and tells the others. */
+export function sessionsChangedAfterCommit(userId: number, transaction?: Transaction): void {
+  const forget = () => {
+    forgetSessions(userId)
+    broadcast?.(userId)
+  }
+  if (transaction) transaction.afterCommit(forget)
+  else forget()
+}
+
 export class SessionEnded extends Error {}
 
 /** Whether the request carries a session cookie at all (without opening, or minting, one). */
@@ -40,7 +72,19 @@ export interface LiveSession { user: User, session: UserSession }
  * for no cookie or no session in it. A session that has ended throws SessionEnded.
  */
 export async function liveSession(event: H3Event): Promise<LiveSession | null> {
-  if (!hasSessionCookie(event)) return null
+  const sealed = getCookie(event, useRuntimeConfig().session?.name || SESSION_COOKIE)
+  if (!sealed) return null
+  const hit = checked.get(sealed)
+  if (hit && hit.until > Date.now()) return hit.live
+  const live = await checkSession(event)
+  if (live) {
+    if (checked.size >= CACHE_LIMIT) checked.delete(checked.keys().next().value!)
+    checked.set(sealed, { live, until: Date.now() + CACHE_MS })
+  }
+  return live
+}
+
+async function checkSession(event: H3Event): Promise<LiveSession | null> {
   const data = await getUserSession(event)
   if (!data.user) return null
   const token = typeof data.token === 'string' ? data.token : null
@@ -71,7 +115,11 @@ function endedMessage(reason: SessionEndReason | null): string {
 
 /** Ends one session (sign-out, or the user ending one of their devices). */
 export async function endSession(sessionId: number, reason: SessionEndReason, transaction?: Transaction): Promise<void> {
-  const end = (inside: Transaction) => UserSession.update({ endedAt: new Date(), endReason: reason }, { where: { id: sessionId, endedAt: null }, transaction: inside })
+  const end = async (inside: Transaction) => {
+    const session = await UserSession.findByPk(sessionId, { attributes: ['id', 'userId'], transaction: inside })
+    await UserSession.update({ endedAt: new Date(), endReason: reason }, { where: { id: sessionId, endedAt: null }, transaction: inside })
+    if (session) sessionsChangedAfterCommit(session.userId, inside)
+  }
   await (transaction ? end(transaction) : writeTransaction(end))
 }
 
@@ -88,6 +136,7 @@ export async function endAllSessions(user: User, reason: SessionEndReason, trans
     where: { userId: user.id, endedAt: null, ...(keep ? { id: { [Op.ne]: keep.id } } : {}) }, transaction,
   })
   if (keep) await UserSession.update({ sessionVersion: next }, { where: { id: keep.id }, transaction })
+  sessionsChangedAfterCommit(user.id, transaction)
 }
 
 /** A user's sessions still open, newest first (for "signed in on 2 devices"). */

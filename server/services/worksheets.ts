@@ -3,7 +3,8 @@ import type { WorksheetCreateBody, WorksheetStepBody } from '../../shared/schema
 import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT, WORKSHEET_STATE_LABELS, type WorksheetContent, type WorksheetResults, type WorksheetState } from '../../shared/types/worksheet'
 import { canCorrect, canEdit, canInspect, canVoid, EDITABLE_STATES } from '../../shared/utils/worksheet-rules'
 import { appendAudit } from '../database/audit-chain'
-import { Accumulator, Aircraft, Signature, Specification, SpecificationTablePoint, Worksheet, type User } from '../models'
+import { Accumulator, Aircraft, Signature, Specification, SpecificationTablePoint, User as UserModel, Worksheet, listColumns, type User } from '../models'
+import { mailAlerts, trendAfterRelease, trendAfterVoid } from './trends'
 
 /**
  * The worksheet's life: start, steps, sign, countersign, return, void. Every change is one
@@ -31,7 +32,9 @@ function checkVersion(worksheet: Worksheet, expected: number | undefined): void 
  * one of `from`; anything else means another request got there first.
  */
 async function compareAndSet(worksheet: Worksheet, from: readonly WorksheetState[], changes: Partial<Worksheet>, transaction: Transaction): Promise<void> {
-  const [updated] = await Worksheet.update({ ...changes, version: worksheet.version + 1 }, {
+  // A static update runs no model hooks: keep the list's columns in step here.
+  const derived = changes.content || changes.results ? listColumns(changes.content ?? worksheet.content, changes.results ?? worksheet.results) : {}
+  const [updated] = await Worksheet.update({ ...changes, ...derived, version: worksheet.version + 1 }, {
     where: { id: worksheet.id, version: worksheet.version, state: { [Op.in]: [...from] } },
     transaction,
   })
@@ -111,7 +114,15 @@ export async function saveStep(actor: Actor, id: number, step: WorksheetStepBody
 }
 
 /** The performer signs: results recomputed and frozen, state to awaiting countersign. */
-export async function signWorksheet(actor: Actor & { passwordHash: string }, id: number, password: string, expectedVersion?: number): Promise<Worksheet> {
+/** The signer as the database holds them now: a signature never carries a name or authorisation from a cache. */
+async function signer(actor: Actor): Promise<Actor & { passwordHash: string }> {
+  const fresh = await UserModel.findByPk(actor.id)
+  if (!fresh || fresh.disabled) throw createError({ status: 401, statusMessage: 'Unauthorized', message: 'Your account is no longer active; the signature was not made.' })
+  return fresh
+}
+
+export async function signWorksheet(cachedActor: Actor, id: number, password: string, expectedVersion?: number): Promise<Worksheet> {
+  const actor = await signer(cachedActor)
   const seen = await findWorksheet(id)
   enforce(canEdit(actor, seen))
   checkVersion(seen, expectedVersion)
@@ -138,20 +149,24 @@ export async function signWorksheet(actor: Actor & { passwordHash: string }, id:
 }
 
 /** Independent inspection: an inspector who did not do the work countersigns, and the record is released. */
-export async function countersignWorksheet(actor: Actor & { passwordHash: string }, id: number, password: string, expectedVersion?: number): Promise<void> {
+export async function countersignWorksheet(cachedActor: Actor, id: number, password: string, expectedVersion?: number): Promise<void> {
+  const actor = await signer(cachedActor)
   const seen = await findWorksheet(id)
   enforce(canInspect(actor, seen))
   checkVersion(seen, expectedVersion)
   await confirmPassword(actor, password)
   const now = new Date()
-  await writeTransaction(async (transaction) => {
+  const alerts = await writeTransaction(async (transaction) => {
     await compareAndSet(seen, ['awaiting-countersign'], { state: 'released', releasedAt: now }, transaction)
     await signOnce({
       worksheetId: seen.id, userId: actor.id, capacity: 'inspector', name: actor.name, authorisationNumber: actor.authorisationNumber,
       statement: INSPECTOR_STATEMENT, signedAt: now, round: seen.round,
     }, transaction)
     await audit(actor, seen, 'countersigned', { performerId: seen.performerId, round: seen.round }, transaction, now)
+    // The released as-found joins its unit's trend, in the same write.
+    return trendAfterRelease(seen, transaction)
   })
+  await mailAlerts(alerts)
 }
 
 /** Back to the performer with a reason; the next signature opens a new round. */
@@ -168,12 +183,14 @@ export async function returnWorksheet(actor: Actor, id: number, reason: string, 
 
 /** Voided with a reason: the record stays, readable, marked voided. */
 export async function voidWorksheet(actor: Actor, id: number, reason: string, expectedVersion?: number): Promise<void> {
-  await writeTransaction(async (transaction) => {
+  const alerts = await writeTransaction(async (transaction) => {
     const worksheet = await lockedWorksheet(id, transaction)
     enforce(canVoid(actor, worksheet))
     checkVersion(worksheet, expectedVersion)
     const previousState = worksheet.state
     await compareAndSet(worksheet, ['draft', 'awaiting-countersign', 'released', 'returned'], { state: 'voided', voidReason: reason, voidedById: actor.id }, transaction)
     await audit(actor, worksheet, 'voided', { reason, previousState }, transaction)
+    return trendAfterVoid(worksheet, previousState, transaction)
   })
+  await mailAlerts(alerts)
 }

@@ -1,3 +1,4 @@
+import { Readable } from 'node:stream'
 import type { H3Event } from 'h3'
 import Papa from 'papaparse'
 
@@ -29,4 +30,13 @@ function download(event: H3Event, name: string): void {
 export function sendCsv(event: H3Event, name: string, rows: Record<string, unknown>[], columns: string[]): string {
   download(event, name)
   return csvText(columns, rows.map(row => columns.map(column => row[column] ?? '')))
+}
+
+/** A CSV download of any size: the header, then each batch of rows as it comes. */
+export function streamCsv(event: H3Event, name: string, columns: string[], batches: AsyncIterable<unknown[][]>) {
+  download(event, name)
+  return sendStream(event, Readable.from((async function* () {
+    yield csvText(columns, []).replace(/\r\n$/, '')
+    for await (const rows of batches) if (rows.length) yield `\r\n${csvText(columns, rows, { header: false })}`
+  })()))
 }

@@ -1,9 +1,11 @@
-import { Op, UniqueConstraintError, type FindOptions, type Model, type ModelStatic, type WhereOptions } from 'sequelize'
+import { Op, UniqueConstraintError, literal, type FindOptions, type Model, type ModelStatic, type WhereOptions } from 'sequelize'
+import { Worksheet } from '../models'
 
-/** `q` as a case-insensitive "contains" over some columns (LIKE works on SQLite and PostgreSQL alike). */
+/** `q` as a case-insensitive "contains" over some columns, on SQLite and PostgreSQL alike; % and _ are taken as themselves. */
 export function searchWhere(q: string | undefined, fields: string[]): WhereOptions {
   if (!q) return {}
-  return { [Op.or]: fields.map(field => ({ [field]: { [Op.like]: `%${q}%` } })) }
+  const pattern = `%${q.replace(/[\\%_]/g, match => `\\${match}`)}%`
+  return { [Op.or]: fields.map(field => ({ [field]: { [likeOperator()]: literal(`${Worksheet.sequelize!.escape(pattern)} ESCAPE '\\'`) } })) }
 }
 
 /** One page of a register and the total that matches. */

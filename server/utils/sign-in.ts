@@ -37,6 +37,14 @@ export async function admitAttempt(event: H3Event, email: string): Promise<Attem
   const { perAccount, perAddress, windowMs } = limits()
   const address = clientAddress(event)
   return writeTransaction(async (transaction) => {
+    const sequelize = LoginAttempt.sequelize!
+    if (sequelize.getDialect() === 'postgres') {
+      // Several servers: the count-then-record below holds one attempt at a time per account and per address
+      // (SQLite's single writer already does this).
+      for (const key of [`login:${email}`, `login-address:${address}`]) {
+        await sequelize.query('SELECT pg_advisory_xact_lock(hashtext(:key))', { replacements: { key }, transaction })
+      }
+    }
     const now = Date.now()
     const windowStart = new Date(now - windowMs)
     const lastSuccess = await LoginAttempt.max<Date, LoginAttempt>('at', { where: { email, succeeded: true }, transaction })

@@ -1,5 +1,3 @@
-import { mean } from 'mathjs'
-import { linearRegression } from 'simple-statistics'
 import { ambientPressure, describeAmbient } from './atmosphere'
 import { chargeTarget } from './charge-target'
 import { EngineInputError } from './errors'
@@ -141,7 +139,8 @@ export interface PrechargeTrendInput {
   model?: GasModel
 }
 
-export interface PrechargeTrendResult extends Provenance<PrechargeTrendInput> {
+/** The fitted loss trend of a unit, whichever way its readings were carried to the reference. */
+export interface PrechargeFit {
   /** Each reading carried to the reference temperature, in the reference pressure's unit and basis, oldest first. */
   normalised: { takenAt: string, value: number, segment: number }[]
   /** Fitted change, pressure units per day (negative: losing gas); undefined without two readings in one segment. */
@@ -154,73 +153,133 @@ export interface PrechargeTrendResult extends Provenance<PrechargeTrendInput> {
   predictedOutOfLimitsAt?: string
   lowLimit?: number
   highLimit?: number
+  method: string
+  engineVersion: string
+}
+
+export interface PrechargeTrendResult extends PrechargeFit, Provenance<PrechargeTrendInput> {}
+
+/** Readings already carried to the reference temperature (as stored when each worksheet was released). */
+export interface NormalisedReading {
+  takenAt: string
+  /** Pressure at the reference temperature, in the reference pressure's unit and basis. */
+  value: number
+  startsSegment?: boolean
+}
+
+export interface PrechargeFitInput {
+  points: NormalisedReading[]
+  reference: { pressure: Pressure, temperature: Temperature }
+  tolerance?: Tolerance
+  ambient?: Ambient
+  model?: GasModel
 }
 
 const DAY_MS = 86_400_000
+
+function trendMethod(model: GasModel, reference: { temperature: Temperature }): string {
+  return `${describeModel(model)}: readings carried to ${reference.temperature.value} °${reference.temperature.unit} at constant gas mass and volume; one least-squares loss rate across charge segments`
+}
+
+/**
+ * One reading carried to the reference temperature at constant gas mass and volume (Gay-Lussac
+ * for the ideal gas, the nitrogen equation of state for the real one), in the reference
+ * pressure's unit and basis: what the gas would read at the reference temperature.
+ */
+export function normalisePrechargeReading(reading: Pick<PrechargeReading, 'pressure' | 'temperature' | 'ambient'>, reference: { pressure: Pressure, temperature: Temperature }, model: GasModel = 'real', ambient?: Ambient): number {
+  const atmosphere = reading.ambient ?? ambient
+  const carried = chargeTarget({ reference: { pressure: reading.pressure, temperature: reading.temperature }, gasTemperature: reference.temperature, ambient: atmosphere, model }).target
+  return sameUnit(carried, reference.pressure, atmosphere)
+}
 
 /**
  * The pre-charge loss rate from a unit's readings. Each reading is carried to the reference
  * temperature at constant gas mass and volume, so temperature swings are not taken for a
  * leak. A charge or vent changes the gas mass and starts a new segment; one common slope is
- * fitted across segments, each with its own level (least squares on the readings centred
- * within their segment — simple-statistics' linear regression), with standard error
- * s/√Σ(t − t̄ₛ)², s² = Σresidual²/(n − k − 1) for n readings in k segments.
+ * fitted across segments, each with its own level (see `fitPrechargeTrend`).
  */
 export function prechargeTrend(input: PrechargeTrendInput): PrechargeTrendResult {
   const model = input.model ?? 'real'
-  const reference = input.reference
-  let segment = 0
-  const normalised = input.readings
-    .map((reading, index) => {
-      if (Number.isNaN(Date.parse(reading.takenAt))) throw new EngineInputError('A reading has no valid date.', `readings.${index}.takenAt`)
-      return { reading, index }
-    })
-    .sort((a, b) => Date.parse(a.reading.takenAt) - Date.parse(b.reading.takenAt) || a.index - b.index)
-    .map(({ reading }, order) => {
-      if (reading.startsSegment && order > 0) segment++
-      const ambient = reading.ambient ?? input.ambient
-      const carried = chargeTarget({ reference: { pressure: reading.pressure, temperature: reading.temperature }, gasTemperature: reference.temperature, ambient, model }).target
-      return { takenAt: reading.takenAt, value: sameUnit(carried, reference.pressure, ambient), segment }
-    })
+  const points = input.readings.map((reading, index) => {
+    if (Number.isNaN(Date.parse(reading.takenAt))) throw new EngineInputError('A reading has no valid date.', `readings.${index}.takenAt`)
+    return { takenAt: reading.takenAt, value: normalisePrechargeReading(reading, input.reference, model, input.ambient), startsSegment: reading.startsSegment }
+  })
+  return { ...fitPrechargeTrend({ points, reference: input.reference, tolerance: input.tolerance, ambient: input.ambient, model }), inputs: input }
+}
 
-  const result: PrechargeTrendResult = {
-    normalised,
-    inputs: input,
-    method: `${describeModel(model)}: readings carried to ${reference.temperature.value} °${reference.temperature.unit} at constant gas mass and volume; one least-squares loss rate across charge segments`,
-    engineVersion: ENGINE_VERSION,
-  }
+/**
+ * The common loss rate of readings already carried to the reference temperature: the least
+ * squares fit of one slope with a separate level per charge segment (the analysis-of-covariance
+ * pooled within-segment slope), in closed form: slope = Σ(t − t̄ₛ)(p − p̄ₛ) / Σ(t − t̄ₛ)², with
+ * standard error s/√Σ(t − t̄ₛ)², s² = Σresidual²/(n − k − 1) for n readings in k fitted
+ * segments (Draper and Smith, Applied Regression Analysis, 3rd ed., §14, from memory).
+ * Linear in the number of readings.
+ */
+export function fitPrechargeTrend(input: PrechargeFitInput): PrechargeFit & Provenance<PrechargeFitInput> {
+  const model = input.model ?? 'real'
+  const { reference } = input
+  const ordered = input.points
+    .map((point, index) => {
+      const time = Date.parse(point.takenAt)
+      if (Number.isNaN(time)) throw new EngineInputError('A reading has no valid date.', `points.${index}.takenAt`)
+      return { point, index, time }
+    })
+    .sort((a, b) => a.time - b.time || a.index - b.index)
+  let segment = 0
+  const normalised = ordered.map(({ point }, order) => {
+    if (point.startsSegment && order > 0) segment++
+    return { takenAt: point.takenAt, value: point.value, segment }
+  })
+  const result: PrechargeFit & Provenance<PrechargeFitInput> = { normalised, inputs: input, method: trendMethod(model, reference), engineVersion: ENGINE_VERSION }
   if (input.tolerance) {
     const band = chargeTarget({ reference, gasTemperature: reference.temperature, tolerance: input.tolerance, ambient: input.ambient, model })
     result.lowLimit = band.low!.value
     result.highLimit = band.high!.value
   }
-  const origin = normalised.length ? Date.parse(normalised[0]!.takenAt) : 0
-  const day = (takenAt: string) => (Date.parse(takenAt) - origin) / DAY_MS
-  const segments = [...new Set(normalised.map(point => point.segment))]
-  const centred: [number, number][] = []
-  const centres = new Map<number, { day: number, value: number }>()
-  for (const id of segments) {
-    const points = normalised.filter(point => point.segment === id)
-    const centre = { day: mean(points.map(point => day(point.takenAt))) as number, value: mean(points.map(point => point.value)) as number }
-    centres.set(id, centre)
-    if (points.length > 1) for (const point of points) centred.push([day(point.takenAt) - centre.day, point.value - centre.value])
-  }
-  const sxx = centred.reduce((total, [x]) => total + x * x, 0)
-  if (centred.length < 2 || sxx === 0) return result
-  const slope = linearRegression(centred).m
-  const fittedSegments = new Set(normalised.filter(point => normalised.filter(other => other.segment === point.segment).length > 1).map(point => point.segment)).size
-  const degreesOfFreedom = centred.length - fittedSegments - 1
+  if (ordered.length === 0) return result
+  const origin = ordered[0]!.time
+  const days = ordered.map(({ time }) => (time - origin) / DAY_MS)
+  // Per segment: count and means, one pass.
+  const sums = new Map<number, { n: number, day: number, value: number }>()
+  normalised.forEach((point, index) => {
+    const sum = sums.get(point.segment) ?? { n: 0, day: 0, value: 0 }
+    sum.n++
+    sum.day += days[index]!
+    sum.value += point.value
+    sums.set(point.segment, sum)
+  })
+  let sxx = 0
+  let sxy = 0
+  let fitted = 0
+  normalised.forEach((point, index) => {
+    const sum = sums.get(point.segment)!
+    if (sum.n < 2) return
+    const x = days[index]! - sum.day / sum.n
+    sxx += x * x
+    sxy += x * (point.value - sum.value / sum.n)
+    fitted++
+  })
+  if (fitted < 2 || sxx === 0) return result
+  const slope = sxy / sxx
+  const fittedSegments = [...sums.values()].filter(sum => sum.n > 1).length
+  const degreesOfFreedom = fitted - fittedSegments - 1
   result.lossRatePerDay = slope
-  result.fit = { readings: centred.length, segments: fittedSegments, degreesOfFreedom }
+  result.fit = { readings: fitted, segments: fittedSegments, degreesOfFreedom }
   if (degreesOfFreedom > 0) {
-    const residualSquares = centred.reduce((total, [x, y]) => total + (y - slope * x) ** 2, 0)
+    let residualSquares = 0
+    normalised.forEach((point, index) => {
+      const sum = sums.get(point.segment)!
+      if (sum.n < 2) return
+      residualSquares += (point.value - sum.value / sum.n - slope * (days[index]! - sum.day / sum.n)) ** 2
+    })
     result.lossRateStandardError = Math.sqrt(residualSquares / degreesOfFreedom / sxx)
   }
-  const latest = centres.get(segments.at(-1)!)
-  if (result.lowLimit !== undefined && slope < 0 && latest) {
-    const crossingDay = latest.day + (result.lowLimit - latest.value) / slope
+  const latest = sums.get(segment)!
+  if (result.lowLimit !== undefined && slope < 0) {
+    const centreDay = latest.day / latest.n
+    const crossingDay = centreDay + (result.lowLimit - latest.value / latest.n) / slope
     // Beyond fifty years a forecast says nothing useful (and leaves the range of a date).
-    if (crossingDay - latest.day < 50 * 365) result.predictedOutOfLimitsAt = new Date(origin + crossingDay * DAY_MS).toISOString()
+    if (crossingDay - centreDay < 50 * 365) result.predictedOutOfLimitsAt = new Date(origin + crossingDay * DAY_MS).toISOString()
   }
   return result
 }

@@ -64,4 +64,4 @@ export const preferencesSchema = z.object({
   stationName: z.string().trim().max(60),
 })
 
-export const idParamsSchema = z.object({ id: z.coerce.number({ invalid_type_error: 'The id must be a number.' }).int().positive() })
+export const idParamsSchema = z.object({ id: z.coerce.number({ invalid_type_error: 'The id must be a number.' }).int().positive().max(2_147_483_647, 'Not a known id.') })

@@ -7,8 +7,8 @@ import { numberField, pressureBasisSchema, pressureUnitSchema } from './quantiti
  */
 export const chargeTargetFormSchema = z.object({
   source: z.enum(['unit', 'specification', 'manual']),
-  accumulatorId: z.number().int().positive().optional(),
-  specificationId: z.number().int().positive().optional(),
+  accumulatorId: z.number().int().positive().max(2_147_483_647, 'Not a known id.').optional(),
+  specificationId: z.number().int().positive().max(2_147_483_647, 'Not a known id.').optional(),
   referencePressure: numberField('the reference pre-charge').positive('The pre-charge must be above zero.').optional(),
   referenceBasis: pressureBasisSchema,
   referenceTemperature: numberField('the reference temperature').optional(),

@@ -3,7 +3,7 @@ import { ambientSchema, intervalSchema, pressureSchema, temperatureSchema } from
 
 /** A pump cycle check: with no service selected, the time from pump cut-out to cut-in. */
 export const cycleCheckSchema = z.object({
-  aircraftId: z.number({ required_error: 'Pick the aircraft.', invalid_type_error: 'Pick the aircraft.' }).int().positive(),
+  aircraftId: z.number({ required_error: 'Pick the aircraft.', invalid_type_error: 'Pick the aircraft.' }).int().positive().max(2_147_483_647, 'Not a known id.'),
   system: z.string({ required_error: 'Pick the hydraulic system.' }).trim().min(1, 'Pick the hydraulic system.').max(80),
   cutOut: pressureSchema,
   cutIn: pressureSchema,
@@ -15,11 +15,11 @@ export const cycleCheckSchema = z.object({
 export type CycleCheckBody = z.infer<typeof cycleCheckSchema>
 
 export const cycleCheckQuerySchema = z.object({
-  aircraftId: z.coerce.number().int().positive().optional(),
+  aircraftId: z.coerce.number().int().positive().max(2_147_483_647, 'Not a known id.').optional(),
   system: z.string().max(80).optional(),
   page: z.coerce.number().int().min(1).max(100_000, 'At most page 100000.').default(1),
   pageSize: z.coerce.number().int().min(1).max(500).default(50),
-})
+}).strict()
 
 export const trendQuerySchema = z.object({
   type: z.string().max(60).optional(),
@@ -27,4 +27,7 @@ export const trendQuerySchema = z.object({
   position: z.string().max(80).optional(),
   partNumber: z.string().max(60).optional(),
   flagged: z.enum(['true', 'false']).transform(value => value === 'true').optional(),
-})
+}).strict()
+
+/** For routes that take no query parameters: any given is refused, like unknown body fields. */
+export const noQuerySchema = z.object({}).strict()

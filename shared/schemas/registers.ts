@@ -33,7 +33,7 @@ export const accumulatorSchema = z.object({
   partNumber: text('part number', 60),
   serialNumber: text('serial number', 60),
   system: z.string().trim().max(80).nullable().default(null),
-  aircraftId: z.number().int().positive().nullable().default(null),
+  aircraftId: z.number().int().positive().max(2_147_483_647, 'Not a known id.').nullable().default(null),
   position: z.string().trim().max(80).nullable().default(null),
   installedAt: isoDate.nullable().default(null),
 }).strict().superRefine((body, context) => {
@@ -43,7 +43,7 @@ export const accumulatorSchema = z.object({
 
 /** Moving a unit: off its aircraft (aircraftId null) or onto another; its history is kept. */
 export const accumulatorMoveSchema = z.object({
-  aircraftId: z.number().int().positive().nullable(),
+  aircraftId: z.number().int().positive().max(2_147_483_647, 'Not a known id.').nullable(),
   position: z.string().trim().max(80).optional(),
   date: isoDate,
   reason: z.string().trim().max(200).optional(),
@@ -61,7 +61,7 @@ export const accumulatorUpdateSchema = z.object({
 export const accumulatorQuerySchema = z.object({
   ...registerQuery,
   installed: booleanQuery,
-  aircraftId: z.coerce.number().int().positive().optional(),
+  aircraftId: z.coerce.number().int().positive().max(2_147_483_647, 'Not a known id.').optional(),
   partNumber: z.string().max(60).optional(),
   type: z.string().max(60).optional(),
   base: z.string().max(60).optional(),

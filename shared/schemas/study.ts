@@ -6,7 +6,7 @@ import {
 
 export const studyInputSchema = z.object({
   name: z.string({ required_error: 'Name the study.' }).trim().min(3, 'Name the study in a few words.').max(160),
-  specificationId: z.number().int().positive().nullable().default(null),
+  specificationId: z.number().int().positive().max(2_147_483_647, 'Not a known id.').nullable().default(null),
   accumulatorType: z.enum(ACCUMULATOR_TYPES, { errorMap: () => ({ message: 'The type is piston, bladder or diaphragm.' }) }),
   gasVolume: volumeSchema,
   precharge: pressureSchema,
@@ -29,7 +29,7 @@ export type StudyInput = z.infer<typeof studyInputSchema>
 
 export const studyListQuerySchema = z.object({
   q: z.string().trim().max(80).optional(),
-  specificationId: z.coerce.number().int().positive().optional(),
+  specificationId: z.coerce.number().int().positive().max(2_147_483_647, 'Not a known id.').optional(),
   page: z.coerce.number().int().min(1).max(100_000, 'At most page 100000.').default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(25),
 })
@@ -40,7 +40,7 @@ export const studyListQuerySchema = z.object({
  */
 export const studyFormSchema = z.object({
   name: z.string().trim().min(3, 'Name the study in a few words.').max(160),
-  specificationId: z.number().int().positive().nullable(),
+  specificationId: z.number().int().positive().max(2_147_483_647, 'Not a known id.').nullable(),
   accumulatorType: z.enum(ACCUMULATOR_TYPES),
   pressureUnit: z.enum(['psi', 'bar', 'kPa', 'MPa']),
   basis: z.enum(['gauge', 'absolute']),

@@ -3,10 +3,10 @@ import { WORKSHEET_REASONS, WORKSHEET_STATES } from '../types/worksheet'
 import { ambientSchema, numberField, pressureSchema, temperatureSchema } from './quantities'
 
 export const worksheetCreateSchema = z.object({
-  accumulatorId: z.number({ required_error: 'Pick the installed accumulator.', invalid_type_error: 'Pick the installed accumulator.' }).int().positive(),
+  accumulatorId: z.number({ required_error: 'Pick the installed accumulator.', invalid_type_error: 'Pick the installed accumulator.' }).int().positive().max(2_147_483_647, 'Not a known id.'),
   workOrder: z.string({ required_error: 'Enter the work order.' }).trim().min(3, 'Enter the work order reference.').max(60),
   reason: z.enum(WORKSHEET_REASONS, { errorMap: () => ({ message: `The reason is one of: ${WORKSHEET_REASONS.join(', ')}.` }) }),
-  correctsId: z.number().int().positive().optional(),
+  correctsId: z.number().int().positive().max(2_147_483_647, 'Not a known id.').optional(),
 }).strict()
 export type WorksheetCreateBody = z.infer<typeof worksheetCreateSchema>
 
@@ -22,8 +22,8 @@ export const preparationStepSchema = z.object({
 
 export const toolsStepSchema = z.object({
   step: z.literal('tools'),
-  gaugeId: z.number({ required_error: 'Pick the gauge you used.', invalid_type_error: 'Pick the gauge you used.' }).int().positive(),
-  cartId: z.number({ required_error: 'Pick the nitrogen cart you used.', invalid_type_error: 'Pick the nitrogen cart you used.' }).int().positive(),
+  gaugeId: z.number({ required_error: 'Pick the gauge you used.', invalid_type_error: 'Pick the gauge you used.' }).int().positive().max(2_147_483_647, 'Not a known id.'),
+  cartId: z.number({ required_error: 'Pick the nitrogen cart you used.', invalid_type_error: 'Pick the nitrogen cart you used.' }).int().positive().max(2_147_483_647, 'Not a known id.'),
 }).strict()
 
 export const conditionsStepSchema = z.object({
@@ -66,16 +66,26 @@ export const reasonSchema = z.object({
   reason: z.string({ required_error: 'Give the reason.' }).trim().min(5, 'Give the reason in a few words.').max(2000),
 }).strict()
 
-export const worksheetListQuerySchema = z.object({
-  aircraftId: z.coerce.number().int().positive().optional(),
-  accumulatorId: z.coerce.number().int().positive().optional(),
+const worksheetFilterFields = {
+  aircraftId: z.coerce.number().int().positive().max(2_147_483_647, 'Not a known id.').optional(),
+  accumulatorId: z.coerce.number().int().positive().max(2_147_483_647, 'Not a known id.').optional(),
   state: z.enum(WORKSHEET_STATES).optional(),
-  performerId: z.coerce.number().int().positive().optional(),
+  performerId: z.coerce.number().int().positive().max(2_147_483_647, 'Not a known id.').optional(),
   from: z.string().date('Use a date like 2026-01-31.').optional(),
   to: z.string().date('Use a date like 2026-01-31.').optional(),
+  /** Start of a work order, registration, serial number or part number, any case. */
+  q: z.string().trim().max(60, 'At most 60 characters.').optional(),
   sort: z.enum(['performedAt', 'createdAt', 'state', 'workOrder']).default('createdAt'),
   direction: z.enum(['asc', 'desc']).default('desc'),
-  page: z.coerce.number().int().min(1).max(100_000, 'At most page 100000.').default(1),
+}
+
+/** The worksheet list: filters, search, sort, and a page by cursor (the `next` or `previous` of the last answer). Unknown parameters are refused. */
+export const worksheetListQuerySchema = z.object({
+  ...worksheetFilterFields,
+  cursor: z.string().max(400).optional(),
   pageSize: z.coerce.number().int().min(1).max(200).default(25),
-})
+}).strict()
+
+/** The same filters for the CSV export, which has every matching row and no pages. */
+export const worksheetExportQuerySchema = z.object(worksheetFilterFields).strict()
 export type WorksheetListQuery = z.infer<typeof worksheetListQuerySchema>

@@ -98,3 +98,35 @@ export interface WorksheetDto {
   /** The settle time's end, when a charge or vent started it. */
   settleUntil: string | null
 }
+
+/** One row of the worksheet list (and of its CSV export). */
+export interface WorksheetListItem {
+  id: number
+  state: WorksheetState
+  workOrder: string
+  reason: WorksheetReason
+  performerId: number
+  performer: string
+  registration: string
+  fleetNumber: string
+  position: string
+  partNumber: string
+  serialNumber: string
+  asFoundVerdict: string | null
+  asLeftVerdict: string | null
+  correctsId: number | null
+  performedAt: string | null
+  releasedAt: string | null
+  createdAt: string
+}
+
+/** A page of the worksheet list; `next` and `previous` are cursors to send back as `cursor`. */
+export interface WorksheetListPage {
+  items: WorksheetListItem[]
+  pageSize: number
+  /** Matches, counted up to 10,000; `totalCapped` when there are more. */
+  total: number
+  totalCapped: boolean
+  next: string | null
+  previous: string | null
+}

@@ -1,4 +1,4 @@
-import type { PrechargeTrendResult } from '../gas/leakage'
+import type { PrechargeFit } from '../gas/leakage'
 
 export interface UnitTrendSettings {
   /** Loss, pressure units per day, above which the engineer wants to know (per specification). */
@@ -25,7 +25,7 @@ const SIGNIFICANCE = 2
  * the fitted line leaves the band before the next scheduled check. Either only counts when the
  * loss is clear of the noise (more than two standard errors), so scatter alone never flags a unit.
  */
-export function assessUnitTrend(trend: PrechargeTrendResult, settings: UnitTrendSettings): UnitTrendFlag {
+export function assessUnitTrend(trend: Omit<PrechargeFit, 'normalised'>, settings: UnitTrendSettings): UnitTrendFlag {
   const loss = trend.lossRatePerDay === undefined ? null : -trend.lossRatePerDay
   const error = trend.lossRateStandardError ?? 0
   const nextCheckAt = settings.lastServiceAt && settings.checkIntervalDays

@@ -10,7 +10,7 @@ import { join, resolve } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { auditHash } from '../../server/database/audit-chain'
 import { api, DEMO, signIn } from '../support/api'
-import { sql } from '../support/database'
+import { asText, sql } from '../support/database'
 import { baseURL, fileServer } from '../support/file-server'
 
 const root = resolve(import.meta.dirname, '../..')
@@ -24,7 +24,7 @@ const verify = async () => (await api('/api/audit/verify', { cookie: admin })).b
 
 /** Edits a row in the file, checks that verification names it, then puts the row back as it was. */
 async function tamperWith(table: string, column: string, id: number, change: (value: unknown) => unknown) {
-  const path = fileServer().databasePath
+  const path = fileServer().database
   const [before] = await sql<Record<string, unknown>>(path, `SELECT ${column} AS value FROM ${table} WHERE id = ?`, [id])
   await sql(path, `UPDATE ${table} SET ${column} = ? WHERE id = ?`, [change(before!.value), id])
   const report = await verify()
@@ -33,7 +33,7 @@ async function tamperWith(table: string, column: string, id: number, change: (va
 }
 
 async function releasedWorksheet(): Promise<number> {
-  const [row] = await sql<{ id: number }>(fileServer().databasePath, 'SELECT id FROM worksheets WHERE state = \'released\' ORDER BY id LIMIT 1 OFFSET 7')
+  const [row] = await sql<{ id: number }>(fileServer().database, 'SELECT id FROM worksheets WHERE state = \'released\' ORDER BY id LIMIT 1 OFFSET 7')
   return row!.id
 }
 
@@ -47,7 +47,7 @@ describe('editing the database file is caught', () => {
 
   it('a released worksheet\'s results', async () => {
     const id = await releasedWorksheet()
-    const report = await tamperWith('worksheets', 'results', id, value => String(value).replace(/"verdict":"[a-z-]+"/, '"verdict":"in-limits"').replace(/"difference":(-?[\d.]+)/, '"difference":0'))
+    const report = await tamperWith('worksheets', 'results', id, value => asText(value).replace(/"verdict":"[a-z-]+"/, '"verdict":"in-limits"').replace(/"difference":(-?[\d.]+)/, '"difference":0'))
     expect(report.ok).toBe(false)
     expect(report.firstMismatch).toMatchObject({ entity: 'worksheet', entityId: String(id) })
     expect(report.firstMismatch.reason).toMatch(/changed outside Chargewell/)
@@ -56,19 +56,19 @@ describe('editing the database file is caught', () => {
 
   it('a reading in a released worksheet\'s content', async () => {
     const id = await releasedWorksheet()
-    const report = await tamperWith('worksheets', 'content', id, value => String(value).replace(/"asFound":\{"reading":\{"value":(\d+)/, (_, reading) => `"asFound":{"reading":{"value":${Number(reading) + 50}`))
+    const report = await tamperWith('worksheets', 'content', id, value => asText(value).replace(/"asFound": ?\{"reading": ?\{"value": ?(\d+)/, (_, reading) => `"asFound":{"reading":{"value":${Number(reading) + 50}`))
     expect(report.firstMismatch).toMatchObject({ entity: 'worksheet', entityId: String(id) })
   })
 
   it('the serviceable flag', async () => {
     const id = await releasedWorksheet()
-    const report = await tamperWith('worksheets', 'serviceable', id, value => (Number(value) ? 0 : 1))
+    const report = await tamperWith('worksheets', 'serviceable', id, value => !value)
     expect(report.firstMismatch).toMatchObject({ entity: 'worksheet', entityId: String(id) })
   })
 
   it('an inspector signature\'s name, naming the worksheet it belongs to', async () => {
     const id = await releasedWorksheet()
-    const [signature] = await sql<{ id: number }>(fileServer().databasePath, 'SELECT id FROM signatures WHERE worksheet_id = ? AND capacity = \'inspector\'', [id])
+    const [signature] = await sql<{ id: number }>(fileServer().database, 'SELECT id FROM signatures WHERE worksheet_id = ? AND capacity = \'inspector\'', [id])
     const report = await tamperWith('signatures', 'name', signature!.id, () => 'Somebody Else')
     expect(report.firstMismatch).toMatchObject({ entity: 'worksheet', entityId: String(id) })
   })
@@ -79,7 +79,7 @@ describe('editing the database file is caught', () => {
   })
 
   it('a row inserted or deleted behind the application\'s back', async () => {
-    const path = fileServer().databasePath
+    const path = fileServer().database
     const id = await releasedWorksheet()
     const [signature] = await sql<Record<string, unknown>>(path, 'SELECT * FROM signatures WHERE worksheet_id = ? AND capacity = \'inspector\'', [id])
     await sql(path, 'DELETE FROM signatures WHERE id = ?', [signature!.id])
@@ -87,7 +87,7 @@ describe('editing the database file is caught', () => {
     const columns = Object.keys(signature!)
     await sql(path, `INSERT INTO signatures (${columns.join(', ')}) VALUES (${columns.map(() => '?').join(', ')})`, columns.map(column => signature![column]))
     expect((await verify()).ok).toBe(true)
-    await sql(path, 'INSERT INTO tools (kind, asset_number, description, active, created_at, updated_at) VALUES (\'gauge\', \'GA-9999\', \'Smuggled in\', 1, \'2026-01-01\', \'2026-01-01\')')
+    await sql(path, 'INSERT INTO tools (kind, asset_number, description, active, created_at, updated_at) VALUES (\'gauge\', \'GA-9999\', \'Smuggled in\', TRUE, \'2026-01-01\', \'2026-01-01\')')
     const report = await verify()
     expect(report.firstMismatch.reason).toMatch(/no audit entry vouching for its content/)
     await sql(path, 'DELETE FROM tools WHERE asset_number = \'GA-9999\'')
@@ -126,7 +126,7 @@ describe('the signed export, checked offline', () => {
 
 describe('cutting or rebuilding the chain is caught (the chain stays broken after these)', () => {
   it('deleting the newest audit entries', async () => {
-    const path = fileServer().databasePath
+    const path = fileServer().database
     const [{ id }] = await sql<{ id: number }>(path, 'SELECT MAX(id) AS id FROM audit_events') as [{ id: number }]
     await sql(path, 'DELETE FROM audit_events WHERE id > ?', [id - 2])
     const report = await verify()
@@ -135,9 +135,9 @@ describe('cutting or rebuilding the chain is caught (the chain stays broken afte
   })
 
   it('a chain rebuilt without the secret: an edited record re-hashed, a vouching entry appended, the head moved', async () => {
-    const path = fileServer().databasePath
+    const path = fileServer().database
     const id = await releasedWorksheet()
-    await sql(path, 'UPDATE worksheets SET serviceable = 1 - serviceable WHERE id = ?', [id])
+    await sql(path, 'UPDATE worksheets SET serviceable = NOT serviceable WHERE id = ?', [id])
     // The forger has the file and the source code, so computes everything as the server would, but has no secret.
     const { openDatabase } = await import('../../server/database/connection')
     const { recordHash } = await import('../../server/database/record-hash')

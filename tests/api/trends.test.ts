@@ -40,12 +40,13 @@ describe('pre-charge loss trends', () => {
     expect((await api('/api/trends/precharge/abc', { cookie: cookies.inspector })).status).toBe(400)
   })
 
-  it('e-mail the engineers once per new flag', async () => {
-    await api('/api/trends/precharge', { cookie: cookies.engineer })
-    const outbox = (await api('/api/admin/outbox', { cookie: cookies.admin })).body
-    const alerts = outbox.received.filter((message: { to: string[], subject: string }) => message.to.includes(DEMO.engineer) && message.subject.startsWith('Trend alert') && message.subject.includes('QX-FMC Normal brake'))
-    expect(alerts).toHaveLength(1)
-    expect(alerts[0].text).toMatch(/losing pre-charge/)
+  it('reading the trends writes nothing and mails nobody', async () => {
+    const before = (await api('/api/admin/outbox', { cookie: cookies.admin })).body.notifications.length
+    for (let read = 0; read < 3; read++) {
+      expect((await api('/api/trends/precharge', { cookie: cookies.engineer })).status).toBe(200)
+      expect((await api('/api/trends/cycles', { cookie: cookies.engineer })).status).toBe(200)
+    }
+    expect((await api('/api/admin/outbox', { cookie: cookies.admin })).body.notifications.length).toBe(before)
   })
 })
 
@@ -78,5 +79,37 @@ describe('pump cycle checks', () => {
     expect(wrong.body.data.field).toBe('cutIn')
     const list = await api(`/api/cycle-checks?aircraftId=${fleet.id}`, { cookie: cookies.inspector })
     expect(list.body.total).toBeGreaterThanOrEqual(13)
+  })
+})
+
+describe('alerts are raised by the writes that change a trend', () => {
+  it('two cycle checks at once that flag a system mail the engineers once; the next one mails nothing', async () => {
+    const aircraft = (await api('/api/aircraft?q=QX-FMK', { cookie: cookies.technician })).body.items[0]
+    const check = (seconds: number) => api('/api/cycle-checks', { cookie: cookies.technician, body: {
+      aircraftId: aircraft.id, system: 'Hydraulic system 1', cutOut: { value: 3000, unit: 'psi', basis: 'gauge' }, cutIn: { value: 2600, unit: 'psi', basis: 'gauge' },
+      interval: { value: seconds, unit: 's' }, fluidTemperature: { value: 40, unit: 'C' }, checkedAt: '2026-12-01',
+    } })
+    const answers = await Promise.all([check(150), check(140)])
+    expect(answers.map(answer => answer.status)).toEqual([201, 201])
+    expect((await check(145)).status).toBe(201)
+    const received = (await api('/api/admin/outbox', { cookie: cookies.admin })).body.received as { to: string[], subject: string, text: string }[]
+    const alerts = received.filter(message => message.to.includes(DEMO.engineer) && message.subject.startsWith('Trend alert') && message.subject.includes('QX-FMK Hydraulic system 1'))
+    expect(alerts).toHaveLength(1)
+    expect(alerts[0]!.text).toMatch(/shorter than its baseline/)
+    const cycles = (await api('/api/trends/cycles', { cookie: cookies.engineer })).body.items
+    expect(cycles.find((item: { registration: string, system: string }) => item.registration === 'QX-FMK' && item.system === 'Hydraulic system 1').flagged).toBe(true)
+  })
+
+  it('a released as-found joins its unit\'s trend at once', async () => {
+    const { fillWorksheet, finishAndSign, unitAt } = await import('../support/worksheet-flow')
+    const unit = await unitAt(cookies.technician!, 'QX-FMA', /Main hydraulic/)
+    const before = (await api(`/api/trends/precharge/${unit.id}`, { cookie: cookies.engineer })).body.services.length
+    const flow = await fillWorksheet(cookies.technician!, unit.id)
+    expect((await finishAndSign(cookies.technician!, flow)).status).toBe(200)
+    expect((await api(`/api/trends/precharge/${unit.id}`, { cookie: cookies.engineer })).body.services.length).toBe(before)
+    expect((await api(`/api/worksheets/${flow.id}/countersign`, { cookie: cookies.inspector, body: { password: 'chargewell-demo', certify: true } })).status).toBe(200)
+    const after = (await api(`/api/trends/precharge/${unit.id}`, { cookie: cookies.engineer })).body
+    expect(after.services.length).toBe(before + 1)
+    expect(after.services.at(-1).worksheetId).toBe(flow.id)
   })
 })

@@ -5,6 +5,8 @@
  * that database (tests/support/file-server.ts), so files pass alone and in any order.
  *
  * CHARGEWELL_SKIP_BUILD=1 reuses an existing .output (for quick local runs).
+ * CHARGEWELL_TEST_DATABASE_URL=postgres://… runs every server on PostgreSQL instead: the template
+ * is a database seeded once, and each file's server gets a copy (CREATE DATABASE … TEMPLATE).
  */
 import { execFileSync } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
@@ -12,6 +14,7 @@ import { cpSync, existsSync, mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
 import type { TestProject } from 'vitest/node'
+import { createPostgresDatabase, dropPostgresDatabase, isPostgresUrl } from './postgres'
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -33,16 +36,17 @@ async function prepare(): Promise<Prepared> {
   const folder = mkdtempSync(join(tmpdir(), 'chargewell-test-'))
   const outputDir = join(folder, 'output')
   cpSync(join(root, '.output'), outputDir, { recursive: true })
-  const templateDatabase = join(folder, 'template.sqlite')
   // The seed seals the audit chain with the secret the servers will have.
   const sessionPassword = randomBytes(32).toString('hex')
+  const postgres = process.env.CHARGEWELL_TEST_DATABASE_URL
+  const templateDatabase = postgres ? await createPostgresDatabase(postgres, `chargewell_template_${process.pid}`) : join(folder, 'template.sqlite')
   execFileSync('npx', ['tsx', 'server/database/seed.ts'], {
     cwd: root,
-    env: { ...process.env, NUXT_DB_PATH: templateDatabase, NUXT_SESSION_PASSWORD: sessionPassword, NUXT_AUDIT_SECRET: '' },
+    env: { ...process.env, NUXT_DB_PATH: postgres ? '' : templateDatabase, NUXT_DATABASE_URL: postgres ? templateDatabase : '', NUXT_SESSION_PASSWORD: sessionPassword, NUXT_AUDIT_SECRET: '' },
     stdio: 'inherit',
   })
-  // The template is copied file by file: fold the write-ahead log into it first.
-  execFileSync(process.execPath, ['-e', `const s=require('sqlite3');const d=new s.Database(${JSON.stringify(templateDatabase)});d.exec('PRAGMA wal_checkpoint(TRUNCATE)',e=>{if(e)throw e;d.close()})`], { cwd: root })
+  // A SQLite template is copied file by file: fold the write-ahead log into it first.
+  if (!postgres) execFileSync(process.execPath, ['-e', `const s=require('sqlite3');const d=new s.Database(${JSON.stringify(templateDatabase)});d.exec('PRAGMA wal_checkpoint(TRUNCATE)',e=>{if(e)throw e;d.close()})`], { cwd: root })
   return { outputDir, templateDatabase, sessionPassword, folder, users: 0 }
 }
 
@@ -60,9 +64,10 @@ export default async function setup(project: TestProject) {
   project.provide('outputDir', prepared.outputDir)
   project.provide('templateDatabase', prepared.templateDatabase)
   project.provide('sessionPassword', prepared.sessionPassword)
-  return () => {
+  return async () => {
     if (--prepared.users > 0) return
     rmSync(prepared.folder, { recursive: true, force: true })
+    if (isPostgresUrl(prepared.templateDatabase)) await dropPostgresDatabase(prepared.templateDatabase)
     shared.__chargewellPrepared = undefined
   }
 }

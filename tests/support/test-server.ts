@@ -9,10 +9,12 @@ import { createServer } from 'node:net'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { inject } from 'vitest'
+import { copyPostgresDatabase, dropPostgresDatabase, isPostgresUrl } from './postgres'
 
 export interface TestServer {
   baseURL: string
-  databasePath: string
+  /** The SQLite file, or the postgres:// URL, this server uses. */
+  database: string
   folder: string
   log: string[]
   /** Starts the server (again) on the same database and port. */
@@ -50,8 +52,10 @@ async function waitForHealth(baseURL: string, child: ChildProcess, log: string[]
 
 export async function startTestServer(env: Record<string, string> = {}): Promise<TestServer> {
   const folder = mkdtempSync(join(tmpdir(), 'chargewell-server-'))
-  const databasePath = join(folder, 'chargewell.sqlite')
-  copyFileSync(inject('templateDatabase'), databasePath)
+  const template = inject('templateDatabase')
+  let database = join(folder, 'chargewell.sqlite')
+  if (isPostgresUrl(template)) database = await copyPostgresDatabase(template)
+  else copyFileSync(template, database)
   const port = await freePort()
   const baseURL = `http://127.0.0.1:${port}`
   const smtpPort = await freePort()
@@ -66,7 +70,8 @@ export async function startTestServer(env: Record<string, string> = {}): Promise
         NODE_ENV: 'production',
         HOST: '127.0.0.1',
         PORT: String(port),
-        NUXT_DB_PATH: databasePath,
+        NUXT_DB_PATH: isPostgresUrl(database) ? '' : database,
+        NUXT_DATABASE_URL: isPostgresUrl(database) ? database : '',
         NUXT_UPLOADS_DIR: join(folder, 'uploads'),
         NUXT_SESSION_PASSWORD: inject('sessionPassword'),
         NUXT_AUDIT_SECRET: '',
@@ -99,13 +104,14 @@ export async function startTestServer(env: Record<string, string> = {}): Promise
   const dispose = async () => {
     await stop()
     rmSync(folder, { recursive: true, force: true })
+    if (isPostgresUrl(database)) await dropPostgresDatabase(database)
   }
   try {
     await start()
   }
   catch (error) {
-    rmSync(folder, { recursive: true, force: true })
+    await dispose()
     throw error
   }
-  return { baseURL, databasePath, folder, log, start, stop, dispose }
+  return { baseURL, database, folder, log, start, stop, dispose }
 }

@@ -5,7 +5,7 @@ import { appendAudit } from '../../database/audit-chain'
 import { Attachment } from '../../models'
 
 const fieldsSchema = z.object({
-  worksheetId: z.coerce.number({ invalid_type_error: 'Say which worksheet the file belongs to.' }).int().positive(),
+  worksheetId: z.coerce.number({ invalid_type_error: 'Say which worksheet the file belongs to.' }).int().positive().max(2_147_483_647, 'Not a known id.'),
   kind: z.enum(['gauge-photo', 'certificate', 'other'], { errorMap: () => ({ message: 'The kind is gauge-photo, certificate or other.' }) }),
 })
 

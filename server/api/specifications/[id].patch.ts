@@ -2,6 +2,7 @@ import { idParamsSchema } from '../../../shared/schemas/auth'
 import { SPECIFICATION_LOCAL_FIELDS, specificationSchema, specificationUpdateSchema } from '../../../shared/schemas/registers'
 import { appendAudit } from '../../database/audit-chain'
 import { Specification, SpecificationTablePoint } from '../../models'
+import { trendAfterSpecificationChange } from '../../services/trends'
 
 /**
  * Title, check interval and loss threshold change in place. Any change to the approved-data
@@ -21,6 +22,8 @@ export default defineEventHandler(async (event) => {
       await specification.update(changes, { transaction })
       await appendAudit({ actorId: user.id, entity: 'specification', entityId: String(id), action: 'updated', detail: changes }, transaction)
     })
+    // A new threshold or check interval changes which units are flagged.
+    await trendAfterSpecificationChange(specification.partNumber)
     return toSpecificationDto(specification)
   }
   if (!changes.revision || changes.revision === specification.revision) {
@@ -29,6 +32,7 @@ export default defineEventHandler(async (event) => {
   const { id: _id, status: _status, ...currentFields } = toSpecificationDto(specification)
   const next = parseInput(specificationSchema, { ...currentFields, ...changes })
   const created = await uniqueOr409(() => writeTransaction(transaction => createRevision(next, specification.id, user.id, transaction)), 'That revision already exists for this part number.')
+  await trendAfterSpecificationChange(specification.partNumber)
   setResponseStatus(event, 201)
   return created
 })

@@ -1,7 +1,7 @@
 import { idParamsSchema, userUpdateSchema } from '../../../../shared/schemas/auth'
 import { appendAudit } from '../../../database/audit-chain'
 import { User } from '../../../models'
-import { endAllSessions } from '../../../services/sessions'
+import { endAllSessions, sessionsChangedAfterCommit } from '../../../services/sessions'
 
 /** Name, roles, authorisation number, enable/disable. An admin cannot lock themselves out. */
 export default defineEventHandler(async (event) => {
@@ -21,6 +21,8 @@ export default defineEventHandler(async (event) => {
     if (body.disabled === true && !before.disabled) await endAllSessions(user, 'disabled', transaction)
     else if (rolesChanged) await endAllSessions(user, 'roles-changed', transaction)
     await appendAudit({ actorId: admin.id, entity: 'user', entityId: String(user.id), action: 'updated', detail: { changes: body } }, transaction)
+    // A new name or authorisation number is what the user's next request sees.
+    sessionsChangedAfterCommit(user.id, transaction)
   })
   return user.toPublic()
 })

@@ -1,13 +1,11 @@
 import { z } from 'zod'
-import { Accumulator, Aircraft } from '../../../models'
+import { unitTrend } from '../../../services/trends'
 
-const paramsSchema = z.object({ accumulatorId: z.coerce.number({ invalid_type_error: 'The id must be a number.' }).int().positive() })
+const paramsSchema = z.object({ accumulatorId: z.coerce.number({ invalid_type_error: 'The id must be a number.' }).int().positive().max(2_147_483_647, 'Not a known id.') })
 
 /** One unit's readings carried to the reference temperature, the band, the fit and the flag. */
 export default defineEventHandler(async (event) => {
   await requireRole(event)
   const { accumulatorId } = await getValidatedRouterParams(event, validateWith(paramsSchema))
-  const accumulator = await Accumulator.findByPk(accumulatorId, { include: [{ model: Aircraft, as: 'aircraft' }] })
-  if (!accumulator) throw createError({ status: 404, statusMessage: 'Not Found', message: 'Accumulator not found.' })
-  return unitTrend(accumulator)
+  return unitTrend(accumulatorId)
 })

@@ -8,7 +8,5 @@ export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
   const { password } = await readValidatedBody(event, validateWith(signatureSchema))
   await countersignWorksheet(user, id, password, expectedVersion(event))
-  // A released as-found may change a unit's trend.
-  await evaluateTrendAlerts()
   return worksheetAnswer(event, id)
 })

@@ -1,0 +1,4 @@
+/** Watches the event loop from the start (see server/utils/event-loop.ts). */
+export default defineNitroPlugin(() => {
+  startEventLoopMonitor()
+})

@@ -1,0 +1,35 @@
+import type { PrechargeFit } from '../gas/leakage'
+import type { Pressure, Temperature } from '../gas/types'
+import type { UnitTrendFlag } from '../utils/trend-flags'
+
+/** One unit's pre-charge trend (`GET /api/trends/precharge/:accumulatorId`). */
+export interface UnitTrendDto {
+  accumulator: { id: number, partNumber: string, serialNumber: string, position: string | null }
+  aircraft: { id: number, registration: string, type: string, base: string } | null
+  specification: { id: number, partNumber: string, revision: string, pressureUnit: string, pressureBasis: string } | null
+  /** The fit and its points, carried to `reference`. */
+  trend: (PrechargeFit & { reference: { pressure: Pressure, temperature: Temperature } }) | null
+  flag: UnitTrendFlag
+  /** Each released service: as-found and as-left carried to the reference temperature. */
+  services: { worksheetId: number, performedAt: string, asFound: number | null, asLeft: number | null, action: string }[]
+}
+
+/** One row of the fleet ranking (`GET /api/trends/precharge`). */
+export interface FleetTrendRow {
+  accumulatorId: number
+  registration: string | null
+  type: string | null
+  base: string | null
+  position: string | null
+  partNumber: string
+  serialNumber: string
+  unit: string | null
+  /** Pressure units per day, positive when losing gas. */
+  lossRate: number | null
+  lossRateStandardError: number | null
+  predictedOutOfLimitsAt: string | null
+  nextCheckAt: string | null
+  flagged: boolean
+  reasons: string[]
+  services: number
+}

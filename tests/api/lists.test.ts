@@ -1,0 +1,96 @@
+/**
+ * The worksheet list at any size: pages by cursor that cover every match exactly once in
+ * order, forwards and back; prefix search on work order, registration, serial and part
+ * number in any case; unknown parameters refused; the export has every row.
+ */
+import Papa from 'papaparse'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { api, DEMO, signIn } from '../support/api'
+import { baseURL } from '../support/file-server'
+
+let cookie: string
+beforeAll(async () => {
+  cookie = await signIn(DEMO.engineer)
+})
+
+async function walk(query: string, toward: 'next' | 'previous', start?: string) {
+  const ids: number[] = []
+  let cursor = start
+  let pages = 0
+  let last
+  do {
+    last = (await api(`/api/worksheets?${query}${cursor ? `&cursor=${encodeURIComponent(cursor)}` : ''}`, { cookie })).body
+    ids.push(...(toward === 'next' ? last.items : [...last.items].reverse()).map((item: { id: number }) => item.id))
+    cursor = last[toward]
+    pages++
+  } while (cursor && pages < 100)
+  return { ids, last }
+}
+
+describe('pages by cursor', () => {
+  it.each([
+    ['createdAt', 'desc'], ['performedAt', 'asc'], ['workOrder', 'asc'], ['state', 'desc'],
+  ])('sorted by %s %s, every worksheet once, in order, and back again', async (sort, direction) => {
+    const all = (await api(`/api/worksheets?sort=${sort}&direction=${direction}&pageSize=200`, { cookie })).body
+    expect(all.total).toBeGreaterThan(120)
+    const forwards = await walk(`sort=${sort}&direction=${direction}&pageSize=7`, 'next')
+    expect(forwards.ids).toEqual(all.items.map((item: { id: number }) => item.id))
+    // From the last page, previous pages lead back to the first.
+    const lastPage = forwards.last
+    const backwards = await walk(`sort=${sort}&direction=${direction}&pageSize=7`, 'previous', lastPage.previous)
+    expect([...backwards.ids].reverse()).toEqual(forwards.ids.slice(0, forwards.ids.length - lastPage.items.length))
+  })
+
+  it('reads only the list columns: no JSON content in a row', async () => {
+    const page = (await api('/api/worksheets?pageSize=3', { cookie })).body
+    expect(Object.keys(page.items[0]).sort()).toEqual([
+      'asFoundVerdict', 'asLeftVerdict', 'correctsId', 'createdAt', 'fleetNumber', 'id', 'partNumber', 'performedAt', 'performer', 'performerId',
+      'position', 'reason', 'registration', 'releasedAt', 'serialNumber', 'state', 'workOrder',
+    ])
+  })
+
+  it('refuses an unknown parameter, a page number and a tampered cursor, naming the field', async () => {
+    for (const [query, field] of [['page=2', 'page'], ['sort=workOrder&colour=red', 'colour'], ['cursor=bm90LWEtY3Vyc29y', 'cursor']]) {
+      const answer = await api(`/api/worksheets?${query}`, { cookie })
+      expect(answer.status, query).toBe(400)
+      expect(answer.body.data.issues.map((issue: { field: string }) => issue.field)).toContain(field)
+    }
+  })
+})
+
+interface Sample { id: number, workOrder: string, registration: string, serialNumber: string, partNumber: string }
+
+describe('search', () => {
+  it.each([
+    ['a work order prefix', (row: Sample) => row.workOrder.slice(0, 9)],
+    ['a registration, lower case', (row: Sample) => row.registration.toLowerCase()],
+    ['a serial number', (row: Sample) => row.serialNumber],
+    ['a part number prefix, lower case', (row: Sample) => row.partNumber.slice(0, 6).toLowerCase()],
+  ])('finds by %s', async (_what, term) => {
+    const sample = (await api('/api/worksheets?pageSize=1&state=released', { cookie })).body.items[0]
+    const q = term(sample)
+    const found = (await api(`/api/worksheets?q=${encodeURIComponent(q)}&pageSize=200`, { cookie })).body
+    expect(found.items.map((item: { id: number }) => item.id)).toContain(sample.id)
+    const lower = q.toLowerCase()
+    for (const item of found.items) {
+      expect([item.workOrder, item.registration, item.serialNumber, item.partNumber].some((value: string) => value.toLowerCase().startsWith(lower))).toBe(true)
+    }
+  })
+
+  it('takes % and _ as themselves', async () => {
+    expect((await api('/api/worksheets?q=%25', { cookie })).body.total).toBe(0)
+    expect((await api('/api/worksheets?q=_', { cookie })).body.total).toBe(0)
+  })
+})
+
+describe('the export', () => {
+  it('streams every matching row, with no cap', async () => {
+    const total = (await api('/api/worksheets?pageSize=1', { cookie })).body.total
+    const response = await fetch(`${baseURL()}/api/worksheets/export?sort=workOrder&direction=asc`, { headers: { cookie } })
+    const rows = Papa.parse<string[]>(await response.text(), { skipEmptyLines: true }).data
+    expect(rows[0]![0]).toBe('Worksheet')
+    expect(rows).toHaveLength(total + 1)
+    expect(new Set(rows.slice(1).map(row => row[0])).size).toBe(total)
+    expect((await fetch(`${baseURL()}/api/worksheets/export?pageSize=3`, { headers: { cookie } })).status).toBe(400)
+  })
+})
