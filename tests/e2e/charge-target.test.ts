@@ -69,4 +69,39 @@ describe('Charge target page', () => {
     await expect.poll(() => page.getByTestId('target-value').innerText()).toMatch(/100\.00\s*bar gauge/)
     await page.context().close()
   })
+
+  it('shows no figure under invalid inputs: a gas temperature of −300 or 150 °C, or 99,999 psi by hand (stale-figure rule)', async () => {
+    const page = await signedInPage(browser, 'technician@chargewell.test')
+    await page.goto('/charge-target')
+    await page.getByRole('button', { name: /QX-FMC/ }).click()
+    await page.getByRole('button', { name: /Normal brake/ }).click()
+    await page.getByLabel(/Gas temperature/).fill('15')
+    await expect.poll(() => page.getByTestId('target-value').isVisible()).toBe(true)
+    for (const temperature of ['-300', '150']) {
+      await page.getByLabel(/Gas temperature/).fill(temperature)
+      // The refusal is shown under the gas temperature; no target, band or plot remains from 15 °C.
+      await expect.poll(() => page.getByTestId('gas-temperature-error').innerText()).not.toBe('')
+      expect(await page.getByTestId('target-value').count()).toBe(0)
+      expect(await page.getByTestId('band').count()).toBe(0)
+      expect(await page.getByTestId('charge-chart').count()).toBe(0)
+    }
+    // Clearing the optional as-found reading leaves a working calculator.
+    await page.getByLabel(/Gas temperature/).fill('10')
+    await page.getByLabel(/As-found reading/).fill('900')
+    await expect.poll(() => page.getByTestId('verdict').isVisible()).toBe(true)
+    await page.getByLabel(/As-found reading/).fill('')
+    await expect.poll(() => page.getByTestId('target-value').isVisible()).toBe(true)
+    expect(await page.getByTestId('verdict').count()).toBe(0)
+    await page.getByLabel(/Gas temperature/).fill('12')
+    await expect.poll(() => page.getByTestId('charge-result').innerText()).toMatch(/Target at 12(\.0)? °C/i)
+
+    await page.getByRole('button', { name: 'By hand' }).click()
+    await page.getByLabel('Reference pre-charge', { exact: true }).fill('1000')
+    await page.getByLabel(/At temperature/).fill('21')
+    await expect.poll(() => page.getByTestId('target-value').isVisible()).toBe(true)
+    await page.getByLabel('Reference pre-charge', { exact: true }).fill('99999')
+    await expect.poll(() => page.getByTestId('charge-result').innerText()).not.toMatch(/Target at/i)
+    expect(await page.getByTestId('target-value').count()).toBe(0)
+    await page.context().close()
+  })
 })

@@ -49,6 +49,11 @@ describe('a sizing study in a real browser', () => {
     const maximum = Number(await page.getByLabel('Maximum pressure').inputValue())
     await page.getByLabel('Minimum pressure').fill(String(maximum * 1.1))
     await expect.poll(() => page.getByTestId('study-error').innerText(), { timeout: 15_000 }).toMatch(/must be below the maximum/)
+    // The results of the figures before are gone, not left under the impossible ones (stale-figure rule).
+    expect(await page.getByTestId('study-results').count()).toBe(0)
+    expect(await page.getByTestId('discharge-chart').count()).toBe(0)
+    await page.getByLabel('Minimum pressure').fill(String(Math.round(maximum * 0.5)))
+    await expect.poll(() => page.getByTestId('study-results').isVisible(), { timeout: 15_000 }).toBe(true)
     await page.context().close()
   })
 })
