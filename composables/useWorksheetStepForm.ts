@@ -26,10 +26,13 @@ export function useWorksheetStepForm<Body extends WorksheetStepBody>(
   watch(form.values, values => drafts.remember(worksheetId, step, values as Record<string, unknown>), { deep: true })
   const status = ref<StepSaveStatus>('idle')
   const message = ref<string | null>(null)
+  /** A confirmation the server asks for before it takes this step (e.g. `confirmedUnchanged`). */
+  const confirmation = ref<string | null>(null)
 
   const save = form.handleSubmit(async (body) => {
     status.value = 'saving'
     message.value = null
+    confirmation.value = null
     try {
       const { worksheet, queued } = await drafts.saveStep(worksheetId, body as WorksheetStepBody)
       if (queued) {
@@ -44,8 +47,9 @@ export function useWorksheetStepForm<Body extends WorksheetStepBody>(
       status.value = 'error'
       form.setErrors(fieldErrors(failure))
       message.value = errorMessage(failure)
+      confirmation.value = (failure as { data?: { data?: { confirm?: string } } })?.data?.data?.confirm ?? null
     }
   })
 
-  return { ...form, save, status, message }
+  return { ...form, save, status, message, confirmation }
 }

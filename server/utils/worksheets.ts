@@ -78,13 +78,31 @@ export async function toWorksheetDto(worksheet: Worksheet): Promise<WorksheetDto
   }
 }
 
-function refuse(message: string, field?: string, status: 409 | 422 = 422): never {
+function refuse(message: string, field?: string, status: 409 | 422 = 422, extra: Record<string, unknown> = {}): never {
   throw createError({
     status,
     statusMessage: status === 409 ? 'Conflict' : 'Unprocessable Entity',
     message,
-    data: field ? { field, issues: [{ path: field.split('.'), field, message }] } : undefined,
+    data: field ? { field, issues: [{ path: field.split('.'), field, message }], ...extra } : undefined,
   })
+}
+
+/**
+ * With no charge or vent, the as-left should read what the as-found did (compared at the same
+ * temperature): beyond twice the gauge's accuracy, or 1 % of the target, something happened that
+ * the record does not say. The technician records the action, or confirms the reading.
+ */
+function checkUnchanged(content: WorksheetContent, results: WorksheetResults, confirmed: boolean | undefined): void {
+  if (content.action?.kind !== 'none' || !results.asFound || !results.asLeft || confirmed) return
+  const unit = results.asLeft.target.unit
+  const moved = Math.abs(results.asLeft.assessment.difference - results.asFound.assessment.difference)
+  const accuracy = content.tools?.gauge.accuracy ? convertPressureDifference(content.tools.gauge.accuracy.value, content.tools.gauge.accuracy.unit, unit) : 0
+  const allowance = Math.max(2 * accuracy, 0.01 * Math.abs(results.asLeft.target.value))
+  if (moved <= allowance) return
+  refuse(
+    `The as-left is ${moved.toFixed(1)} ${unit} away from the as-found (at the same temperature), though no charge or vent was recorded. Go back and record the action you took — or, if this reading is right, confirm it.`,
+    'reading.value', 422, { confirm: 'confirmedUnchanged' },
+  )
 }
 
 function today(): string {
@@ -189,8 +207,9 @@ export async function applyStep(worksheet: Worksheet, step: WorksheetStepBody): 
         refuse(`Let the gas settle to ambient before the as-left reading: ${minutes} more minute(s) (settle time ${content.specification.settleMinutes} min). A reading taken at once reads high.`, 'reading', 409)
       }
       checkBelowSystemPressure(step.reading, content.specification, 'reading.value')
-      content.asLeft = { reading: step.reading, gasTemperature: step.gasTemperature, recordedAt: now }
+      content.asLeft = { reading: step.reading, gasTemperature: step.gasTemperature, recordedAt: now, ...(step.confirmedUnchanged ? { confirmedUnchanged: true } : {}) }
       results.asLeft = assess(content, step.reading, step.gasTemperature, 'gasTemperature')
+      checkUnchanged(content, results, step.confirmedUnchanged)
       break
     }
     case 'finish': {

@@ -1,4 +1,6 @@
 import { z } from 'zod'
+import { unitLabel } from '../gas/format'
+import { convertTemperature } from '../gas/units'
 import {
   ELEVATION_UNITS, INTERVAL_UNITS, PRESSURE_BASES, PRESSURE_UNITS, TEMPERATURE_UNITS, VOLUME_UNITS,
 } from '../gas/types'
@@ -27,6 +29,23 @@ export const temperatureSchema = z.object({
   value: numberField('a temperature'),
   unit: temperatureUnitSchema,
 }, { required_error: 'Enter a temperature.', invalid_type_error: 'Enter a temperature as { value, unit }.' })
+
+/**
+ * Gas temperatures an accumulator is serviced at: −60 °C to +90 °C (common practice, no source:
+ * beyond the cold-soak and hot-ramp temperatures a unit meets). Outside it is a slip or the wrong
+ * unit; the message gives the limits in the unit the value was entered in.
+ */
+export const GAS_TEMPERATURE_RANGE_C = { min: -60, max: 90 }
+
+export const gasTemperatureSchema = temperatureSchema.superRefine((temperature, context) => {
+  const celsius = convertTemperature(temperature, 'C').value
+  if (celsius >= GAS_TEMPERATURE_RANGE_C.min && celsius <= GAS_TEMPERATURE_RANGE_C.max) return
+  const limit = (value: number) => Math.round(convertTemperature({ value, unit: 'C' }, temperature.unit).value)
+  context.addIssue({
+    code: 'custom', path: ['value'],
+    message: `A gas temperature is between ${limit(GAS_TEMPERATURE_RANGE_C.min)} and ${limit(GAS_TEMPERATURE_RANGE_C.max)} ${unitLabel(temperature.unit)}; check the reading and the unit.`,
+  })
+})
 
 export const volumeSchema = z.object({
   value: numberField('a volume').positive('A volume must be above zero.'),

@@ -1,6 +1,6 @@
 import { z } from 'zod'
 import { WORKSHEET_REASONS, WORKSHEET_STATES } from '../types/worksheet'
-import { ambientSchema, numberField, pressureSchema, temperatureSchema } from './quantities'
+import { ambientSchema, gasTemperatureSchema, numberField, pressureSchema } from './quantities'
 
 export const worksheetCreateSchema = z.object({
   accumulatorId: z.number({ required_error: 'Pick the installed accumulator.', invalid_type_error: 'Pick the installed accumulator.' }).int().positive().max(2_147_483_647, 'Not a known id.'),
@@ -28,25 +28,35 @@ export const toolsStepSchema = z.object({
 
 export const conditionsStepSchema = z.object({
   step: z.literal('conditions'),
-  gasTemperature: temperatureSchema,
+  gasTemperature: gasTemperatureSchema,
   temperatureMethod: z.enum(['ambient-shade', 'shell'], { errorMap: () => ({ message: 'Say how the temperature was taken: ambient-shade or shell.' }) }),
-  minutesSinceOperated: numberField('the minutes since the system was last operated').int('Whole minutes.').min(0).max(100000),
+  minutesSinceOperated: numberField('the minutes since the system was last operated').int('Whole minutes, please.')
+    .min(0, 'The minutes since the system was last operated cannot be negative.')
+    .max(43_200, 'At most 43 200 minutes (30 days): the gas has long settled by then; enter 43 200 for anything longer.'),
   ambient: ambientSchema,
 }).strict()
 
-export const asFoundStepSchema = z.object({ step: z.literal('asFound'), reading: pressureSchema }).strict()
+const readingSchema = pressureSchema.refine(pressure => pressure.value > 0, { message: 'A pre-charge reading is above zero.', path: ['value'] })
+
+export const asFoundStepSchema = z.object({ step: z.literal('asFound'), reading: readingSchema }).strict()
 
 export const actionStepSchema = z.object({
   step: z.literal('action'),
   kind: z.enum(['none', 'charge', 'vent'], { errorMap: () => ({ message: 'The action is none, charge or vent.' }) }),
 }).strict()
 
-export const asLeftStepSchema = z.object({ step: z.literal('asLeft'), reading: pressureSchema, gasTemperature: temperatureSchema }).strict()
+export const asLeftStepSchema = z.object({
+  step: z.literal('asLeft'),
+  reading: readingSchema,
+  gasTemperature: gasTemperatureSchema,
+  /** The technician confirms an as-left that moved with no charge or vent recorded. */
+  confirmedUnchanged: z.boolean().optional(),
+}).strict()
 
 export const finishStepSchema = z.object({
   step: z.literal('finish'),
-  valveLeakCheck: z.boolean({ required_error: 'Confirm the charging valve leak check.' }),
-  capFitted: z.boolean({ required_error: 'Confirm the valve cap is fitted.' }),
+  valveLeakCheck: z.literal(true, { errorMap: () => ({ message: 'Leak-check the charging valve (leak-detection fluid, no bubbles) and confirm it.' }) }),
+  capFitted: z.literal(true, { errorMap: () => ({ message: 'Refit the charging valve cap and confirm it.' }) }),
   remarks: z.string().trim().max(2000).default(''),
   unserviceableReference: z.string().trim().max(80).transform(value => value || null).nullable().default(null),
 }).strict()

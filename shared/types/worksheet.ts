@@ -36,7 +36,7 @@ export interface WorksheetContent {
   conditions?: { gasTemperature: Temperature, temperatureMethod: 'ambient-shade' | 'shell', minutesSinceOperated: number, ambient: Ambient }
   asFound?: { reading: Pressure, recordedAt: string }
   action?: { kind: 'none' | 'charge' | 'vent', recordedAt: string }
-  asLeft?: { reading: Pressure, gasTemperature: Temperature, recordedAt: string }
+  asLeft?: { reading: Pressure, gasTemperature: Temperature, recordedAt: string, /** Confirmed by the technician: moved with no action recorded. */ confirmedUnchanged?: boolean }
   finish?: { valveLeakCheck: boolean, capFitted: boolean, remarks: string, unserviceableReference: string | null, recordedAt: string }
 }
 

@@ -1,0 +1,113 @@
+/**
+ * Each worksheet step refuses its own bad input, on its own field, in the trade's words and in
+ * the unit the technician used; and asks before recording an as-left that moved with no action.
+ */
+import type { Browser, Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { launchBrowser, signedInPage } from '../support/browser'
+
+let browser: Browser
+beforeAll(async () => {
+  browser = await launchBrowser()
+})
+afterAll(async () => {
+  await browser?.close()
+})
+
+async function openNewWorksheet(page: Page, registration: RegExp, position: RegExp) {
+  await page.goto('/worksheets/new')
+  await page.getByRole('button', { name: registration }).click()
+  await page.getByRole('button', { name: position }).click()
+  await page.getByLabel('Work order').fill(`WO-STEP-${Date.now()}`)
+  await page.getByRole('button', { name: 'Start worksheet' }).click()
+  await page.waitForURL(url => /\/worksheets\/\d+$/.test(url.pathname))
+  for (const check of ['systemDepressurised', 'aircraftSafe', 'eyeProtection']) {
+    await page.getByTestId(`confirm-${check}`).click()
+    await expect.poll(() => page.getByTestId(`confirm-${check}`).getAttribute('aria-pressed')).toBe('true')
+  }
+  // The last confirmation completes the step and moves on.
+  await page.getByTestId('confirm-nitrogenOnly').click()
+  await expect.poll(() => page.getByRole('heading', { name: '2 · Tools' }).isVisible()).toBe(true)
+  await page.getByRole('button', { name: /GA-0141(?!B)/ }).click()
+  await page.getByRole('button', { name: /NC-07/ }).click()
+  await page.getByRole('button', { name: 'Save and continue' }).click()
+  await expect.poll(() => page.getByRole('heading', { name: '3 · Conditions' }).isVisible()).toBe(true)
+}
+
+const goTo = (page: Page, label: RegExp) => page.getByRole('navigation', { name: 'Worksheet steps' }).getByRole('button', { name: label }).click()
+
+describe('per-step refusals', () => {
+  it('Conditions refuses an impossible gas temperature and minutes on their own fields, in the user\'s unit', async () => {
+    const page = await signedInPage(browser, 'technician@chargewell.test')
+    await openNewWorksheet(page, /QX-FMK/, /System 1/)
+    await page.getByLabel(/Gas temperature/).fill('-300')
+    await page.getByLabel(/Minutes since/).fill('-5')
+    await page.getByRole('button', { name: 'Save and continue' }).click()
+    const form = page.locator('form').filter({ has: page.getByLabel(/Minutes since/) })
+    await expect.poll(() => form.innerText()).toMatch(/A gas temperature is between -60 and 90 °C/)
+    expect(await form.innerText()).toMatch(/cannot be negative/)
+    expect(await form.innerText()).not.toMatch(/greater than or equal/)
+    await page.getByLabel(/Minutes since/).fill('99999')
+    await page.getByRole('button', { name: 'Save and continue' }).click()
+    await expect.poll(() => form.innerText()).toMatch(/At most 43 200 minutes/)
+    // Still on Conditions: nothing was saved.
+    expect(await page.getByRole('heading', { name: '3 · Conditions' }).isVisible()).toBe(true)
+    await page.context().close()
+  })
+
+  it('Finish is refused without the leak check and the cap, on each box; ticks made before the as-left are kept', async () => {
+    const page = await signedInPage(browser, 'technician@chargewell.test')
+    await openNewWorksheet(page, /QX-FMK/, /System 2/)
+    await page.getByLabel(/Gas temperature/).fill('12')
+    await page.getByLabel(/Minutes since/).fill('60')
+    await page.getByRole('button', { name: 'Save and continue' }).click()
+    await page.getByLabel(/As-found reading/).fill('1420')
+    await page.getByRole('button', { name: 'Record as-found' }).click()
+    await expect.poll(() => page.getByTestId('result-as-found').isVisible()).toBe(true)
+    await page.getByRole('button', { name: 'Next: Action' }).click()
+    await page.getByRole('button', { name: /No action/ }).click()
+    // Ahead to Finish, tick one box, back to the as-left, then Finish again.
+    await goTo(page, /Finish/)
+    await page.getByRole('button', { name: /Charging valve leak-checked/ }).click()
+    await page.getByRole('button', { name: 'Save and continue' }).click()
+    await expect.poll(() => page.getByTestId('error-capFitted').innerText()).toMatch(/Refit the charging valve cap/)
+    await goTo(page, /as-left/i)
+    await page.getByRole('button', { name: 'Record as-left' }).click()
+    await expect.poll(() => page.getByTestId('result-as-left').isVisible()).toBe(true)
+    await goTo(page, /Finish/)
+    expect(await page.getByRole('button', { name: /Charging valve leak-checked/ }).getAttribute('aria-pressed')).toBe('true')
+    await page.context().close()
+  })
+
+  it('asks before recording an as-left that moved with no charge or vent, and records it once confirmed', async () => {
+    const page = await signedInPage(browser, 'technician@chargewell.test')
+    await openNewWorksheet(page, /QX-FML/, /System 1/)
+    await page.getByLabel(/Gas temperature/).fill('12')
+    await page.getByLabel(/Minutes since/).fill('60')
+    await page.getByRole('button', { name: 'Save and continue' }).click()
+    await page.getByLabel(/As-found reading/).fill('1420')
+    await page.getByRole('button', { name: 'Record as-found' }).click()
+    await expect.poll(() => page.getByTestId('result-as-found').isVisible()).toBe(true)
+    await page.getByRole('button', { name: 'Next: Action' }).click()
+    await page.getByRole('button', { name: /No action/ }).click()
+    await page.getByLabel(/As-left reading/).fill('1490')
+    await page.getByRole('button', { name: 'Record as-left' }).click()
+    await expect.poll(() => page.getByTestId('step-message').innerText()).toMatch(/70\.0 psi away from the as-found[\s\S]*no charge or vent was recorded/)
+    await page.getByTestId('confirm-unchanged').getByRole('button', { name: /The reading is right/ }).click()
+    await expect.poll(() => page.getByTestId('result-as-left').isVisible()).toBe(true)
+    await page.context().close()
+  })
+
+  it('a reading above the unit\'s working pressure is refused as system pressure, in the unit typed', async () => {
+    const page = await signedInPage(browser, 'technician@chargewell.test')
+    await openNewWorksheet(page, /QX-FMJ/, /System 2/)
+    await page.getByLabel(/Gas temperature/).fill('12')
+    await page.getByLabel(/Minutes since/).fill('60')
+    await page.getByRole('button', { name: 'Save and continue' }).click()
+    await page.getByLabel(/As-found reading/).fill('3990')
+    await page.getByRole('button', { name: 'Record as-found' }).click()
+    await expect.poll(() => page.locator('form').filter({ has: page.getByLabel(/As-found reading/) }).innerText()).toMatch(/3990 psi is above the unit's maximum working pressure[\s\S]*Depressurise/)
+    expect(await page.getByTestId('result-as-found').count()).toBe(0)
+    await page.context().close()
+  })
+})
