@@ -5,6 +5,7 @@ import * as trends from '../migrations/0002-trends'
 import * as recordIntegrity from '../migrations/0003-record-integrity'
 import * as sessions from '../migrations/0004-sessions'
 import * as scale from '../migrations/0005-scale'
+import * as traceability from '../migrations/0006-traceability'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -13,6 +14,7 @@ const MIGRATIONS = [
   { name: '0003-record-integrity', ...recordIntegrity },
   { name: '0004-sessions', ...sessions },
   { name: '0005-scale', ...scale },
+  { name: '0006-traceability', ...traceability },
 ]
 
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */

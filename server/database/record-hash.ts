@@ -12,13 +12,15 @@ import {
  * a user's display preferences and session version) are left out.
  */
 interface Child { model: ModelStatic<Model>, foreignKey: string, name: string, exclude?: string[] }
-interface RecordKind { model: ModelStatic<Model>, exclude: string[], children: Child[] }
+/** `omitWhenNull`: columns added later, left out while empty so records written before them keep their hash. */
+interface RecordKind { model: ModelStatic<Model>, exclude: string[], children: Child[], omitWhenNull?: string[] }
 
 export const RECORD_KINDS = {
   'worksheet': {
     model: Worksheet as ModelStatic<Model>,
     // The list's columns are derived from content and results, which are hashed.
-    exclude: ['updatedAt', 'registration', 'fleetNumber', 'position', 'partNumber', 'serialNumber', 'asFoundVerdict', 'asLeftVerdict'],
+    exclude: ['updatedAt', 'registration', 'fleetNumber', 'position', 'partNumber', 'serialNumber', 'asFoundVerdict', 'asLeftVerdict', 'gaugeId', 'cartId'],
+    omitWhenNull: ['clientId'],
     children: [
       { model: Signature as ModelStatic<Model>, foreignKey: 'worksheetId', name: 'signatures' },
       { model: Attachment as ModelStatic<Model>, foreignKey: 'worksheetId', name: 'attachments' },
@@ -37,7 +39,13 @@ export const RECORD_KINDS = {
     exclude: ['updatedAt'],
     children: [{ model: AccumulatorInstallation as ModelStatic<Model>, foreignKey: 'accumulatorId', name: 'installations' }],
   },
-  'cycle-check': { model: CycleCheck as ModelStatic<Model>, exclude: [], children: [] },
+  'cycle-check': {
+    model: CycleCheck as ModelStatic<Model>,
+    // The version counts writes, each of which is in the chain with the content it left.
+    exclude: ['updatedAt', 'version'],
+    omitWhenNull: ['withdrawnAt', 'withdrawnReason', 'withdrawnById'],
+    children: [],
+  },
 } satisfies Record<string, RecordKind>
 
 export type RecordKindName = keyof typeof RECORD_KINDS
@@ -63,8 +71,9 @@ export function sha256(text: string): string {
   return createHash('sha256').update(text).digest('hex')
 }
 
-function plain(row: Model, exclude: string[] = []): Record<string, unknown> {
-  return Object.fromEntries(Object.entries(row.get({ plain: true }) as Record<string, unknown>).filter(([key]) => !exclude.includes(key)))
+function plain(row: Model, exclude: string[] = [], omitWhenNull: string[] = []): Record<string, unknown> {
+  return Object.fromEntries(Object.entries(row.get({ plain: true }) as Record<string, unknown>)
+    .filter(([key, value]) => !exclude.includes(key) && !(value === null && omitWhenNull.includes(key))))
 }
 
 // Map.groupBy arrives with Node 21.
@@ -89,7 +98,7 @@ export async function recordHashes(kind: RecordKindName, ids: number[], transact
   const hashes = new Map<number, string>()
   for (const row of rows) {
     const id = row.get('id') as number
-    const snapshot: Record<string, unknown> = plain(row, definition.exclude)
+    const snapshot: Record<string, unknown> = plain(row, definition.exclude, definition.omitWhenNull)
     definition.children.forEach((child, index) => {
       snapshot[child.name] = (childrenOf[index]!.get(id) ?? []).map(candidate => plain(candidate, child.exclude))
     })

@@ -12,7 +12,14 @@ export class CycleCheck extends Model<InferAttributes<CycleCheck>, InferCreation
   declare intervalSeconds: number
   declare engineVersion: string
   declare recordedById: ForeignKey<number>
+  /** Row version: a correction names the version it read (compare-and-set). */
+  declare version: CreationOptional<number>
+  /** Withdrawn checks are kept, with why and by whom, and left out of the trend. */
+  declare withdrawnAt: CreationOptional<Date | null>
+  declare withdrawnReason: CreationOptional<string | null>
+  declare withdrawnById: CreationOptional<number | null>
   declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date | null>
 
   static initModel(sequelize: Sequelize): void {
     CycleCheck.init({
@@ -26,7 +33,12 @@ export class CycleCheck extends Model<InferAttributes<CycleCheck>, InferCreation
       intervalSeconds: { type: DataTypes.FLOAT, allowNull: false },
       engineVersion: { type: DataTypes.STRING(20), allowNull: false },
       recordedById: { type: DataTypes.INTEGER, allowNull: false },
+      version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+      withdrawnAt: { type: DataTypes.DATE, allowNull: true },
+      withdrawnReason: { type: DataTypes.TEXT, allowNull: true },
+      withdrawnById: { type: DataTypes.INTEGER, allowNull: true },
       createdAt: DataTypes.DATE,
-    }, { sequelize, tableName: 'cycle_checks', underscored: true, updatedAt: false })
+      updatedAt: { type: DataTypes.DATE, allowNull: true },
+    }, { sequelize, tableName: 'cycle_checks', underscored: true })
   }
 }

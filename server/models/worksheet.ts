@@ -7,7 +7,11 @@ import type { Signature } from './signature'
 
 /** The list's columns as the content and results give them; set on every write that changes either. */
 export function listColumns(content: Record<string, unknown>, results: Record<string, unknown>) {
-  const frozen = content as { aircraft?: { registration?: string, fleetNumber?: string }, accumulator?: { position?: string, partNumber?: string, serialNumber?: string } }
+  const frozen = content as {
+    aircraft?: { registration?: string, fleetNumber?: string }
+    accumulator?: { position?: string, partNumber?: string, serialNumber?: string }
+    tools?: { gauge?: { id?: number }, cart?: { id?: number } }
+  }
   const computed = results as { asFound?: { assessment?: { verdict?: string } }, asLeft?: { assessment?: { verdict?: string } } }
   return {
     registration: frozen.aircraft?.registration ?? null,
@@ -17,6 +21,8 @@ export function listColumns(content: Record<string, unknown>, results: Record<st
     serialNumber: frozen.accumulator?.serialNumber ?? null,
     asFoundVerdict: computed.asFound?.assessment?.verdict ?? null,
     asLeftVerdict: computed.asLeft?.assessment?.verdict ?? null,
+    gaugeId: frozen.tools?.gauge?.id ?? null,
+    cartId: frozen.tools?.cart?.id ?? null,
   }
 }
 
@@ -57,6 +63,10 @@ export class Worksheet extends Model<InferAttributes<Worksheet>, InferCreationAt
   declare serialNumber: CreationOptional<string | null>
   declare asFoundVerdict: CreationOptional<string | null>
   declare asLeftVerdict: CreationOptional<string | null>
+  declare gaugeId: CreationOptional<number | null>
+  declare cartId: CreationOptional<number | null>
+  /** The id a device gave a worksheet it started without a connection (a sync sent twice creates it once). */
+  declare clientId: CreationOptional<string | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
   declare signatures?: NonAttribute<Signature[]>
@@ -89,6 +99,9 @@ export class Worksheet extends Model<InferAttributes<Worksheet>, InferCreationAt
       serialNumber: { type: DataTypes.STRING(60), allowNull: true },
       asFoundVerdict: { type: DataTypes.STRING(12), allowNull: true },
       asLeftVerdict: { type: DataTypes.STRING(12), allowNull: true },
+      gaugeId: { type: DataTypes.INTEGER, allowNull: true },
+      cartId: { type: DataTypes.INTEGER, allowNull: true },
+      clientId: { type: DataTypes.STRING(36), allowNull: true },
       version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
       round: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
       createdAt: DataTypes.DATE,

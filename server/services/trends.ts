@@ -44,8 +44,8 @@ export async function trendAfterSpecificationChange(partNumber: string): Promise
 /** A pump cycle check was recorded: its system's interval trend raises or clears its alert. */
 export async function trendAfterCycleCheck(aircraftId: number, system: string, transaction: Transaction): Promise<AlertChange[]> {
   const [trend] = await cycleTrends({ aircraftId, system }, transaction)
-  if (!trend) return []
-  const change = await syncAlert('cycle', `cycle:${aircraftId}:${system}`, trend.flagged, `${trend.registration} ${system}: ${trend.message ?? ''}`, transaction)
+  // Every check withdrawn: nothing is left to flag.
+  const change = await syncAlert('cycle', `cycle:${aircraftId}:${system}`, trend?.flagged ?? false, `${trend?.registration ?? ''} ${system}: ${trend?.message ?? ''}`, transaction)
   return change ? [change] : []
 }
 
@@ -138,7 +138,8 @@ export async function unitTrend(accumulatorId: number): Promise<UnitTrendDto> {
 /** Pump cycle interval trends per aircraft system, against each system's own baseline. */
 export async function cycleTrends(only?: { aircraftId: number, system: string }, transaction?: Transaction): Promise<CycleTrend[]> {
   const checks = await CycleCheck.findAll({
-    where: only ?? {},
+    // Withdrawn checks are kept, but say nothing about the system.
+    where: { ...only, withdrawnAt: null },
     attributes: ['aircraftId', 'accumulatorId', 'system', 'checkedAt', 'intervalSeconds', 'results'],
     include: [{ model: Aircraft, as: 'aircraft', attributes: ['registration'] }],
     order: [['checkedAt', 'ASC']],

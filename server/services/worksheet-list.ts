@@ -58,6 +58,7 @@ export function worksheetFilter(query: Partial<Filters>, walkSortOrder = false):
   if (query.accumulatorId) parts.push({ accumulatorId: query.accumulatorId })
   if (query.state) parts.push({ state: query.state })
   if (query.performerId) parts.push({ performerId: query.performerId })
+  if (query.toolId) parts.push({ [Op.or]: [{ gaugeId: query.toolId }, { cartId: query.toolId }] })
   if (query.from) parts.push({ createdAt: { [Op.gte]: new Date(`${query.from}T00:00:00Z`) } })
   if (query.to) parts.push({ createdAt: { [Op.lt]: new Date(Date.parse(`${query.to}T00:00:00Z`) + 86_400_000) } })
   if (query.q) parts.push(searchCondition(query.q, walkSortOrder))

@@ -1,7 +1,7 @@
 import { Op, UniqueConstraintError, type InferCreationAttributes, type Transaction } from 'sequelize'
 import type { WorksheetCreateBody, WorksheetStepBody } from '../../shared/schemas/worksheet'
 import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT, WORKSHEET_STATE_LABELS, type WorksheetContent, type WorksheetResults, type WorksheetState } from '../../shared/types/worksheet'
-import { canCorrect, canEdit, canInspect, canVoid, EDITABLE_STATES } from '../../shared/utils/worksheet-rules'
+import { canCorrect, canDiscard, canEdit, canInspect, canVoid, EDITABLE_STATES } from '../../shared/utils/worksheet-rules'
 import { appendAudit } from '../database/audit-chain'
 import { Accumulator, Aircraft, Signature, Specification, SpecificationTablePoint, User as UserModel, Worksheet, listColumns, type User } from '../models'
 import { mailAlerts, trendAfterRelease, trendAfterVoid } from './trends'
@@ -193,4 +193,16 @@ export async function voidWorksheet(actor: Actor, id: number, reason: string, ex
     return trendAfterVoid(worksheet, previousState, transaction)
   })
   await mailAlerts(alerts)
+}
+
+/** The performer discards a draft that was never signed: kept, marked voided, with the reason. */
+export async function discardWorksheet(actor: Actor, id: number, reason: string, expectedVersion?: number): Promise<void> {
+  await writeTransaction(async (transaction) => {
+    const worksheet = await lockedWorksheet(id, transaction)
+    enforce(canDiscard(actor, worksheet))
+    checkVersion(worksheet, expectedVersion)
+    const voidReason = `Discarded by the performer before signing${reason ? `: ${reason}` : '.'}`
+    await compareAndSet(worksheet, ['draft'], { state: 'voided', voidReason, voidedById: actor.id }, transaction)
+    await audit(actor, worksheet, 'discarded', { reason }, transaction)
+  })
 }

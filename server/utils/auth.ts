@@ -1,4 +1,5 @@
 import type { H3Event } from 'h3'
+import { can, refusal, type Ability } from '../../shared/abilities'
 import type { Role } from '../../shared/types/user'
 import type { User } from '../models'
 import { liveSession, SessionEnded } from '../services/sessions'
@@ -35,4 +36,14 @@ export async function requireRole(event: H3Event, ...roles: Role[]): Promise<Use
 
 export function sessionUser(user: User) {
   return { id: user.id, name: user.name, email: user.email, roles: user.roles }
+}
+
+/**
+ * The gate by ability (shared/abilities.ts): 401 without a live session, 403 when the user's
+ * roles do not hold the ability, with the roles that do in the message.
+ */
+export async function requireAbility(event: H3Event, ability: Ability = 'account.own'): Promise<User> {
+  const user = await requireRole(event)
+  if (!can(user.roles, ability)) throw createError({ status: 403, statusMessage: 'Forbidden', message: refusal(ability) })
+  return user
 }

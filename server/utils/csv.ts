@@ -23,7 +23,7 @@ export function unguardCell(value: string): string {
 
 function download(event: H3Event, name: string): void {
   setResponseHeader(event, 'content-type', 'text/csv; charset=utf-8')
-  setResponseHeader(event, 'content-disposition', `attachment; filename="chargewell-${name}-${new Date().toISOString().slice(0, 10)}.csv"`)
+  setResponseHeader(event, 'content-disposition', `attachment; filename="chargewell-${name}-${stationToday()}.csv"`)
 }
 
 /** Rows (objects) as a CSV download with these columns, in this order. */

@@ -141,11 +141,3 @@ export class PdfWriter {
     return document.save()
   }
 }
-
-export const CAUTIONS = [
-  'High-pressure nitrogen can kill.',
-  'Use only dry, oil-free nitrogen — never oxygen or shop air.',
-  'Depressurise the hydraulic system first.',
-  'Charge through a regulator, slowly. Wear eye protection. Stay clear of the valve line.',
-  'Every figure is an aid: the approved maintenance data, the operator\'s procedures and local regulations govern.',
-]

@@ -1,9 +1,9 @@
 import type { InstalledUnitDto } from '../../shared/types/fleet'
-import type { SpecificationDto } from '../../shared/types/registers'
+import type { SpecificationDto, ToolDto } from '../../shared/types/registers'
 import type { Transaction } from 'sequelize'
 import type { SpecificationBody } from '../../shared/schemas/registers'
 import { appendAudit } from '../database/audit-chain'
-import { Specification, SpecificationTablePoint, type Accumulator, type Tool } from '../models'
+import { Specification, SpecificationTablePoint, TrendAlert, type Accumulator, type Tool } from '../models'
 
 export function toSpecificationDto(specification: Specification): SpecificationDto {
   const { createdAt: _created, updatedAt: _updated, supersedesId: _supersedes, tablePoints, ...fields } = specification.get({ plain: true }) as Specification
@@ -19,6 +19,10 @@ export function toSpecificationDto(specification: Specification): SpecificationD
 export async function toInstalledUnits(rows: Accumulator[]): Promise<InstalledUnitDto[]> {
   const current = await Specification.findAll({ where: { status: 'current', partNumber: [...new Set(rows.map(row => row.partNumber))] }, attributes: ['id', 'partNumber'] })
   const specificationFor = new Map(current.map(specification => [specification.partNumber, specification.id]))
+  // Open trend alerts on the unit (gas loss) and on its system (pump cycles): a technician about to service it is told.
+  const subjectsOf = (row: Accumulator) => [`precharge:${row.id}`, ...(row.aircraftId && row.system ? [`cycle:${row.aircraftId}:${row.system}`] : [])]
+  const open = await TrendAlert.findAll({ where: { clearedAt: null, subject: rows.flatMap(subjectsOf) }, attributes: ['subject', 'message'] })
+  const alertFor = new Map(open.map(alert => [alert.subject, alert.message]))
   return rows.map(row => ({
     id: row.id,
     partNumber: row.partNumber,
@@ -28,6 +32,7 @@ export async function toInstalledUnits(rows: Accumulator[]): Promise<InstalledUn
     installedAt: row.installedAt,
     aircraft: row.aircraft ? { id: row.aircraft.id, registration: row.aircraft.registration, fleetNumber: row.aircraft.fleetNumber, type: row.aircraft.type, base: row.aircraft.base } : null,
     specificationId: specificationFor.get(row.partNumber) ?? null,
+    alerts: subjectsOf(row).flatMap(subject => alertFor.has(subject) ? [alertFor.get(subject)!] : []),
   }))
 }
 
@@ -48,10 +53,11 @@ export async function createRevision(body: SpecificationBody, supersedesId: numb
   return toSpecificationDto(reloaded!)
 }
 
-export function toToolDto(tool: Tool) {
-  const today = new Date().toISOString().slice(0, 10)
+export function toToolDto(tool: Tool): ToolDto {
+  const today = stationToday()
+  const { createdAt: _created, updatedAt: _updated, ...fields } = tool.get({ plain: true })
   return {
-    ...tool.get({ plain: true }),
+    ...fields,
     calibrationExpired: tool.calibrationDue !== null && tool.calibrationDue < today,
     calibrationMissing: tool.kind === 'gauge' && tool.calibrationDue === null,
   }

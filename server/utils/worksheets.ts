@@ -105,16 +105,12 @@ function checkUnchanged(content: WorksheetContent, results: WorksheetResults, co
   )
 }
 
-function today(): string {
-  return new Date().toISOString().slice(0, 10)
-}
-
 /** A gauge or cart as the worksheet freezes it; refuses an expired or missing calibration with the reason. */
 async function toolSnapshot(id: number, kind: 'gauge' | 'cart', field: string): Promise<ToolSnapshot> {
   const tool = await Tool.findByPk(id)
   if (!tool || tool.kind !== kind || !tool.active) refuse(`No active ${kind === 'gauge' ? 'gauge' : 'nitrogen cart'} with that id in the tool register.`, field)
   if (kind === 'gauge' && !tool.calibrationDue) refuse(`Gauge ${tool.assetNumber} has no calibration record: it cannot be used until it is calibrated.`, field)
-  if (tool.calibrationDue && tool.calibrationDue < today()) {
+  if (tool.calibrationDue && tool.calibrationDue < stationToday()) {
     refuse(`${kind === 'gauge' ? 'Gauge' : 'Cart'} ${tool.assetNumber}: calibration expired on ${tool.calibrationDue}. Use another one and quarantine this one.`, field)
   }
   const accuracy = gaugeAccuracy(tool)

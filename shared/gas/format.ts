@@ -32,8 +32,9 @@ export function formatPressure(pressure: Pressure): string {
   return `${formatPressureValue(pressure.value, pressure.unit)} ${pressureUnitLabel(pressure.unit, pressure.basis)}`
 }
 
+/** A temperature to a tenth of a degree, whatever its size (100.4 °F stays 100.4 °F). */
 export function formatTemperature(temperature: Temperature): string {
-  return `${formatNumber(temperature.value, 3)} ${unitLabel(temperature.unit)}`
+  return `${Number.isFinite(temperature.value) ? temperature.value.toFixed(1) : '—'} ${unitLabel(temperature.unit)}`
 }
 
 export function formatVolume(volume: Volume, significant = 4): string {

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import './plain-words'
 import { ROLES } from '../types/user'
 import { numberField, pressureUnitSchema } from './quantities'
 

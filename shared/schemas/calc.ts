@@ -1,4 +1,5 @@
 import { z, type ZodRawShape } from 'zod'
+import './plain-words'
 import {
   ambientSchema, gasModelSchema, intervalSchema, numberField, pressureSchema, pressureUnitSchema, processSchema, temperatureSchema,
   toleranceSchema, volumeSchema, volumeUnitSchema,

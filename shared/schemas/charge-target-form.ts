@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import './plain-words'
 import { numberField, pressureBasisSchema, pressureUnitSchema } from './quantities'
 
 /** An optional number as an input holds it: emptied ('' or NaN) means not given. */

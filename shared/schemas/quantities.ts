@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import './plain-words'
 import { unitLabel } from '../gas/format'
 import { convertTemperature } from '../gas/units'
 import {

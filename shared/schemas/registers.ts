@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { csvRow } from './plain-words'
 import { convertPressureDifference } from '../gas/units'
 import { ACCUMULATOR_TYPES, CORRECTION_METHODS, TOOL_KINDS } from '../types/registers'
 import { numberField, pressureBasisSchema, pressureUnitSchema, temperatureUnitSchema, volumeUnitSchema } from './quantities'
@@ -176,25 +177,25 @@ export const toolQuerySchema = z.object({
 const cell = {
   text: z.string().trim(),
   optionalText: z.string().trim().transform(value => value || null),
-  number: z.string().trim().min(1, 'Give a number.').transform(Number).pipe(z.number({ invalid_type_error: 'Not a number.' }).finite('Not a number.')),
-  optionalNumber: z.string().trim().transform(value => value === '' ? null : Number(value)).pipe(z.number().finite('Not a number.').nullable()),
+  number: z.string({ required_error: 'The column is missing or the cell is empty.' }).trim().min(1, 'Give a number.').transform(Number)
+    .pipe(z.number({ invalid_type_error: 'Not a number.' }).finite('Not a number.')),
+  optionalNumber: z.string().trim().transform(value => value === '' ? null : Number(value)).pipe(z.number({ invalid_type_error: 'Not a number.' }).finite('Not a number.').nullable()),
   boolean: z.string().trim().toLowerCase().transform(value => value === '' || ['true', 'yes', '1'].includes(value)),
 }
 
-export const aircraftCsvRow = z.object({ registration: cell.text, fleetNumber: cell.text, type: cell.text, base: cell.text, active: cell.boolean.default('true') })
-  .pipe(aircraftSchema)
+export const aircraftCsvRow = csvRow({ registration: cell.text, fleetNumber: cell.text, type: cell.text, base: cell.text, active: cell.boolean.default('true') }, aircraftSchema)
 
 export const accumulatorCsvRow = z.object({
   partNumber: cell.text, serialNumber: cell.text, system: cell.optionalText.default(''),
   registration: cell.optionalText.default(''), position: cell.optionalText.default(''), installedAt: cell.optionalText.default(''),
 })
 
-export const toolCsvRow = z.object({
+export const toolCsvRow = csvRow({
   kind: cell.text, assetNumber: cell.text, description: cell.text,
   rangeMax: cell.optionalNumber.default(''), rangeUnit: cell.optionalText.default(''), resolution: cell.optionalNumber.default(''),
   accuracy: cell.optionalNumber.default(''), accuracyUnit: cell.optionalText.default(''), calibrationDue: cell.optionalText.default(''),
   active: cell.boolean.default('true'),
-}).pipe(toolSchema)
+}, toolSchema)
 
 /** Table points in one cell: "-40 C 1170; 0 C 1390; 20 C 1500". */
 const tablePointsCell = z.string().trim().transform((value, context) => {
@@ -209,7 +210,7 @@ const tablePointsCell = z.string().trim().transform((value, context) => {
   })
 })
 
-export const specificationCsvRow = z.object({
+export const specificationCsvRow = csvRow({
   partNumber: cell.text, revision: cell.text, title: cell.text, accumulatorType: cell.text,
   gasVolume: cell.number, gasVolumeUnit: cell.text, pressureUnit: cell.text, pressureBasis: cell.text,
   referencePressure: cell.number, referenceTemperature: cell.number, referenceTemperatureUnit: cell.text,
@@ -217,4 +218,4 @@ export const specificationCsvRow = z.object({
   gasModel: cell.text.default('real'), maxPressure: cell.number, minPressure: cell.number, settleMinutes: cell.number,
   checkIntervalDays: cell.optionalNumber.default(''), lossThresholdPerDay: cell.optionalNumber.default(''),
   dataReference: cell.text, dataRevision: cell.text, tablePoints: tablePointsCell.default(''),
-}).pipe(specificationSchema)
+}, specificationSchema)

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import './plain-words'
 import { ACCUMULATOR_TYPES } from '../types/registers'
 import {
   ambientSchema, gasModelSchema, pressureSchema, processSchema, temperatureSchema, volumeSchema,

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import './plain-words'
 import { WORKSHEET_REASONS, WORKSHEET_STATES } from '../types/worksheet'
 import { ambientSchema, gasTemperatureSchema, numberField, pressureSchema } from './quantities'
 
@@ -81,6 +82,8 @@ const worksheetFilterFields = {
   accumulatorId: z.coerce.number().int().positive().max(2_147_483_647, 'Not a known id.').optional(),
   state: z.enum(WORKSHEET_STATES).optional(),
   performerId: z.coerce.number().int().positive().max(2_147_483_647, 'Not a known id.').optional(),
+  /** Worksheets done with this gauge or nitrogen cart (a tool's traceability). */
+  toolId: z.coerce.number().int().positive().max(2_147_483_647, 'Not a known id.').optional(),
   from: z.string().date('Use a date like 2026-01-31.').optional(),
   to: z.string().date('Use a date like 2026-01-31.').optional(),
   /** Start of a work order, registration, serial number or part number, any case. */
@@ -99,3 +102,8 @@ export const worksheetListQuerySchema = z.object({
 /** The same filters for the CSV export, which has every matching row and no pages. */
 export const worksheetExportQuerySchema = z.object(worksheetFilterFields).strict()
 export type WorksheetListQuery = z.infer<typeof worksheetListQuerySchema>
+
+/** Discarding a draft: the reason is optional (a slip, the wrong unit); the record says it was discarded. */
+export const discardSchema = z.object({
+  reason: z.string().trim().max(500).default(''),
+}).strict()

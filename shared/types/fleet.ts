@@ -8,4 +8,9 @@ export interface InstalledUnitDto {
   installedAt: string | null
   aircraft: { id: number, registration: string, fleetNumber: string, type: string, base: string } | null
   specificationId: number | null
+  /** Open trend alerts on the unit or its system, in words (a gas leak, shortening pump cycles). */
+  alerts: string[]
 }
+
+/** The values the fleet's filters offer, read from the register. */
+export interface FleetOptions { types: string[], bases: string[] }

@@ -42,3 +42,20 @@ export interface SpecificationDto {
   dataRevision: string
   tablePoints: { temperature: number, temperatureUnit: TemperatureUnit, pressure: number }[]
 }
+
+/** A gauge or nitrogen cart as the API answers it, with its calibration state at the station today. */
+export interface ToolDto {
+  id: number
+  kind: ToolKind
+  assetNumber: string
+  description: string
+  rangeMax: number | null
+  rangeUnit: PressureUnit | null
+  resolution: number | null
+  accuracy: number | null
+  accuracyUnit: PressureUnit | '%FS' | null
+  calibrationDue: string | null
+  active: boolean
+  calibrationExpired: boolean
+  calibrationMissing: boolean
+}

@@ -33,3 +33,22 @@ export interface FleetTrendRow {
   reasons: string[]
   services: number
 }
+
+/** One pump cycle check as the API answers it (`/api/cycle-checks`). */
+export interface CycleCheckDto {
+  id: number
+  /** Row version: send it back as If-Match with a correction or withdrawal. */
+  version: number
+  aircraftId: number
+  registration: string | null
+  system: string
+  accumulatorId: number
+  checkedAt: string
+  intervalSeconds: number
+  inputs: import('../schemas/cycle-check').CycleCheckBody
+  results: { fluidReleased: { value: number, unit: string }, leakRate: { value: number, unit: string }, warnings: string[], method: string }
+  engineVersion: string
+  recordedById: number
+  withdrawnAt: string | null
+  withdrawnReason: string | null
+}

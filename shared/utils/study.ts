@@ -14,12 +14,16 @@ export interface StudyRow {
   curve?: Pick<DischargeCurveResult, 'delivered' | 'pressure' | 'applications'>
   sweep?: Pick<PrechargeSweepResult, 'precharge' | 'usable' | 'optimum'>
   required?: { gasVolume: Volume, applications?: number }
+  /** Against the required number of applications, when one is given: does this temperature give them? */
+  verdict?: { required: number, delivered: number, meets: boolean }
   /** Why this temperature could not be computed (e.g. outside the model's range). */
   error?: string
 }
 
 export interface StudyResults {
   rows: StudyRow[]
+  /** The study's answer to "does it give the required applications?" across the envelope. */
+  verdict?: { required: number, meets: boolean, message: string }
   method: string
   engineVersion: string
 }
@@ -46,12 +50,24 @@ export function computeStudy(input: StudyInput): StudyResults {
         const answer = requiredVolume({ ...withoutVolume, ...(inverse.usable ? { usable: inverse.usable } : { applications: inverse.applications }) })
         required = { gasVolume: answer.gasVolume, applications: answer.check.applications }
       }
-      return { label, temperature, result, curve: { delivered, pressure, applications }, sweep: { precharge, usable, optimum }, required }
+      const verdict = inverse?.applications && result.applications !== undefined
+        ? { required: inverse.applications, delivered: result.applications, meets: result.applications >= inverse.applications }
+        : undefined
+      return { label, temperature, result, curve: { delivered, pressure, applications }, sweep: { precharge, usable, optimum }, required, verdict }
     }
     catch (error) {
       if (error instanceof EngineInputError && error.field !== 'minPressure' && error.field !== 'precharge') return { label, temperature, error: error.message }
       throw error
     }
   })
-  return { rows, method: rows.find(row => row.result)?.result?.method ?? '', engineVersion: ENGINE_VERSION }
+  return { rows, verdict: envelopeVerdict(rows, inverse?.applications), method: rows.find(row => row.result)?.result?.method ?? '', engineVersion: ENGINE_VERSION }
+}
+
+/** Meets the requirement only if every temperature of the envelope does (a row that could not be computed does not). */
+function envelopeVerdict(rows: StudyRow[], required: number | undefined): StudyResults['verdict'] {
+  if (!required) return undefined
+  const short = rows.filter(row => !row.verdict?.meets)
+  if (short.length === 0) return { required, meets: true, message: `Meets the requirement: at least ${required} full applications at every temperature of the envelope.` }
+  const where = short.map(row => row.verdict ? `${row.label} (${row.verdict.delivered} of ${required})` : `${row.label} (not computed)`).join(', ')
+  return { required, meets: false, message: `Short of ${required} full applications at ${where}. A larger gas volume or other limits are needed; the gas volume each temperature needs is shown beside it.` }
 }

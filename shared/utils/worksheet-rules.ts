@@ -41,6 +41,17 @@ export function canVoid(actor: Actor, worksheet: Record_): Decision {
   return yes
 }
 
+/** Discarding: the performer's own draft, never signed; it is kept, marked voided with the reason. */
+export function canDiscard(actor: Actor, worksheet: Record_): Decision {
+  if (worksheet.state !== 'draft') {
+    return no(409, worksheet.state === 'returned'
+      ? 'A returned worksheet was signed once: correct it and sign again, or ask an inspector to void it.'
+      : 'Only a draft that was never signed can be discarded.')
+  }
+  if (actor.id !== worksheet.performerId) return no(403, 'Only the technician who started this draft may discard it.')
+  return yes
+}
+
 /** A correction: a new worksheet pointing at a released one. */
 export function canCorrect(actor: Actor, worksheet: Record_): Decision {
   if (!actor.roles.includes('technician')) return no(403, 'Corrections are recorded by a technician.')

@@ -46,13 +46,16 @@ const SAMPLES: Record<string, unknown> = {
   'POST /api/worksheets/[id]/return': { reason: 'Fuzzing the reason field.' },
   'POST /api/worksheets/[id]/void': { reason: 'Fuzzing the reason field.' },
   'POST /api/cycle-checks': { aircraftId: 4, system: 'Hydraulic system 1', cutOut: psig(3000), cutIn: psig(2600), interval: { value: 400, unit: 's' }, fluidTemperature: celsius(40) },
+  'PATCH /api/cycle-checks/[id]': { aircraftId: 4, system: 'Hydraulic system 1', cutOut: psig(3000), cutIn: psig(2600), interval: { value: 410, unit: 's' }, fluidTemperature: celsius(40) },
+  'POST /api/cycle-checks/[id]/withdraw': { reason: 'Fuzzing the reason field.' },
+  'POST /api/worksheets/[id]/discard': { reason: 'Fuzzing the reason field.' },
   'PATCH /api/me/preferences': { pressureUnit: 'bar', temperatureUnit: 'C', volumeUnit: 'L', stationElevation: { value: 100, unit: 'm' }, stationName: 'Skelby' },
   'POST /api/admin/users': { email: 'fuzz@chargewell.test', name: 'Fuzz Person', roles: ['engineer'], password: 'a-long-enough-password' },
   'PATCH /api/admin/users/[id]': { name: 'Sol Varga' },
   'POST /api/auth/login': { email: 'nobody@chargewell.test', password: 'wrong' },
 }
 
-const QUERY_KEYS = ['page', 'pageSize', 'sort', 'direction', 'q', 'state', 'from', 'to', 'aircraftId', 'accumulatorId', 'performerId', 'type', 'base', 'kind', 'calibration', 'active', 'installed', 'status', 'partNumber', 'flagged', 'system', 'position', 'specificationId', 'extra']
+const QUERY_KEYS = ['page', 'pageSize', 'sort', 'direction', 'q', 'state', 'from', 'to', 'aircraftId', 'accumulatorId', 'performerId', 'toolId', 'type', 'base', 'kind', 'calibration', 'active', 'installed', 'status', 'partNumber', 'flagged', 'system', 'position', 'specificationId', 'extra']
 const junkScalar = fc.oneof(
   fc.constantFrom('1e20', '1e999', '-1e999', '-1', '0', 'NaN', 'Infinity', '1.5', '[]', '{}', '%00', 'asc', 'desc', 'released', 'true', '2026-02-30', '9007199254740993', ''),
   fc.string({ maxLength: 40 }),

@@ -138,4 +138,16 @@ describe('tools', () => {
     const answer = await postCsv('/api/tools/import', [header, ...renamed].join('\n'), cookies.admin!)
     expect(answer.body).toEqual({ imported: 1, rejected: [] })
   })
+
+  it('reports every problem of a row at once, in plain words, not the library\'s', async () => {
+    const header = 'kind,assetNumber,description,rangeMax,rangeUnit,resolution,accuracy,accuracyUnit,calibrationDue,active'
+    const answer = await postCsv('/api/tools/import', [header, 'gauge,GA-X1,,abc,psi,,zz,%FS,2026-13-01,true', 'banana,GA-X2,Test,100,psi,,1,%FS,,true'].join('\n'), cookies.admin!)
+    expect(answer.status).toBe(422)
+    const line2 = answer.body.data.rejected.filter((problem: { line: number }) => problem.line === 2)
+    expect(Object.fromEntries(line2.map((problem: { field: string, message: string }) => [problem.field, problem.message]))).toEqual({
+      rangeMax: 'Not a number.', accuracy: 'Not a number.', description: 'Enter the description.', calibrationDue: 'Use a date like 2026-01-31.',
+    })
+    expect(answer.body.data.rejected.find((problem: { line: number }) => problem.line === 3)).toMatchObject({ field: 'kind', message: 'The kind is gauge or cart.' })
+    expect(JSON.stringify(answer.body)).not.toMatch(/Expected|received/)
+  })
 })

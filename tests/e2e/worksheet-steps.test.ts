@@ -66,6 +66,7 @@ describe('per-step refusals', () => {
     await expect.poll(() => page.getByTestId('result-as-found').isVisible()).toBe(true)
     await page.getByRole('button', { name: 'Next: Action' }).click()
     await page.getByRole('button', { name: /No action/ }).click()
+    await page.getByRole('dialog').getByTestId('confirm-yes').click()
     // Ahead to Finish, tick one box, back to the as-left, then Finish again.
     await goTo(page, /Finish/)
     await page.getByRole('button', { name: /Charging valve leak-checked/ }).click()
@@ -90,6 +91,7 @@ describe('per-step refusals', () => {
     await expect.poll(() => page.getByTestId('result-as-found').isVisible()).toBe(true)
     await page.getByRole('button', { name: 'Next: Action' }).click()
     await page.getByRole('button', { name: /No action/ }).click()
+    await page.getByRole('dialog').getByTestId('confirm-yes').click()
     await page.getByLabel(/As-left reading/).fill('1490')
     await page.getByRole('button', { name: 'Record as-left' }).click()
     await expect.poll(() => page.getByTestId('step-message').innerText()).toMatch(/70\.0 psi away from the as-found[\s\S]*no charge or vent was recorded/)

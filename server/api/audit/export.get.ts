@@ -9,6 +9,6 @@ export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'admin')
   if (!auditSigningKey()) throw createError({ status: 503, statusMessage: 'Service Unavailable', message: 'No audit secret is configured, so the export cannot be signed.' })
   setResponseHeader(event, 'content-type', 'application/x-ndjson; charset=utf-8')
-  setResponseHeader(event, 'content-disposition', `attachment; filename="chargewell-audit-${new Date().toISOString().slice(0, 10)}.ndjson"`)
+  setResponseHeader(event, 'content-disposition', `attachment; filename="chargewell-audit-${stationToday()}.ndjson"`)
   return sendStream(event, Readable.from(auditExportLines(`${user.name} <${user.email}>`)))
 })

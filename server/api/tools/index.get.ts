@@ -6,7 +6,7 @@ import { Tool } from '../../models'
 export default defineEventHandler(async (event) => {
   await requireRole(event)
   const query = await getValidatedQuery(event, validateWith(toolQuerySchema))
-  const today = new Date().toISOString().slice(0, 10)
+  const today = stationToday()
   const { total, rows } = await pageOf(Tool, {
     where: {
       ...searchWhere(query.q, ['assetNumber', 'description']),

@@ -1,0 +1,70 @@
+import type { UserCreateBody, UserUpdateBody } from '../../shared/schemas/auth'
+import { DEFAULT_PREFERENCES } from '../../shared/types/user'
+import { appendAudit } from '../database/audit-chain'
+import { User } from '../models'
+import { endAllSessions, sessionsChangedAfterCommit } from './sessions'
+
+/**
+ * Users as an administrator manages them. Every change is audited as what it is — roles
+ * changed (from, to), disabled, enabled, details changed — so the audit view reads plainly; a
+ * change of access ends the user's sessions in the same write.
+ */
+
+function notFound(): never {
+  throw createError({ status: 404, statusMessage: 'Not Found', message: 'User not found.' })
+}
+
+export async function createUser(admin: User, body: UserCreateBody): Promise<User> {
+  if (await User.findOne({ where: { email: body.email } })) {
+    throw createError({ status: 409, statusMessage: 'Conflict', message: `A user with the e-mail ${body.email} already exists.`, data: { issues: [{ path: ['email'], field: 'email', message: 'Already in use.' }] } })
+  }
+  const passwordHash = await hashPassword(body.password)
+  return writeTransaction(async (transaction) => {
+    const created = await User.create({
+      email: body.email, name: body.name, roles: body.roles, authorisationNumber: body.authorisationNumber ?? null, passwordHash, preferences: DEFAULT_PREFERENCES,
+    }, { transaction })
+    await appendAudit({ actorId: admin.id, entity: 'user', entityId: String(created.id), action: 'created', detail: { email: created.email, roles: created.roles } }, transaction)
+    return created
+  })
+}
+
+export async function updateUser(admin: User, id: number, body: UserUpdateBody): Promise<User> {
+  const user = await User.findByPk(id)
+  if (!user) notFound()
+  if (user.id === admin.id && (body.disabled === true || (body.roles && !body.roles.includes('admin')))) {
+    throw createError({ status: 422, statusMessage: 'Unprocessable Entity', message: 'You cannot disable yourself or remove your own admin role; ask another administrator.' })
+  }
+  const before = { roles: [...user.roles].sort(), disabled: user.disabled, name: user.name, authorisationNumber: user.authorisationNumber }
+  await writeTransaction(async (transaction) => {
+    await user.update(body, { transaction })
+    const audit = (action: string, detail: Record<string, unknown>) => appendAudit({ actorId: admin.id, entity: 'user', entityId: String(user.id), action, detail }, transaction)
+    const roles = body.roles ? [...body.roles].sort() : before.roles
+    if (roles.join(',') !== before.roles.join(',')) {
+      await audit('roles-changed', { from: before.roles, to: roles })
+      if (body.disabled !== true) await endAllSessions(user, 'roles-changed', transaction)
+    }
+    if (body.disabled === true && !before.disabled) {
+      await audit('disabled', {})
+      await endAllSessions(user, 'disabled', transaction)
+    }
+    // A re-enabled account starts afresh: its old sessions stay ended.
+    if (body.disabled === false && before.disabled) await audit('enabled', {})
+    const details = Object.fromEntries((['name', 'authorisationNumber'] as const).filter(field => body[field] !== undefined && body[field] !== before[field]).map(field => [field, { from: before[field], to: body[field] }]))
+    if (Object.keys(details).length) await audit('updated', { changes: details })
+    // A new name or authorisation number is what the user's next request sees.
+    sessionsChangedAfterCommit(user.id, transaction)
+  })
+  return user
+}
+
+/** Sets a new password (the admin hands it over; the user should change it); their sessions end. */
+export async function resetPassword(admin: User, id: number, password: string): Promise<void> {
+  const user = await User.findByPk(id)
+  if (!user) notFound()
+  const passwordHash = await hashPassword(password)
+  await writeTransaction(async (transaction) => {
+    await user.update({ passwordHash }, { transaction })
+    await endAllSessions(user, 'password-reset', transaction)
+    await appendAudit({ actorId: admin.id, entity: 'user', entityId: String(user.id), action: 'password-reset', detail: {} }, transaction)
+  })
+}

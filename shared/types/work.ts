@@ -1,0 +1,19 @@
+import type { WorksheetState } from './worksheet'
+
+/** A worksheet as Home lists it. */
+export interface WorkItem { id: number, workOrder: string, registration: string | null, position: string | null, state: WorksheetState, at: string }
+export interface WorkPile { count: number, items: WorkItem[] }
+
+/** What waits for the signed-in user, by what their roles do (`GET /api/me/work`). */
+export interface HomeWork {
+  /** Technician: their drafts, work returned to them, their work awaiting someone's countersign. */
+  drafts?: WorkPile
+  returned?: WorkPile
+  submitted?: WorkPile
+  /** Inspector: others' work awaiting their countersign, oldest first. */
+  toCountersign?: WorkPile
+  /** Engineer: units and systems the trends flag. */
+  alerts?: { count: number, items: { subject: string, message: string, raisedAt: string, to: string }[] }
+  /** Admin: gauges and carts out of calibration, or due within 30 days. */
+  tools?: { expired: number, dueSoon: number }
+}
