@@ -1,6 +1,29 @@
 // @ts-check
 import withNuxt from './.nuxt/eslint.config.mjs'
 
+/**
+ * Lines a reader takes in at a glance; a message in words may run on (strings and templates are not broken mid-
+ * sentence).
+ */
+const lineLength = {
+  code: 120,
+  tabWidth: 2,
+  ignoreUrls: true,
+  ignoreStrings: true,
+  ignoreTemplateLiterals: true,
+  ignoreRegExpLiterals: true,
+}
+
 export default withNuxt(
-  // Your custom configs here
+  { rules: { '@stylistic/max-len': ['error', lineLength] } },
+  {
+    files: ['**/*.vue'],
+    rules: {
+      '@stylistic/max-len': 'off',
+      'vue/max-len': [
+        'error',
+        { ...lineLength, template: 120, ignoreHTMLAttributeValues: false, ignoreHTMLTextContents: false },
+      ],
+    },
+  },
 )

@@ -68,6 +68,8 @@ export default defineNuxtConfig({
   experimental: { defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } } },
   compatibilityDate: '2025-07-15',
   nitro: {
+    // `db:seed` (server/tasks) runs inside the built server: see scripts/task.mjs.
+    experimental: { tasks: true },
     // Static files are stored gzip- and brotli-compressed and served so to browsers that take them.
     compressPublicAssets: { gzip: true, brotli: true },
     // The fonts PDFs are drawn in, bundled with the server (see server/utils/pdf-writer.ts).

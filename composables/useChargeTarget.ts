@@ -1,6 +1,12 @@
-import type { ChargeTargetResult, CorrectionCurveInput, CorrectionCurveResult, ReadingAssessment, TableTargetResult } from '~~/shared/gas'
-import type { Pressure } from '~~/shared/gas/types'
-import type { SpecificationTargetRequest } from '~~/shared/utils/specification-target'
+import type {
+  ChargeTargetResult,
+  CorrectionCurveInput,
+  CorrectionCurveResult,
+  ReadingAssessment,
+  TableTargetResult,
+} from '#shared/gas'
+import type { Pressure } from '#shared/gas/types'
+import type { SpecificationTargetRequest } from '#shared/utils/specification-target'
 
 export interface ChargeTargetRequest {
   target: SpecificationTargetRequest
@@ -26,21 +32,43 @@ interface Answer {
 export function useChargeTarget(request: Ref<ChargeTargetRequest | null>) {
   const answer = shallowRef<Answer | null>(null)
   const failure = shallowRef<{ key: string, message: string, field: string | null } | null>(null)
-  const key = computed(() => request.value ? JSON.stringify(request.value) : null)
+  const key = computed(() => (request.value ? JSON.stringify(request.value) : null))
   const asking = ref<string | null>(null)
 
   async function compute(current: ChargeTargetRequest, mine: string) {
     asking.value = mine
     try {
-      const result = await $fetch<ChargeTargetResult | TableTargetResult>(`/api/calc/${current.target.route}`, { method: 'POST', body: current.target.body })
+      const result = await $fetch<ChargeTargetResult | TableTargetResult>(`/api/calc/${current.target.route}`, {
+        method: 'POST',
+        body: current.target.body,
+      })
       const [real, ideal, verdict] = await Promise.all([
-        current.curves ? $fetch<CorrectionCurveResult>('/api/calc/correction-curve', { method: 'POST', body: current.curves.real }) : undefined,
-        current.curves ? $fetch<CorrectionCurveResult>('/api/calc/correction-curve', { method: 'POST', body: current.curves.ideal }) : undefined,
+        current.curves
+          ? $fetch<CorrectionCurveResult>('/api/calc/correction-curve', { method: 'POST', body: current.curves.real })
+          : undefined,
+        current.curves
+          ? $fetch<CorrectionCurveResult>('/api/calc/correction-curve', { method: 'POST', body: current.curves.ideal })
+          : undefined,
         current.asFound && result.low && result.high
-          ? $fetch<ReadingAssessment>('/api/calc/assess-reading', { method: 'POST', body: { reading: current.asFound, target: result.target, low: result.low, high: result.high, ambient: current.target.body.ambient } })
+          ? $fetch<ReadingAssessment>('/api/calc/assess-reading', {
+              method: 'POST',
+              body: {
+                reading: current.asFound,
+                target: result.target,
+                low: result.low,
+                high: result.high,
+                ambient: current.target.body.ambient,
+              },
+            })
           : undefined,
       ])
-      answer.value = { key: mine, request: current, target: result, curves: real && ideal ? { real, ideal } : null, assessment: verdict ?? null }
+      answer.value = {
+        key: mine,
+        request: current,
+        target: result,
+        curves: real && ideal ? { real, ideal } : null,
+        assessment: verdict ?? null,
+      }
       failure.value = null
     }
     catch (error) {
@@ -52,12 +80,16 @@ export function useChargeTarget(request: Ref<ChargeTargetRequest | null>) {
     }
   }
 
-  watchDebounced(key, (current) => {
-    if (current && request.value) void compute(request.value, current)
-  }, { debounce: 200, immediate: true })
+  watchDebounced(
+    key,
+    (current) => {
+      if (current && request.value) void compute(request.value, current)
+    },
+    { debounce: 200, immediate: true },
+  )
 
   // Only what belongs to the inputs as they are now.
-  const fresh = computed(() => answer.value && answer.value.key === key.value ? answer.value : null)
+  const fresh = computed(() => (answer.value && answer.value.key === key.value ? answer.value : null))
   return {
     target: computed(() => fresh.value?.target ?? null),
     curves: computed(() => fresh.value?.curves ?? null),
@@ -65,8 +97,8 @@ export function useChargeTarget(request: Ref<ChargeTargetRequest | null>) {
     /** The request the shown figures answer (for the plotted dots). */
     answered: computed(() => fresh.value?.request ?? null),
     pending: computed(() => key.value !== null && !fresh.value && failure.value?.key !== key.value),
-    error: computed(() => failure.value && failure.value.key === key.value ? failure.value.message : null),
+    error: computed(() => (failure.value && failure.value.key === key.value ? failure.value.message : null)),
     /** The API field the refusal names (e.g. gasTemperature), to show it under that input. */
-    errorField: computed(() => failure.value && failure.value.key === key.value ? failure.value.field : null),
+    errorField: computed(() => (failure.value && failure.value.key === key.value ? failure.value.field : null)),
   }
 }

@@ -1,4 +1,4 @@
-import type { SpecificationDto } from '~~/shared/types/registers'
+import type { SpecificationDto } from '#shared/types/registers'
 
 /** The current revision of every specification, for pickers. */
 export function useCurrentSpecifications() {

@@ -1,4 +1,4 @@
-import type { InstalledUnitDto } from '~~/shared/types/fleet'
+import type { InstalledUnitDto } from '#shared/types/fleet'
 
 /** Every installed accumulator, for the pickers (aircraft, then position). */
 export function useInstalledUnits() {

@@ -1,19 +1,31 @@
 import type { SortingState } from '@tanstack/vue-table'
 
 /** A register page's list: filters, sorting and page number sent to the server as the query. */
-export function useRegisterList<Row>(endpoint: string, key: string, filters: Record<string, unknown>, defaultSort: string, pageSize = 25) {
+export function useRegisterList<Row>(
+  endpoint: string,
+  key: string,
+  filters: Record<string, unknown>,
+  defaultSort: string,
+  pageSize = 25,
+) {
   const page = ref(1)
   const sorting = ref<SortingState>([{ id: defaultSort, desc: false }])
   const query = computed(() => ({
-    ...Object.fromEntries(Object.entries(filters).filter(([, value]) => value !== undefined && value !== '' && value !== null)),
+    ...Object.fromEntries(
+      Object.entries(filters).filter(([, value]) => value !== undefined && value !== '' && value !== null),
+    ),
     sort: sorting.value[0]?.id ?? defaultSort,
     direction: sorting.value[0]?.desc ? 'desc' : 'asc',
     page: page.value,
     pageSize,
   }))
-  watch(() => ({ ...filters }), () => {
-    page.value = 1
-  }, { deep: true })
+  watch(
+    () => ({ ...filters }),
+    () => {
+      page.value = 1
+    },
+    { deep: true },
+  )
   const list = useFetch<{ total: number, items: Row[] }>(endpoint, { key, query })
   return { ...list, page, sorting, pageSize }
 }

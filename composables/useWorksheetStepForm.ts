@@ -1,8 +1,8 @@
 import { toTypedSchema } from '@vee-validate/zod'
 import { useForm } from 'vee-validate'
 import type { ZodType, ZodTypeDef } from 'zod'
-import type { WorksheetStepBody } from '~~/shared/schemas/worksheet'
-import type { WorksheetDto } from '~~/shared/types/worksheet'
+import type { WorksheetStepBody } from '#shared/schemas/worksheet'
+import type { WorksheetDto } from '#shared/types/worksheet'
 import { useWorksheetDraftsStore } from '~~/stores/worksheet-drafts'
 
 export type StepSaveStatus = 'idle' | 'saving' | 'saved' | 'queued' | 'error'

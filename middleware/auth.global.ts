@@ -1,4 +1,4 @@
-import { NAVIGATION, canSee } from '~~/shared/navigation'
+import { NAVIGATION, canSee, closedReason } from '#shared/navigation'
 
 /** Page guard for the user's convenience only: the server checks every request itself. */
 export default defineNuxtRouteMiddleware(async (to) => {
@@ -10,6 +10,6 @@ export default defineNuxtRouteMiddleware(async (to) => {
   if (!loggedIn.value) return navigateTo({ path: '/login', query: to.fullPath !== '/' ? { next: to.fullPath } : {} })
   const page = NAVIGATION.find(item => to.path === item.to || to.path.startsWith(`${item.to}/`))
   if (page && !canSee(page, user.value?.roles ?? [])) {
-    return abortNavigation(createError({ statusCode: 403, statusMessage: `${page.label} needs the ${page.roles.join(' or ')} role.` }))
+    return abortNavigation(createError({ statusCode: 403, statusMessage: closedReason(page) }))
   }
 })

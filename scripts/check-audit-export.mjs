@@ -22,15 +22,31 @@ if (!file) {
 function canonical(value) {
   if (Array.isArray(value)) return value.map(canonical)
   if (value && typeof value === 'object') {
-    return Object.fromEntries(Object.keys(value).sort().filter(key => value[key] !== undefined).map(key => [key, canonical(value[key])]))
+    return Object.fromEntries(
+      Object.keys(value)
+        .sort()
+        .filter(key => value[key] !== undefined)
+        .map(key => [key, canonical(value[key])]),
+    )
   }
   return value
 }
 
 function entryHash(entry, previousHash) {
-  const fields = entry.hashVersion === 1
-    ? [previousHash, entry.at, entry.actorId, entry.entity, entry.entityId, entry.action, canonical(entry.detail)]
-    : [2, previousHash, entry.at, entry.actorId, entry.entity, entry.entityId, entry.action, canonical(entry.detail), entry.recordHash ?? null]
+  const fields
+    = entry.hashVersion === 1
+      ? [previousHash, entry.at, entry.actorId, entry.entity, entry.entityId, entry.action, canonical(entry.detail)]
+      : [
+          2,
+          previousHash,
+          entry.at,
+          entry.actorId,
+          entry.entity,
+          entry.entityId,
+          entry.action,
+          canonical(entry.detail),
+          entry.recordHash ?? null,
+        ]
   return createHash('sha256').update(JSON.stringify(fields)).digest('hex')
 }
 
@@ -53,7 +69,8 @@ for await (const line of createInterface({ input: createReadStream(file), crlfDe
     else {
       count++
       if (value.previousHash !== previous) problems.push(`Entry ${value.id} does not link to the entry before it.`)
-      else if (entryHash(value, previous) !== value.hash) problems.push(`Entry ${value.id}: its content does not match its hash.`)
+      else if (entryHash(value, previous) !== value.hash)
+        problems.push(`Entry ${value.id}: its content does not match its hash.`)
       previous = value.hash
     }
   }
@@ -64,15 +81,19 @@ if (!header || !trailer) problems.push('The file is incomplete: no header or no 
 else {
   const hex = digest.digest('hex')
   if (trailer.digest !== hex) problems.push('The file was changed after it was signed (its digest differs).')
-  if (trailer.entries !== count) problems.push(`The signature line counts ${trailer.entries} entries; the file holds ${count}.`)
+  if (trailer.entries !== count)
+    problems.push(`The signature line counts ${trailer.entries} entries; the file holds ${count}.`)
   if (trailer.lastHash !== previous) problems.push('The last entry is not the one that was signed.')
   const spki = Buffer.from(header.publicKey, 'base64')
   const fingerprint = createHash('sha256').update(spki).digest('hex').slice(0, 32).match(/.{4}/g).join(':')
-  if (fingerprint !== header.keyFingerprint) problems.push('The header\'s key fingerprint does not belong to its public key.')
-  if (pinned && pinned.toLowerCase() !== fingerprint) problems.push(`Signed with key ${fingerprint}, not the expected ${pinned}.`)
+  if (fingerprint !== header.keyFingerprint)
+    problems.push('The header\'s key fingerprint does not belong to its public key.')
+  if (pinned && pinned.toLowerCase() !== fingerprint)
+    problems.push(`Signed with key ${fingerprint}, not the expected ${pinned}.`)
   const message = Buffer.from(`${FORMAT}:1:${hex}:${count}:${previous}`)
   const key = createPublicKey({ key: spki, format: 'der', type: 'spki' })
-  if (!verify(null, message, key, Buffer.from(trailer.signature, 'base64'))) problems.push('The signature does not verify: the file was not signed by this key, or was altered.')
+  if (!verify(null, message, key, Buffer.from(trailer.signature, 'base64')))
+    problems.push('The signature does not verify: the file was not signed by this key, or was altered.')
 }
 
 if (problems.length) {
@@ -80,4 +101,6 @@ if (problems.length) {
   for (const problem of problems.slice(0, 20)) console.error(`  - ${problem}`)
   process.exit(1)
 }
-console.log(`INTACT: ${count} entries, exported ${header.exportedAt} by ${header.exportedBy}, signed by key ${header.keyFingerprint}; last entry hash ${previous}.`)
+console.log(
+  `INTACT: ${count} entries, exported ${header.exportedAt} by ${header.exportedBy}, signed by key ${header.keyFingerprint}; last entry hash ${previous}.`,
+)

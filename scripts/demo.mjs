@@ -20,7 +20,7 @@ env.NUXT_FAKE_SMTP ??= env.NUXT_SMTP_URL ? '' : 'fake'
 
 const run = (command, args) => execFileSync(command, args, { stdio: 'inherit', env })
 run('npx', ['nuxt', 'build'])
-run('npx', ['tsx', 'server/database/seed.ts'])
+run(process.execPath, ['scripts/task.mjs', 'db:seed'])
 const port = env.PORT ?? '3000'
 console.log(`\nChargewell is starting on http://localhost:${port} — demo accounts in README.md (password chargewell-demo).\n`)
 const server = spawn(process.execPath, ['.output/server/index.mjs'], { stdio: 'inherit', env: { ...env, PORT: port, NODE_ENV: 'production' } })

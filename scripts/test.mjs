@@ -10,6 +10,13 @@ import { join } from 'node:path'
 
 const vitest = (args, env = {}) => spawnSync('npx', ['vitest', 'run', ...args], { stdio: 'inherit', env: { ...process.env, ...env } }).status ?? 1
 const extra = process.argv.slice(2)
+// The whole run starts with the house rules: lint (line length ≤ 120 among them) and the type check.
+if (extra.length === 0) {
+  for (const script of ['lint', 'typecheck']) {
+    const status = spawnSync('npm', ['run', script], { stdio: 'inherit' }).status
+    if (status !== 0) process.exit(status ?? 1)
+  }
+}
 const sqlite = vitest(extra)
 if (sqlite !== 0 || extra.length) process.exit(sqlite)
 

@@ -1,5 +1,5 @@
 import { defineStore } from 'pinia'
-import { DEFAULT_PREFERENCES, type PublicUser, type UserPreferences } from '~~/shared/types/user'
+import { DEFAULT_PREFERENCES, type PublicUser, type UserPreferences } from '#shared/types/user'
 
 /** The signed-in user's units and home station: loaded from the server, saved back to it. */
 export const usePreferencesStore = defineStore('preferences', () => {

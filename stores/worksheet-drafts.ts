@@ -1,6 +1,6 @@
 import { defineStore, skipHydrate } from 'pinia'
-import type { WorksheetStepBody } from '~~/shared/schemas/worksheet'
-import type { WorksheetDto } from '~~/shared/types/worksheet'
+import type { WorksheetStepBody } from '#shared/schemas/worksheet'
+import type { WorksheetDto } from '#shared/types/worksheet'
 
 const STORAGE_KEY = 'chargewell:worksheet-drafts'
 
@@ -52,7 +52,9 @@ export const useWorksheetDraftsStore = defineStore('worksheet-drafts', () => {
   }
 
   function forget(worksheetId: number) {
-    state.value.values = Object.fromEntries(Object.entries(state.value.values).filter(([key]) => Number(key) !== worksheetId))
+    state.value.values = Object.fromEntries(
+      Object.entries(state.value.values).filter(([key]) => Number(key) !== worksheetId),
+    )
     state.value.pending = state.value.pending.filter(entry => entry.worksheetId !== worksheetId)
   }
 
@@ -63,14 +65,20 @@ export const useWorksheetDraftsStore = defineStore('worksheet-drafts', () => {
    * Saves one step. Offline, the save is queued and `{ queued: true }` returned; an answer
    * from the server (a refusal with field issues) is thrown for the form to show.
    */
-  async function saveStep(worksheetId: number, body: WorksheetStepBody): Promise<{ worksheet?: WorksheetDto, queued: boolean }> {
+  async function saveStep(
+    worksheetId: number,
+    body: WorksheetStepBody,
+  ): Promise<{ worksheet?: WorksheetDto, queued: boolean }> {
     try {
       const worksheet = await $fetch<WorksheetDto>(`/api/worksheets/${worksheetId}`, { method: 'PATCH', body })
       return { worksheet, queued: false }
     }
     catch (failure) {
       if (!isOffline(failure)) throw failure
-      state.value.pending = [...state.value.pending.filter(entry => !(entry.worksheetId === worksheetId && entry.body.step === body.step)), { worksheetId, body, queuedAt: new Date().toISOString() }]
+      state.value.pending = [
+        ...state.value.pending.filter(entry => !(entry.worksheetId === worksheetId && entry.body.step === body.step)),
+        { worksheetId, body, queuedAt: new Date().toISOString() },
+      ]
       return { queued: true }
     }
   }
@@ -99,5 +107,16 @@ export const useWorksheetDraftsStore = defineStore('worksheet-drafts', () => {
   }
 
   // The drafts belong to this device: never replaced by the (empty) state rendered on the server.
-  return { state: skipHydrate(state), syncing, lastError, pendingCount, pendingFor, draftFor, remember, forget, saveStep, flush }
+  return {
+    state: skipHydrate(state),
+    syncing,
+    lastError,
+    pendingCount,
+    pendingFor,
+    draftFor,
+    remember,
+    forget,
+    saveStep,
+    flush,
+  }
 })

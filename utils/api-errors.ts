@@ -1,11 +1,16 @@
-import type { FieldIssue } from '~~/shared/schemas/issues'
+import type { FieldIssue } from '#shared/schemas/issues'
 
-interface ApiFailure { data?: { message?: string, data?: { issues?: FieldIssue[] } }, message?: string, statusCode?: number }
+interface ApiFailure {
+  data?: { message?: string, data?: { issues?: FieldIssue[] } }
+  message?: string
+  statusCode?: number
+}
 
 /** The plain message of a failed API call. */
 export function errorMessage(failure: unknown): string {
   const error = failure as ApiFailure
-  if (error?.statusCode === undefined && error?.message?.includes('fetch')) return 'No connection to Chargewell. Check the network and try again; nothing you entered is lost.'
+  if (error?.statusCode === undefined && error?.message?.includes('fetch'))
+    return 'No connection to Chargewell. Check the network and try again; nothing you entered is lost.'
   return error?.data?.message ?? error?.message ?? 'Something went wrong.'
 }
 

@@ -1,4 +1,4 @@
-import { displayFormat, stationDate } from '~~/shared/utils/station-time'
+import { displayFormat, stationDate } from '#shared/utils/station-time'
 
 /**
  * Dates, times and figures as people at the station read them — the one place the app decides

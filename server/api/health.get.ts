@@ -1,4 +1,4 @@
-import { ENGINE_VERSION } from '../../shared/gas/version'
+import { ENGINE_VERSION } from '#shared/gas/version'
 
 /** Liveness, the database, and how long the event loop has been held up; the only route open without a session. */
 export default defineEventHandler(async () => {

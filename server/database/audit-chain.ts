@@ -1,4 +1,13 @@
-import { createHash, createHmac, createPrivateKey, createPublicKey, hkdfSync, sign, timingSafeEqual, type KeyObject } from 'node:crypto'
+import {
+  createHash,
+  createHmac,
+  createPrivateKey,
+  createPublicKey,
+  hkdfSync,
+  sign,
+  timingSafeEqual,
+  type KeyObject,
+} from 'node:crypto'
 import { Op, QueryTypes, type Transaction } from 'sequelize'
 import type { ChainReport, RecordProblem } from '../../shared/types/audit'
 import { AuditEvent, AuditHead } from '../models'
@@ -24,7 +33,10 @@ interface AuditFields {
 let keys: { seal: Buffer, signing: KeyObject, publicKey: string, fingerprint: string } | null = null
 
 /** The audit secret: NUXT_AUDIT_SECRET when set, else one derived from the session password. */
-export function auditSecretFrom(settings: { auditSecret?: string | null, sessionPassword?: string | null }): string | null {
+export function auditSecretFrom(settings: {
+  auditSecret?: string | null
+  sessionPassword?: string | null
+}): string | null {
   if (settings.auditSecret) return settings.auditSecret
   if (settings.sessionPassword) return `session:${settings.sessionPassword}`
   return null
@@ -49,21 +61,50 @@ export function auditSigningKey(): { publicKey: string, fingerprint: string } | 
   return keys ? { publicKey: keys.publicKey, fingerprint: keys.fingerprint } : null
 }
 
-interface HeadFields { eventCount: number, lastEventId: number | null, lastHash: string }
+interface HeadFields {
+  eventCount: number
+  lastEventId: number | null
+  lastHash: string
+}
 
 export function sealOf(head: HeadFields): string | null {
   if (!keys) return null
-  return createHmac('sha256', keys.seal).update(`chargewell-audit-head:${head.eventCount}:${head.lastEventId ?? ''}:${head.lastHash}`).digest('hex')
+  return createHmac('sha256', keys.seal)
+    .update(`chargewell-audit-head:${head.eventCount}:${head.lastEventId ?? ''}:${head.lastHash}`)
+    .digest('hex')
 }
 
 // ---------------------------------------------------------------------------------------------
 // Entries.
 
 /** The hash of one entry: SHA-256 over the previous hash and a canonical form of the entry. */
-export function auditHash(fields: AuditFields & { recordHash?: string | null }, previousHash: string, version = 2): string {
-  const canonicalForm = version === 1
-    ? [previousHash, fields.at.toISOString(), fields.actorId, fields.entity, fields.entityId, fields.action, canonical(fields.detail)]
-    : [2, previousHash, fields.at.toISOString(), fields.actorId, fields.entity, fields.entityId, fields.action, canonical(fields.detail), fields.recordHash ?? null]
+export function auditHash(
+  fields: AuditFields & { recordHash?: string | null },
+  previousHash: string,
+  version = 2,
+): string {
+  const canonicalForm
+    = version === 1
+      ? [
+          previousHash,
+          fields.at.toISOString(),
+          fields.actorId,
+          fields.entity,
+          fields.entityId,
+          fields.action,
+          canonical(fields.detail),
+        ]
+      : [
+          2,
+          previousHash,
+          fields.at.toISOString(),
+          fields.actorId,
+          fields.entity,
+          fields.entityId,
+          fields.action,
+          canonical(fields.detail),
+          fields.recordHash ?? null,
+        ]
   return createHash('sha256').update(JSON.stringify(canonicalForm)).digest('hex')
 }
 
@@ -72,10 +113,17 @@ async function lockedHead(transaction: Transaction): Promise<AuditHead> {
   if (head) return head
   // A database created before the head existed: start it from the newest entry.
   const last = await AuditEvent.findOne({ order: [['id', 'DESC']], transaction })
-  return AuditHead.create({
-    id: HEAD_ID, eventCount: await AuditEvent.count({ transaction }), lastEventId: last?.id ?? null,
-    lastHash: last?.hash ?? GENESIS_HASH, seal: null, sealedAt: null,
-  }, { transaction })
+  return AuditHead.create(
+    {
+      id: HEAD_ID,
+      eventCount: await AuditEvent.count({ transaction }),
+      lastEventId: last?.id ?? null,
+      lastHash: last?.hash ?? GENESIS_HASH,
+      seal: null,
+      sealedAt: null,
+    },
+    { transaction },
+  )
 }
 
 /**
@@ -84,7 +132,10 @@ async function lockedHead(transaction: Transaction): Promise<AuditHead> {
  * accumulator or cycle check) carries the hash of that record's content as it now stands in
  * this transaction, so call it after the record's own writes.
  */
-export async function appendAudit(fields: Omit<AuditFields, 'at'> & { at?: Date }, transaction: Transaction): Promise<AuditEvent> {
+export async function appendAudit(
+  fields: Omit<AuditFields, 'at'> & { at?: Date },
+  transaction: Transaction,
+): Promise<AuditEvent> {
   const head = await lockedHead(transaction)
   // Millisecond precision and JSON are what the database gives back; hash what will be read back.
   const entry: AuditFields = {
@@ -93,10 +144,20 @@ export async function appendAudit(fields: Omit<AuditFields, 'at'> & { at?: Date 
     detail: JSON.parse(JSON.stringify(fields.detail ?? {})),
   }
   const recordId = Number(entry.entityId)
-  const hashOfRecord = isRecordKind(entry.entity) && Number.isInteger(recordId) ? await recordHash(entry.entity, recordId, transaction) : null
-  const event = await AuditEvent.create({
-    ...entry, previousHash: head.lastHash, hash: auditHash({ ...entry, recordHash: hashOfRecord }, head.lastHash, 2), recordHash: hashOfRecord, hashVersion: 2,
-  }, { transaction })
+  const hashOfRecord
+    = isRecordKind(entry.entity) && Number.isInteger(recordId)
+      ? await recordHash(entry.entity, recordId, transaction)
+      : null
+  const event = await AuditEvent.create(
+    {
+      ...entry,
+      previousHash: head.lastHash,
+      hash: auditHash({ ...entry, recordHash: hashOfRecord }, head.lastHash, 2),
+      recordHash: hashOfRecord,
+      hashVersion: 2,
+    },
+    { transaction },
+  )
   const next = { eventCount: head.eventCount + 1, lastEventId: event.id, lastHash: event.hash }
   await head.update({ ...next, seal: sealOf(next), sealedAt: keys ? new Date() : head.sealedAt }, { transaction })
   return event
@@ -108,15 +169,28 @@ export async function appendAudit(fields: Omit<AuditFields, 'at'> & { at?: Date 
  */
 export async function baselineRecords(transaction: Transaction): Promise<number> {
   const sequelize = AuditEvent.sequelize!
-  const covered = new Set((await sequelize.query<{ entity: string, entity_id: string }>(
-    'SELECT DISTINCT entity, entity_id FROM audit_events WHERE hash_version = 2 AND record_hash IS NOT NULL', { type: QueryTypes.SELECT, transaction },
-  )).map(row => `${row.entity}:${row.entity_id}`))
+  const covered = new Set(
+    (
+      await sequelize.query<{ entity: string, entity_id: string }>(
+        'SELECT DISTINCT entity, entity_id FROM audit_events WHERE hash_version = 2 AND record_hash IS NOT NULL',
+        { type: QueryTypes.SELECT, transaction },
+      )
+    ).map(row => `${row.entity}:${row.entity_id}`),
+  )
   let added = 0
   for (const kind of Object.keys(RECORD_KINDS) as RecordKindName[]) {
-    const rows = await RECORD_KINDS[kind].model.findAll({ attributes: ['id'], order: [['id', 'ASC']], transaction, raw: true }) as unknown as { id: number }[]
+    const rows = (await RECORD_KINDS[kind].model.findAll({
+      attributes: ['id'],
+      order: [['id', 'ASC']],
+      transaction,
+      raw: true,
+    })) as unknown as { id: number }[]
     for (const { id } of rows) {
       if (covered.has(`${kind}:${id}`)) continue
-      await appendAudit({ actorId: null, entity: kind, entityId: String(id), action: 'integrity-baseline', detail: {} }, transaction)
+      await appendAudit(
+        { actorId: null, entity: kind, entityId: String(id), action: 'integrity-baseline', detail: {} },
+        transaction,
+      )
       added++
     }
   }
@@ -135,7 +209,16 @@ export async function establishSeal(transaction: Transaction): Promise<{ establi
   const sealedFormat = await AuditEvent.count({ where: { hashVersion: 2 }, transaction })
   if (sealedFormat > 0 && head.eventCount > 0) return { established: false, baselined: 0 }
   const baselined = await baselineRecords(transaction)
-  await appendAudit({ actorId: null, entity: 'system', entityId: 'audit', action: 'seal-established', detail: { entriesBefore: head.eventCount, recordsBaselined: baselined } }, transaction)
+  await appendAudit(
+    {
+      actorId: null,
+      entity: 'system',
+      entityId: 'audit',
+      action: 'seal-established',
+      detail: { entriesBefore: head.eventCount, recordsBaselined: baselined },
+    },
+    transaction,
+  )
   return { established: true, baselined }
 }
 
@@ -156,10 +239,13 @@ export async function verifyAuditChain(): Promise<ChainReport> {
     if (batch.length === 0) break
     for (const event of batch) {
       if (!firstBroken) {
-        if (event.previousHash !== previousHash) firstBroken = { id: event.id, reason: `does not link to entry ${lastId || 'at the start of the chain'}` }
-        else if (auditHash(event, previousHash, event.hashVersion) !== event.hash) firstBroken = { id: event.id, reason: 'its content does not match its hash' }
+        if (event.previousHash !== previousHash)
+          firstBroken = { id: event.id, reason: `does not link to entry ${lastId || 'at the start of the chain'}` }
+        else if (auditHash(event, previousHash, event.hashVersion) !== event.hash)
+          firstBroken = { id: event.id, reason: 'its content does not match its hash' }
       }
-      if (event.hashVersion === 2 && event.recordHash) vouched.set(`${event.entity}:${event.entityId}`, { recordHash: event.recordHash, eventId: event.id })
+      if (event.hashVersion === 2 && event.recordHash)
+        vouched.set(`${event.entity}:${event.entityId}`, { recordHash: event.recordHash, eventId: event.id })
       previousHash = event.hash
       lastId = event.id
       checked++
@@ -170,13 +256,22 @@ export async function verifyAuditChain(): Promise<ChainReport> {
   const headProblems: string[] = []
   if (!head) headProblems.push('The chain has no head record: it cannot be checked for missing entries.')
   else {
-    if (head.eventCount !== checked) headProblems.push(`The sealed head counts ${head.eventCount} entries but ${checked} are present: entries were ${head.eventCount > checked ? 'deleted' : 'added outside Chargewell'}.`)
-    if ((head.lastEventId ?? 0) !== lastId || head.lastHash !== previousHash) headProblems.push(`The newest entry (${lastId || 'none'}) is not the one the head was sealed with (${head.lastEventId ?? 'none'}).`)
+    if (head.eventCount !== checked)
+      headProblems.push(
+        `The sealed head counts ${head.eventCount} entries but ${checked} are present: entries were ${head.eventCount > checked ? 'deleted' : 'added outside Chargewell'}.`,
+      )
+    if ((head.lastEventId ?? 0) !== lastId || head.lastHash !== previousHash)
+      headProblems.push(
+        `The newest entry (${lastId || 'none'}) is not the one the head was sealed with (${head.lastEventId ?? 'none'}).`,
+      )
     if (!head.seal) headProblems.push('The chain head is not sealed.')
     else if (keys) {
       const expected = Buffer.from(sealOf(head)!, 'hex')
       const stored = Buffer.from(head.seal, 'hex')
-      if (expected.length !== stored.length || !timingSafeEqual(expected, stored)) headProblems.push('The chain head\'s seal does not match: the head or the chain was rebuilt without the server\'s secret.')
+      if (expected.length !== stored.length || !timingSafeEqual(expected, stored))
+        headProblems.push(
+          'The chain head\'s seal does not match: the head or the chain was rebuilt without the server\'s secret.',
+        )
     }
   }
 
@@ -190,27 +285,52 @@ export async function verifyAuditChain(): Promise<ChainReport> {
   for (const kind of Object.keys(RECORD_KINDS) as RecordKindName[]) {
     let afterId = 0
     for (;;) {
-      const ids = (await RECORD_KINDS[kind].model.findAll({ attributes: ['id'], where: { id: { [Op.gt]: afterId } }, order: [['id', 'ASC']], limit: 500, raw: true }) as unknown as { id: number }[]).map(row => row.id)
+      const ids = (
+        (await RECORD_KINDS[kind].model.findAll({
+          attributes: ['id'],
+          where: { id: { [Op.gt]: afterId } },
+          order: [['id', 'ASC']],
+          limit: 500,
+          raw: true,
+        })) as unknown as { id: number }[]
+      ).map(row => row.id)
       if (ids.length === 0) break
       const hashes = await recordHashes(kind, ids)
       for (const id of ids) {
         recordsChecked++
         const entry = vouched.get(`${kind}:${id}`)
         vouched.delete(`${kind}:${id}`)
-        if (!entry) report({ entity: kind, entityId: String(id), reason: `${kind} ${id} has no audit entry vouching for its content: it was written outside Chargewell.` })
-        else if (entry.recordHash !== hashes.get(id)) report({ entity: kind, entityId: String(id), reason: `${kind} ${id} no longer matches its audit entry ${entry.eventId}: it was changed outside Chargewell.` })
+        if (!entry)
+          report({
+            entity: kind,
+            entityId: String(id),
+            reason: `${kind} ${id} has no audit entry vouching for its content: it was written outside Chargewell.`,
+          })
+        else if (entry.recordHash !== hashes.get(id))
+          report({
+            entity: kind,
+            entityId: String(id),
+            reason: `${kind} ${id} no longer matches its audit entry ${entry.eventId}: it was changed outside Chargewell.`,
+          })
       }
       afterId = ids.at(-1)!
     }
   }
   for (const [key, entry] of vouched) {
     const [entity, entityId] = key.split(':') as [string, string]
-    if (isRecordKind(entity)) report({ entity, entityId, reason: `${entity} ${entityId} is missing: audit entry ${entry.eventId} vouches for it, but the row was deleted.` })
+    if (isRecordKind(entity))
+      report({
+        entity,
+        entityId,
+        reason: `${entity} ${entityId} is missing: audit entry ${entry.eventId} vouches for it, but the row was deleted.`,
+      })
   }
 
   const ok = !firstBroken && headProblems.length === 0 && mismatches === 0
   return {
-    ok, checked, recordsChecked,
+    ok,
+    checked,
+    recordsChecked,
     head: { eventCount: head?.eventCount ?? null, sealed: !!head?.seal, sealChecked: !!keys && !!head?.seal },
     ...(firstBroken ? { firstBroken } : {}),
     headProblems,
@@ -234,7 +354,14 @@ export async function* auditExportLines(exportedBy: string): AsyncGenerator<stri
     digest.update(line)
     return line
   }
-  yield emit({ format: EXPORT_FORMAT, version: 1, exportedAt: new Date().toISOString(), exportedBy, publicKey: keys.publicKey, keyFingerprint: keys.fingerprint })
+  yield emit({
+    format: EXPORT_FORMAT,
+    version: 1,
+    exportedAt: new Date().toISOString(),
+    exportedBy,
+    publicKey: keys.publicKey,
+    keyFingerprint: keys.fingerprint,
+  })
   let lastId = 0
   let count = 0
   let lastHash = GENESIS_HASH
@@ -244,8 +371,17 @@ export async function* auditExportLines(exportedBy: string): AsyncGenerator<stri
     let lines = ''
     for (const event of batch) {
       lines += emit({
-        id: event.id, at: event.at.toISOString(), actorId: event.actorId, entity: event.entity, entityId: event.entityId, action: event.action,
-        detail: event.detail, recordHash: event.recordHash, hashVersion: event.hashVersion, previousHash: event.previousHash, hash: event.hash,
+        id: event.id,
+        at: event.at.toISOString(),
+        actorId: event.actorId,
+        entity: event.entity,
+        entityId: event.entityId,
+        action: event.action,
+        detail: event.detail,
+        recordHash: event.recordHash,
+        hashVersion: event.hashVersion,
+        previousHash: event.previousHash,
+        hash: event.hash,
       })
       lastId = event.id
       lastHash = event.hash
@@ -257,7 +393,10 @@ export async function* auditExportLines(exportedBy: string): AsyncGenerator<stri
   const hex = digest.digest('hex')
   const message = Buffer.from(`${EXPORT_FORMAT}:1:${hex}:${count}:${lastHash}`)
   yield `${JSON.stringify({
-    entries: count, lastHash, sealedHead: head ? { eventCount: head.eventCount, lastEventId: head.lastEventId, lastHash: head.lastHash } : null,
-    digest: hex, signature: sign(null, message, keys.signing).toString('base64'),
+    entries: count,
+    lastHash,
+    sealedHead: head ? { eventCount: head.eventCount, lastEventId: head.lastEventId, lastHash: head.lastHash } : null,
+    digest: hex,
+    signature: sign(null, message, keys.signing).toString('base64'),
   })}\n`
 }

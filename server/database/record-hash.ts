@@ -1,7 +1,17 @@
 import { createHash } from 'node:crypto'
 import { Op, type Model, type ModelStatic, type Transaction } from 'sequelize'
 import {
-  Accumulator, AccumulatorInstallation, Aircraft, Attachment, CycleCheck, Signature, Specification, SpecificationTablePoint, Tool, User, Worksheet,
+  Accumulator,
+  AccumulatorInstallation,
+  Aircraft,
+  Attachment,
+  CycleCheck,
+  Signature,
+  Specification,
+  SpecificationTablePoint,
+  Tool,
+  User,
+  Worksheet,
 } from '../models'
 
 /**
@@ -11,15 +21,36 @@ import {
  * the application's back no longer matches. Fields that change without meaning (updatedAt,
  * a user's display preferences and session version) are left out.
  */
-interface Child { model: ModelStatic<Model>, foreignKey: string, name: string, exclude?: string[] }
+interface Child {
+  model: ModelStatic<Model>
+  foreignKey: string
+  name: string
+  exclude?: string[]
+}
 /** `omitWhenNull`: columns added later, left out while empty so records written before them keep their hash. */
-interface RecordKind { model: ModelStatic<Model>, exclude: string[], children: Child[], omitWhenNull?: string[] }
+interface RecordKind {
+  model: ModelStatic<Model>
+  exclude: string[]
+  children: Child[]
+  omitWhenNull?: string[]
+}
 
 export const RECORD_KINDS = {
   'worksheet': {
     model: Worksheet as ModelStatic<Model>,
     // The list's columns are derived from content and results, which are hashed.
-    exclude: ['updatedAt', 'registration', 'fleetNumber', 'position', 'partNumber', 'serialNumber', 'asFoundVerdict', 'asLeftVerdict', 'gaugeId', 'cartId'],
+    exclude: [
+      'updatedAt',
+      'registration',
+      'fleetNumber',
+      'position',
+      'partNumber',
+      'serialNumber',
+      'asFoundVerdict',
+      'asLeftVerdict',
+      'gaugeId',
+      'cartId',
+    ],
     omitWhenNull: ['clientId'],
     children: [
       { model: Signature as ModelStatic<Model>, foreignKey: 'worksheetId', name: 'signatures' },
@@ -29,7 +60,9 @@ export const RECORD_KINDS = {
   'specification': {
     model: Specification as ModelStatic<Model>,
     exclude: ['updatedAt'],
-    children: [{ model: SpecificationTablePoint as ModelStatic<Model>, foreignKey: 'specificationId', name: 'tablePoints' }],
+    children: [
+      { model: SpecificationTablePoint as ModelStatic<Model>, foreignKey: 'specificationId', name: 'tablePoints' },
+    ],
   },
   'tool': { model: Tool as ModelStatic<Model>, exclude: ['updatedAt'], children: [] },
   'user': { model: User as ModelStatic<Model>, exclude: ['updatedAt', 'preferences', 'sessionVersion'], children: [] },
@@ -37,7 +70,9 @@ export const RECORD_KINDS = {
   'accumulator': {
     model: Accumulator as ModelStatic<Model>,
     exclude: ['updatedAt'],
-    children: [{ model: AccumulatorInstallation as ModelStatic<Model>, foreignKey: 'accumulatorId', name: 'installations' }],
+    children: [
+      { model: AccumulatorInstallation as ModelStatic<Model>, foreignKey: 'accumulatorId', name: 'installations' },
+    ],
   },
   'cycle-check': {
     model: CycleCheck as ModelStatic<Model>,
@@ -60,9 +95,12 @@ export function canonical(value: unknown): unknown {
   if (value instanceof Date) return Number.isNaN(value.getTime()) ? 'invalid date' : value.toISOString()
   if (Array.isArray(value)) return value.map(canonical)
   if (value && typeof value === 'object') {
-    return Object.fromEntries(Object.keys(value).sort()
-      .filter(key => (value as Record<string, unknown>)[key] !== undefined)
-      .map(key => [key, canonical((value as Record<string, unknown>)[key])]))
+    return Object.fromEntries(
+      Object.keys(value)
+        .sort()
+        .filter(key => (value as Record<string, unknown>)[key] !== undefined)
+        .map(key => [key, canonical((value as Record<string, unknown>)[key])]),
+    )
   }
   return value
 }
@@ -72,8 +110,11 @@ export function sha256(text: string): string {
 }
 
 function plain(row: Model, exclude: string[] = [], omitWhenNull: string[] = []): Record<string, unknown> {
-  return Object.fromEntries(Object.entries(row.get({ plain: true }) as Record<string, unknown>)
-    .filter(([key, value]) => !exclude.includes(key) && !(value === null && omitWhenNull.includes(key))))
+  return Object.fromEntries(
+    Object.entries(row.get({ plain: true }) as Record<string, unknown>).filter(
+      ([key, value]) => !exclude.includes(key) && !(value === null && omitWhenNull.includes(key)),
+    ),
+  )
 }
 
 // Map.groupBy arrives with Node 21.
@@ -88,13 +129,22 @@ function groupBy<T, K>(items: T[], key: (item: T) => K): Map<K, T[]> {
 }
 
 /** The canonical content hashes of some records of one kind, read in the given transaction. */
-export async function recordHashes(kind: RecordKindName, ids: number[], transaction?: Transaction): Promise<Map<number, string>> {
+export async function recordHashes(
+  kind: RecordKindName,
+  ids: number[],
+  transaction?: Transaction,
+): Promise<Map<number, string>> {
   const definition: RecordKind = RECORD_KINDS[kind]
   if (ids.length === 0) return new Map()
   const rows = await definition.model.findAll({ where: { id: { [Op.in]: ids } }, order: [['id', 'ASC']], transaction })
-  const children = await Promise.all(definition.children.map(child =>
-    child.model.findAll({ where: { [child.foreignKey]: { [Op.in]: ids } }, order: [['id', 'ASC']], transaction })))
-  const childrenOf = definition.children.map((child, index) => groupBy(children[index]!, row => row.get(child.foreignKey) as number))
+  const children = await Promise.all(
+    definition.children.map(child =>
+      child.model.findAll({ where: { [child.foreignKey]: { [Op.in]: ids } }, order: [['id', 'ASC']], transaction }),
+    ),
+  )
+  const childrenOf = definition.children.map((child, index) =>
+    groupBy(children[index]!, row => row.get(child.foreignKey) as number),
+  )
   const hashes = new Map<number, string>()
   for (const row of rows) {
     const id = row.get('id') as number

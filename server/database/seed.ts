@@ -1,15 +1,14 @@
 /**
- * `npm run seed`: migrates the database at NUXT_DB_PATH and fills it with Chargewell's demo
- * scenario, without starting the server. Idempotent: a second run changes nothing.
+ * The demo scenario, loaded by the Nitro task `db:seed` (`npm run seed`; server/tasks/db/seed.ts)
+ * into the database the server is configured with, after its migrations. Idempotent: a second run
+ * changes nothing. Runs inside the server so it uses the app's own services (the frozen worksheet
+ * content, signatures, installations) and the sign-in library's own password hashing.
  *
  * Everything here is invented for the demo: the operator (Fellmoor Regional), its aircraft
  * types (Tarnwing 46, Tarnwing 72), registrations in the unallocated QX- block, part numbers,
  * specifications, data references and people.
  */
-import { Hash } from '@adonisjs/hash'
-import { Scrypt } from '@adonisjs/hash/drivers/scrypt'
-import { existsSync, readFileSync } from 'node:fs'
-import type { Sequelize } from 'sequelize'
+import type { Transaction } from 'sequelize'
 import { ENGINE_VERSION } from '../../shared/gas/version'
 import type { Pressure, Temperature } from '../../shared/gas/types'
 import { DEFAULT_PREFERENCES, type Role } from '../../shared/types/user'
@@ -18,27 +17,36 @@ import { specificationChargeTarget, specificationPressure } from '../../shared/u
 import { assessWorksheetReading } from '../../shared/utils/worksheet-results'
 import { gaugeAccuracy } from '../../shared/utils/tool-accuracy'
 import { cycleCheckLeakRate } from '../../shared/utils/cycle-check'
-import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT, type ToolSnapshot, type WorksheetContent, type WorksheetResults } from '../../shared/types/worksheet'
-import { databaseLocation, openDatabase } from './connection'
-import { migrate } from './migrate'
-import { appendAudit, auditSecretFrom, baselineRecords, configureAuditSecret } from './audit-chain'
+import type { ToolSnapshot, WorksheetContent, WorksheetResults } from '../../shared/types/worksheet'
+import { appendAudit, baselineRecords } from './audit-chain'
 import { rebuildTrends } from './trend-store'
-import { createWriteQueue } from './write-queue'
+import { install } from '../services/accumulators'
+import { createSignature } from '../services/signatures'
+import { frozenContent } from '../services/worksheets'
 import {
-  Accumulator, AccumulatorInstallation, Aircraft, CycleCheck, Signature, Specification, SpecificationTablePoint, Tool, User, Worksheet,
+  Accumulator,
+  Aircraft,
+  CycleCheck,
+  Specification,
+  SpecificationTablePoint,
+  Tool,
+  User,
+  Worksheet,
 } from '../models'
 
 export const DEMO_PASSWORD = 'chargewell-demo'
-
-// Same driver and defaults as nuxt-auth-utils' hashPassword, so verifyPassword accepts these.
-const hasher = new Hash(new Scrypt({}))
 
 const DEMO_USERS: { email: string, name: string, roles: Role[], authorisationNumber: string | null }[] = [
   { email: 'technician@chargewell.test', name: 'Rowan Hale', roles: ['technician'], authorisationNumber: 'FMR-T-0412' },
   { email: 'inspector@chargewell.test', name: 'Imke Dorsey', roles: ['inspector'], authorisationNumber: 'FMR-I-0107' },
   { email: 'engineer@chargewell.test', name: 'Sol Varga', roles: ['engineer'], authorisationNumber: null },
   { email: 'admin@chargewell.test', name: 'Nell Abara', roles: ['admin'], authorisationNumber: null },
-  { email: 'lead@chargewell.test', name: 'Jules Tarrant', roles: ['technician', 'inspector'], authorisationNumber: 'FMR-TI-0033' },
+  {
+    email: 'lead@chargewell.test',
+    name: 'Jules Tarrant',
+    roles: ['technician', 'inspector'],
+    authorisationNumber: 'FMR-TI-0033',
+  },
 ]
 
 const AIRCRAFT = [
@@ -52,44 +60,128 @@ const AIRCRAFT = [
 
 type SpecificationSeed = Omit<SpecificationDto, 'id' | 'status'>
 
-const common = { pressureUnit: 'psi', pressureBasis: 'gauge', referenceTemperatureUnit: 'C', gasModel: 'real', checkIntervalDays: 90, lossThresholdPerDay: 0.8 } as const
+const common = {
+  pressureUnit: 'psi',
+  pressureBasis: 'gauge',
+  referenceTemperatureUnit: 'C',
+  gasModel: 'real',
+  checkIntervalDays: 90,
+  lossThresholdPerDay: 0.8,
+} as const
 
 const SPECIFICATIONS: SpecificationSeed[] = [
   {
-    ...common, partNumber: 'FA-2210-03', revision: 'C', title: 'Main hydraulic accumulator, Tarnwing 46', accumulatorType: 'piston',
-    gasVolume: 120, gasVolumeUnit: 'in3', referencePressure: 1500, referenceTemperature: 21, toleranceMinus: 50, tolerancePlus: 50,
-    toleranceUnit: 'psi', correctionMethod: 'gas-law', maxPressure: 3000, minPressure: 1800, settleMinutes: 15,
-    dataReference: 'TW46 SMM 29-11-10', dataRevision: 'Rev 14', tablePoints: [],
+    ...common,
+    partNumber: 'FA-2210-03',
+    revision: 'C',
+    title: 'Main hydraulic accumulator, Tarnwing 46',
+    accumulatorType: 'piston',
+    gasVolume: 120,
+    gasVolumeUnit: 'in3',
+    referencePressure: 1500,
+    referenceTemperature: 21,
+    toleranceMinus: 50,
+    tolerancePlus: 50,
+    toleranceUnit: 'psi',
+    correctionMethod: 'gas-law',
+    maxPressure: 3000,
+    minPressure: 1800,
+    settleMinutes: 15,
+    dataReference: 'TW46 SMM 29-11-10',
+    dataRevision: 'Rev 14',
+    tablePoints: [],
   },
   {
-    ...common, partNumber: 'FA-2240-01', revision: 'B', title: 'Brake accumulator, Tarnwing 46', accumulatorType: 'bladder',
-    gasVolume: 60, gasVolumeUnit: 'in3', referencePressure: 1000, referenceTemperature: 21, toleranceMinus: 5, tolerancePlus: 5,
-    toleranceUnit: '%', correctionMethod: 'gas-law', maxPressure: 3000, minPressure: 1500, settleMinutes: 10,
-    dataReference: 'TW46 SMM 32-42-05', dataRevision: 'Rev 9', tablePoints: [],
+    ...common,
+    partNumber: 'FA-2240-01',
+    revision: 'B',
+    title: 'Brake accumulator, Tarnwing 46',
+    accumulatorType: 'bladder',
+    gasVolume: 60,
+    gasVolumeUnit: 'in3',
+    referencePressure: 1000,
+    referenceTemperature: 21,
+    toleranceMinus: 5,
+    tolerancePlus: 5,
+    toleranceUnit: '%',
+    correctionMethod: 'gas-law',
+    maxPressure: 3000,
+    minPressure: 1500,
+    settleMinutes: 10,
+    dataReference: 'TW46 SMM 32-42-05',
+    dataRevision: 'Rev 9',
+    tablePoints: [],
   },
   {
-    ...common, partNumber: 'FA-2260-02', revision: 'A', title: 'Emergency brake accumulator, Tarnwing 46', accumulatorType: 'piston',
-    gasVolume: 200, gasVolumeUnit: 'in3', referencePressure: 1200, referenceTemperature: 21, toleranceMinus: 40, tolerancePlus: 60,
-    toleranceUnit: 'psi', correctionMethod: 'gas-law', maxPressure: 3000, minPressure: 1400, settleMinutes: 20,
-    dataReference: 'TW46 SMM 32-44-20', dataRevision: 'Rev 3', tablePoints: [],
+    ...common,
+    partNumber: 'FA-2260-02',
+    revision: 'A',
+    title: 'Emergency brake accumulator, Tarnwing 46',
+    accumulatorType: 'piston',
+    gasVolume: 200,
+    gasVolumeUnit: 'in3',
+    referencePressure: 1200,
+    referenceTemperature: 21,
+    toleranceMinus: 40,
+    tolerancePlus: 60,
+    toleranceUnit: 'psi',
+    correctionMethod: 'gas-law',
+    maxPressure: 3000,
+    minPressure: 1400,
+    settleMinutes: 20,
+    dataReference: 'TW46 SMM 32-44-20',
+    dataRevision: 'Rev 3',
+    tablePoints: [],
   },
   {
-    ...common, partNumber: 'FJ-3310-05', revision: 'D', title: 'System accumulator, Tarnwing 72', accumulatorType: 'bladder',
-    gasVolume: 150, gasVolumeUnit: 'in3', referencePressure: 1500, referenceTemperature: 20, toleranceMinus: 50, tolerancePlus: 50,
-    toleranceUnit: 'psi', correctionMethod: 'table', maxPressure: 3000, minPressure: 1750, settleMinutes: 15,
-    dataReference: 'TW72 SMM 29-10-00 Fig. 601', dataRevision: 'Rev 22',
+    ...common,
+    partNumber: 'FJ-3310-05',
+    revision: 'D',
+    title: 'System accumulator, Tarnwing 72',
+    accumulatorType: 'bladder',
+    gasVolume: 150,
+    gasVolumeUnit: 'in3',
+    referencePressure: 1500,
+    referenceTemperature: 20,
+    toleranceMinus: 50,
+    tolerancePlus: 50,
+    toleranceUnit: 'psi',
+    correctionMethod: 'table',
+    maxPressure: 3000,
+    minPressure: 1750,
+    settleMinutes: 15,
+    dataReference: 'TW72 SMM 29-10-00 Fig. 601',
+    dataRevision: 'Rev 22',
     // An approved-data chart of pre-charge against gas temperature (invented figures).
     tablePoints: [
-      { temperature: -40, temperatureUnit: 'C', pressure: 1170 }, { temperature: -20, temperatureUnit: 'C', pressure: 1280 },
-      { temperature: 0, temperatureUnit: 'C', pressure: 1390 }, { temperature: 20, temperatureUnit: 'C', pressure: 1500 },
-      { temperature: 40, temperatureUnit: 'C', pressure: 1610 }, { temperature: 60, temperatureUnit: 'C', pressure: 1720 },
+      { temperature: -40, temperatureUnit: 'C', pressure: 1170 },
+      { temperature: -20, temperatureUnit: 'C', pressure: 1280 },
+      { temperature: 0, temperatureUnit: 'C', pressure: 1390 },
+      { temperature: 20, temperatureUnit: 'C', pressure: 1500 },
+      { temperature: 40, temperatureUnit: 'C', pressure: 1610 },
+      { temperature: 60, temperatureUnit: 'C', pressure: 1720 },
     ],
   },
   {
-    ...common, partNumber: 'FJ-3340-02', revision: 'B', title: 'Brake accumulator, Tarnwing 72', accumulatorType: 'diaphragm',
-    gasVolume: 80, gasVolumeUnit: 'in3', referencePressure: 1000, referenceTemperature: 20, toleranceMinus: 40, tolerancePlus: 40,
-    toleranceUnit: 'psi', correctionMethod: 'gas-law', maxPressure: 3000, minPressure: 1400, settleMinutes: 10,
-    dataReference: 'TW72 SMM 32-41-00', dataRevision: 'Rev 11', tablePoints: [],
+    ...common,
+    partNumber: 'FJ-3340-02',
+    revision: 'B',
+    title: 'Brake accumulator, Tarnwing 72',
+    accumulatorType: 'diaphragm',
+    gasVolume: 80,
+    gasVolumeUnit: 'in3',
+    referencePressure: 1000,
+    referenceTemperature: 20,
+    toleranceMinus: 40,
+    tolerancePlus: 40,
+    toleranceUnit: 'psi',
+    correctionMethod: 'gas-law',
+    maxPressure: 3000,
+    minPressure: 1400,
+    settleMinutes: 10,
+    dataReference: 'TW72 SMM 32-41-00',
+    dataRevision: 'Rev 11',
+    tablePoints: [],
   },
 ]
 
@@ -103,7 +195,11 @@ const POSITIONS: Record<string, { position: string, system: string, partNumber: 
     { position: 'System 1, aft equipment bay', system: 'Hydraulic system 1', partNumber: 'FJ-3310-05' },
     { position: 'System 2, aft equipment bay', system: 'Hydraulic system 2', partNumber: 'FJ-3310-05' },
     { position: 'Normal brake, left wheel well', system: 'Brake system', partNumber: 'FJ-3340-02' },
-    { position: 'Parking/emergency brake, right wheel well', system: 'Emergency brake system', partNumber: 'FA-2260-02' },
+    {
+      position: 'Parking/emergency brake, right wheel well',
+      system: 'Emergency brake system',
+      partNumber: 'FA-2260-02',
+    },
   ],
 }
 
@@ -129,45 +225,138 @@ async function seedUsers(): Promise<Record<string, User>> {
   const users: Record<string, User> = {}
   for (const demo of DEMO_USERS) {
     const existing = await User.findOne({ where: { email: demo.email } })
-    users[demo.email] = existing ?? await User.create({
-      ...demo,
-      passwordHash: await hasher.make(DEMO_PASSWORD),
-      preferences: { ...DEFAULT_PREFERENCES, stationElevation: { value: 420, unit: 'ft' }, stationName: 'Harlow Moor' },
-    })
+    users[demo.email]
+      = existing
+        ?? (await User.create({
+          ...demo,
+          passwordHash: await hashPassword(DEMO_PASSWORD),
+          preferences: {
+            ...DEFAULT_PREFERENCES,
+            stationElevation: { value: 420, unit: 'ft' },
+            stationName: 'Harlow Moor',
+          },
+        }))
   }
   return users
 }
 
-async function seedScenario(sequelize: Sequelize, users: Record<string, User>): Promise<void> {
-  if (await Aircraft.count() > 0) return
-  await createWriteQueue(sequelize)(async (transaction) => {
+async function seedScenario(users: Record<string, User>): Promise<void> {
+  if ((await Aircraft.count()) > 0) return
+  await writeTransaction(async (transaction) => {
     const specifications: Record<string, Specification> = {}
     for (const { tablePoints, ...fields } of SPECIFICATIONS) {
-      const specification = await Specification.create({ ...fields, status: 'current', supersedesId: null }, { transaction })
-      for (const point of tablePoints) await SpecificationTablePoint.create({ ...point, specificationId: specification.id }, { transaction })
+      const specification = await Specification.create(
+        { ...fields, status: 'current', supersedesId: null },
+        { transaction },
+      )
+      for (const point of tablePoints)
+        await SpecificationTablePoint.create({ ...point, specificationId: specification.id }, { transaction })
       specifications[fields.partNumber] = specification
     }
     // A superseded revision, so the register shows how revisions chain.
-    const oldBrake = await Specification.create({
-      ...SPECIFICATIONS[1]!, revision: 'A', dataRevision: 'Rev 7', status: 'superseded', supersedesId: null,
-      createdAt: new Date(Date.now() - 700 * DAY),
-    }, { transaction })
+    const oldBrake = await Specification.create(
+      {
+        ...SPECIFICATIONS[1]!,
+        revision: 'A',
+        dataRevision: 'Rev 7',
+        status: 'superseded',
+        supersedesId: null,
+        createdAt: new Date(Date.now() - 700 * DAY),
+      },
+      { transaction },
+    )
     await specifications['FA-2240-01']!.update({ supersedesId: oldBrake.id }, { transaction })
 
     const now = new Date()
     const gauges = [
-      await Tool.create({ kind: 'gauge', assetNumber: 'GA-0141', description: 'Nitrogen charging gauge 0–4000 psi, 6 in dial', rangeMax: 4000, rangeUnit: 'psi', resolution: 20, accuracy: 0.25, accuracyUnit: '%FS', calibrationDue: isoDate(new Date(now.getTime() + 140 * DAY)) }, { transaction }),
-      await Tool.create({ kind: 'gauge', assetNumber: 'GA-0152', description: 'Digital test gauge 0–5000 psi', rangeMax: 5000, rangeUnit: 'psi', resolution: 1, accuracy: 0.1, accuracyUnit: '%FS', calibrationDue: isoDate(new Date(now.getTime() + 260 * DAY)) }, { transaction }),
-      await Tool.create({ kind: 'gauge', assetNumber: 'GA-0098', description: 'Nitrogen charging gauge 0–3000 psi (calibration expired)', rangeMax: 3000, rangeUnit: 'psi', resolution: 20, accuracy: 0.5, accuracyUnit: '%FS', calibrationDue: isoDate(new Date(now.getTime() - 21 * DAY)) }, { transaction }),
+      await Tool.create(
+        {
+          kind: 'gauge',
+          assetNumber: 'GA-0141',
+          description: 'Nitrogen charging gauge 0–4000 psi, 6 in dial',
+          rangeMax: 4000,
+          rangeUnit: 'psi',
+          resolution: 20,
+          accuracy: 0.25,
+          accuracyUnit: '%FS',
+          calibrationDue: isoDate(new Date(now.getTime() + 140 * DAY)),
+        },
+        { transaction },
+      ),
+      await Tool.create(
+        {
+          kind: 'gauge',
+          assetNumber: 'GA-0152',
+          description: 'Digital test gauge 0–5000 psi',
+          rangeMax: 5000,
+          rangeUnit: 'psi',
+          resolution: 1,
+          accuracy: 0.1,
+          accuracyUnit: '%FS',
+          calibrationDue: isoDate(new Date(now.getTime() + 260 * DAY)),
+        },
+        { transaction },
+      ),
+      await Tool.create(
+        {
+          kind: 'gauge',
+          assetNumber: 'GA-0098',
+          description: 'Nitrogen charging gauge 0–3000 psi (calibration expired)',
+          rangeMax: 3000,
+          rangeUnit: 'psi',
+          resolution: 20,
+          accuracy: 0.5,
+          accuracyUnit: '%FS',
+          calibrationDue: isoDate(new Date(now.getTime() - 21 * DAY)),
+        },
+        { transaction },
+      ),
     ]
     const carts = [
-      await Tool.create({ kind: 'cart', assetNumber: 'NC-07', description: 'Nitrogen cart, two 50 L cylinders, regulator to 3500 psi', rangeMax: 3500, rangeUnit: 'psi', resolution: null, accuracy: null, accuracyUnit: null, calibrationDue: isoDate(new Date(now.getTime() + 90 * DAY)) }, { transaction }),
-      await Tool.create({ kind: 'cart', assetNumber: 'NC-11', description: 'Nitrogen cart, booster, regulator to 5000 psi', rangeMax: 5000, rangeUnit: 'psi', resolution: null, accuracy: null, accuracyUnit: null, calibrationDue: isoDate(new Date(now.getTime() + 200 * DAY)) }, { transaction }),
+      await Tool.create(
+        {
+          kind: 'cart',
+          assetNumber: 'NC-07',
+          description: 'Nitrogen cart, two 50 L cylinders, regulator to 3500 psi',
+          rangeMax: 3500,
+          rangeUnit: 'psi',
+          resolution: null,
+          accuracy: null,
+          accuracyUnit: null,
+          calibrationDue: isoDate(new Date(now.getTime() + 90 * DAY)),
+        },
+        { transaction },
+      ),
+      await Tool.create(
+        {
+          kind: 'cart',
+          assetNumber: 'NC-11',
+          description: 'Nitrogen cart, booster, regulator to 5000 psi',
+          rangeMax: 5000,
+          rangeUnit: 'psi',
+          resolution: null,
+          accuracy: null,
+          accuracyUnit: null,
+          calibrationDue: isoDate(new Date(now.getTime() + 200 * DAY)),
+        },
+        { transaction },
+      ),
     ]
 
     // As a worksheet freezes them (GA-0141: 0.25 % of 4000 psi full scale = ±10 psi).
-    const gaugeSnapshot: ToolSnapshot = { id: gauges[0]!.id, assetNumber: gauges[0]!.assetNumber, description: gauges[0]!.description, calibrationDue: gauges[0]!.calibrationDue, accuracy: gaugeAccuracy(gauges[0]!) }
-    const cartSnapshot: ToolSnapshot = { id: carts[0]!.id, assetNumber: carts[0]!.assetNumber, description: carts[0]!.description, calibrationDue: carts[0]!.calibrationDue }
+    const gaugeSnapshot: ToolSnapshot = {
+      id: gauges[0]!.id,
+      assetNumber: gauges[0]!.assetNumber,
+      description: gauges[0]!.description,
+      calibrationDue: gauges[0]!.calibrationDue,
+      accuracy: gaugeAccuracy(gauges[0]!),
+    }
+    const cartSnapshot: ToolSnapshot = {
+      id: carts[0]!.id,
+      assetNumber: carts[0]!.assetNumber,
+      description: carts[0]!.description,
+      calibrationDue: carts[0]!.calibrationDue,
+    }
     const random = randomSource(4601)
     let serial = 1000
     const installedAt = isoDate(new Date(now.getTime() - 420 * DAY))
@@ -177,16 +366,34 @@ async function seedScenario(sequelize: Sequelize, users: Record<string, User>): 
       const aircraft = await Aircraft.create(aircraftSeed, { transaction })
       for (const slot of POSITIONS[aircraftSeed.type]!) {
         const specification = specifications[slot.partNumber]!
-        const accumulator = await Accumulator.create({
-          partNumber: slot.partNumber, serialNumber: `SN${++serial}`, aircraftId: aircraft.id, position: slot.position,
-          system: slot.system, installedAt,
-        }, { transaction })
-        await AccumulatorInstallation.create({ accumulatorId: accumulator.id, aircraftId: aircraft.id, position: slot.position, installedAt, removedAt: null, removalReason: null }, { transaction })
-        const leaking = aircraftSeed.registration === LEAKING_UNIT.registration && slot.position === LEAKING_UNIT.position
+        const accumulator = await Accumulator.create(
+          {
+            partNumber: slot.partNumber,
+            serialNumber: `SN${++serial}`,
+            aircraftId: aircraft.id,
+            position: slot.position,
+            system: slot.system,
+            installedAt,
+          },
+          { transaction },
+        )
+        await install(accumulator.id, aircraft.id, slot.position, installedAt, transaction)
+        const leaking
+          = aircraftSeed.registration === LEAKING_UNIT.registration && slot.position === LEAKING_UNIT.position
         await seedHistory({
-          specification: { ...SPECIFICATIONS.find(seed => seed.partNumber === slot.partNumber)!, id: specification.id, status: 'current' },
-          aircraft, accumulator, leaking, random, gauge: gaugeSnapshot, cart: cartSnapshot,
-          performer: () => performers[Math.floor(random() * 2)]!, inspectorFor: (performer: User) => inspectors.find(user => user.id !== performer.id)!,
+          specification: {
+            ...SPECIFICATIONS.find(seed => seed.partNumber === slot.partNumber)!,
+            id: specification.id,
+            status: 'current',
+          },
+          aircraft,
+          accumulator,
+          leaking,
+          random,
+          gauge: gaugeSnapshot,
+          cart: cartSnapshot,
+          performer: () => performers[Math.floor(random() * 2)]!,
+          inspectorFor: (performer: User) => inspectors.find(user => user.id !== performer.id)!,
           transaction,
         })
       }
@@ -195,7 +402,16 @@ async function seedScenario(sequelize: Sequelize, users: Record<string, User>): 
     await seedOpenWork({ specifications, gauge: gaugeSnapshot, cart: cartSnapshot, users, transaction })
     // Every record the seed wrote directly is vouched for by the trail from here on.
     await baselineRecords(transaction)
-    await appendAudit({ actorId: null, entity: 'system', entityId: 'seed', action: 'seeded', detail: { aircraft: AIRCRAFT.length, engineVersion: ENGINE_VERSION } }, transaction)
+    await appendAudit(
+      {
+        actorId: null,
+        entity: 'system',
+        entityId: 'seed',
+        action: 'seeded',
+        detail: { aircraft: AIRCRAFT.length, engineVersion: ENGINE_VERSION },
+      },
+      transaction,
+    )
   })
 }
 
@@ -209,10 +425,13 @@ interface HistoryContext {
   cart: ToolSnapshot
   performer: () => User
   inspectorFor: (performer: User) => User
-  transaction: import('sequelize').Transaction
+  transaction: Transaction
 }
 
-/** A year of released servicing every ~60 days: as-found drifts (fast for the leaking unit), charged back when out of limits. */
+/**
+ * A year of released servicing every ~60 days: as-found drifts (fast for the leaking unit), charged back when
+ * out of limits.
+ */
 async function seedHistory(context: HistoryContext): Promise<void> {
   const { specification, random, transaction } = context
   const ambient = { elevation: { value: 420, unit: 'ft' as const } }
@@ -226,16 +445,26 @@ async function seedHistory(context: HistoryContext): Promise<void> {
     const days = (serviceTime - lastService) / DAY
     heldAtReference -= (context.leaking ? LEAKING_UNIT.lossPerDay : 0.03) * days + (random() - 0.5) * 4
     const dayOfYear = new Date(serviceTime).getUTCMonth() * 30.4
-    const gasCelsius = Math.round((9 - 11 * Math.cos((dayOfYear - 15) / 365 * 2 * Math.PI) + (random() - 0.5) * 6) * 2) / 2
+    const gasCelsius
+      = Math.round((9 - 11 * Math.cos(((dayOfYear - 15) / 365) * 2 * Math.PI) + (random() - 0.5) * 6) * 2) / 2
     const gasTemperature: Temperature = { value: gasCelsius, unit: 'C' }
-    const reference = specificationChargeTarget({ ...specification, correctionMethod: 'gas-law', gasModel: 'real' }, { value: specification.referenceTemperature, unit: 'C' }, ambient)
+    const reference = specificationChargeTarget(
+      { ...specification, correctionMethod: 'gas-law', gasModel: 'real' },
+      { value: specification.referenceTemperature, unit: 'C' },
+      ambient,
+    )
     // The true reading: the held charge carried from the reference temperature to today's gas temperature.
     const scale = heldAtReference / reference.target.value
     const target = specificationChargeTarget(specification, gasTemperature, ambient)
-    const asFound: Pressure = specificationPressure(specification, Math.round(target.target.value * scale / 5) * 5)
+    const asFound: Pressure = specificationPressure(specification, Math.round((target.target.value * scale) / 5) * 5)
     const asFoundResult = assessWorksheetReading(specification, asFound, gasTemperature, ambient, context.gauge)
     const halfBand = target.target.value - target.low!.value
-    const action = asFoundResult.assessment.verdict === 'low' || asFoundResult.assessment.difference < -0.6 * halfBand ? 'charge' : asFoundResult.assessment.verdict === 'high' ? 'vent' : 'none'
+    const action
+      = asFoundResult.assessment.verdict === 'low' || asFoundResult.assessment.difference < -0.6 * halfBand
+        ? 'charge'
+        : asFoundResult.assessment.verdict === 'high'
+          ? 'vent'
+          : 'none'
     let asLeft = asFound
     if (action !== 'none') {
       asLeft = specificationPressure(specification, Math.round(target.target.value / 5) * 5)
@@ -247,31 +476,65 @@ async function seedHistory(context: HistoryContext): Promise<void> {
     const performedAt = new Date(serviceTime)
     const at = (minutes: number) => new Date(serviceTime + minutes * 60_000).toISOString()
     const releasedAt = new Date(serviceTime + 150 * 60_000)
-    const { status: _status, ...frozenSpecification } = specification
     const content: WorksheetContent = {
-      specification: frozenSpecification,
-      aircraft: { id: context.aircraft.id, registration: context.aircraft.registration, fleetNumber: context.aircraft.fleetNumber, type: context.aircraft.type },
-      accumulator: { id: context.accumulator.id, partNumber: context.accumulator.partNumber, serialNumber: context.accumulator.serialNumber, position: context.accumulator.position ?? '' },
+      ...frozenContent(context.accumulator, context.aircraft, context.specification),
       preparation: { systemDepressurised: at(2), aircraftSafe: at(3), eyeProtection: at(4), nitrogenOnly: at(4) },
       tools: { gauge: context.gauge, cart: context.cart },
       conditions: { gasTemperature, temperatureMethod: 'ambient-shade', minutesSinceOperated: 120, ambient },
       asFound: { reading: asFound, recordedAt: at(10) },
       action: { kind: action, recordedAt: at(12) },
-      asLeft: { reading: asLeft, gasTemperature, recordedAt: at(12 + (action === 'none' ? 1 : specification.settleMinutes + 5)) },
-      finish: { valveLeakCheck: true, capFitted: true, remarks: action === 'charge' ? 'Charged to target.' : '', unserviceableReference: null, recordedAt: at(50) },
+      asLeft: {
+        reading: asLeft,
+        gasTemperature,
+        recordedAt: at(12 + (action === 'none' ? 1 : specification.settleMinutes + 5)),
+      },
+      finish: {
+        valveLeakCheck: true,
+        capFitted: true,
+        remarks: action === 'charge' ? 'Charged to target.' : '',
+        unserviceableReference: null,
+        recordedAt: at(50),
+      },
     }
     const results: WorksheetResults = { asFound: asFoundResult, asLeft: asLeftResult }
-    const worksheet = await Worksheet.create({
-      state: 'released', accumulatorId: context.accumulator.id, aircraftId: context.aircraft.id, specificationId: specification.id,
-      performerId: performer.id, correctsId: null, workOrder: `WO-${new Date(serviceTime).getUTCFullYear()}-${String(Math.floor(random() * 90000) + 10000)}`,
-      reason: 'scheduled', serviceable: asLeftResult.assessment.verdict === 'in-limits', returnReason: null, voidReason: null, voidedById: null,
-      content: content as unknown as Record<string, unknown>, results: results as Record<string, unknown>,
-      engineVersion: ENGINE_VERSION, performedAt, submittedAt: new Date(serviceTime + 60 * 60_000), releasedAt,
-      createdAt: performedAt, updatedAt: releasedAt,
-    }, { transaction })
-    await Signature.create({ worksheetId: worksheet.id, userId: performer.id, capacity: 'performer', name: performer.name, authorisationNumber: performer.authorisationNumber, statement: PERFORMER_STATEMENT, signedAt: worksheet.submittedAt!, round: 1 }, { transaction })
-    await Signature.create({ worksheetId: worksheet.id, userId: inspector.id, capacity: 'inspector', name: inspector.name, authorisationNumber: inspector.authorisationNumber, statement: INSPECTOR_STATEMENT, signedAt: releasedAt, round: 1 }, { transaction })
-    await appendAudit({ at: releasedAt, actorId: inspector.id, entity: 'worksheet', entityId: String(worksheet.id), action: 'released', detail: { performer: performer.id, inspector: inspector.id } }, transaction)
+    const worksheet = await Worksheet.create(
+      {
+        state: 'released',
+        accumulatorId: context.accumulator.id,
+        aircraftId: context.aircraft.id,
+        specificationId: specification.id,
+        performerId: performer.id,
+        correctsId: null,
+        workOrder: `WO-${new Date(serviceTime).getUTCFullYear()}-${String(Math.floor(random() * 90000) + 10000)}`,
+        reason: 'scheduled',
+        serviceable: asLeftResult.assessment.verdict === 'in-limits',
+        returnReason: null,
+        voidReason: null,
+        voidedById: null,
+        content,
+        results,
+        engineVersion: ENGINE_VERSION,
+        performedAt,
+        submittedAt: new Date(serviceTime + 60 * 60_000),
+        releasedAt,
+        createdAt: performedAt,
+        updatedAt: releasedAt,
+      },
+      { transaction },
+    )
+    await createSignature(worksheet, performer, 'performer', worksheet.submittedAt!, transaction)
+    await createSignature(worksheet, inspector, 'inspector', releasedAt, transaction)
+    await appendAudit(
+      {
+        at: releasedAt,
+        actorId: inspector.id,
+        entity: 'worksheet',
+        entityId: String(worksheet.id),
+        action: 'released',
+        detail: { performer: performer.id, inspector: inspector.id },
+      },
+      transaction,
+    )
     lastService = serviceTime
   }
 }
@@ -281,7 +544,7 @@ interface OpenWorkContext {
   gauge: ToolSnapshot
   cart: ToolSnapshot
   users: Record<string, User>
-  transaction: import('sequelize').Transaction
+  transaction: Transaction
 }
 
 /**
@@ -294,31 +557,84 @@ async function seedOpenWork({ specifications, gauge, cart, users, transaction }:
   const lead = users['lead@chargewell.test']!
   const inspector = users['inspector@chargewell.test']!
   const ambient = { elevation: { value: 420, unit: 'ft' as const } }
-  const plan: { registration: string, position: string, performer: User, state: 'awaiting-countersign' | 'returned' | 'draft', hoursAgo: number, gasCelsius: number }[] = [
-    { registration: 'QX-FMA', position: 'Main hydraulic, left wheel well', performer: technician, state: 'awaiting-countersign', hoursAgo: 5, gasCelsius: 6 },
-    { registration: 'QX-FMB', position: 'Emergency brake, nose bay', performer: technician, state: 'awaiting-countersign', hoursAgo: 4, gasCelsius: 7 },
-    { registration: 'QX-FMK', position: 'System 2, aft equipment bay', performer: technician, state: 'awaiting-countersign', hoursAgo: 3, gasCelsius: 8.5 },
-    { registration: 'QX-FML', position: 'Normal brake, left wheel well', performer: lead, state: 'awaiting-countersign', hoursAgo: 2, gasCelsius: 9 },
-    { registration: 'QX-FMJ', position: 'Normal brake, left wheel well', performer: technician, state: 'returned', hoursAgo: 26, gasCelsius: 4 },
-    { registration: 'QX-FMB', position: 'Main hydraulic, left wheel well', performer: technician, state: 'draft', hoursAgo: 1, gasCelsius: 10 },
+  const plan: {
+    registration: string
+    position: string
+    performer: User
+    state: 'awaiting-countersign' | 'returned' | 'draft'
+    hoursAgo: number
+    gasCelsius: number
+  }[] = [
+    {
+      registration: 'QX-FMA',
+      position: 'Main hydraulic, left wheel well',
+      performer: technician,
+      state: 'awaiting-countersign',
+      hoursAgo: 5,
+      gasCelsius: 6,
+    },
+    {
+      registration: 'QX-FMB',
+      position: 'Emergency brake, nose bay',
+      performer: technician,
+      state: 'awaiting-countersign',
+      hoursAgo: 4,
+      gasCelsius: 7,
+    },
+    {
+      registration: 'QX-FMK',
+      position: 'System 2, aft equipment bay',
+      performer: technician,
+      state: 'awaiting-countersign',
+      hoursAgo: 3,
+      gasCelsius: 8.5,
+    },
+    {
+      registration: 'QX-FML',
+      position: 'Normal brake, left wheel well',
+      performer: lead,
+      state: 'awaiting-countersign',
+      hoursAgo: 2,
+      gasCelsius: 9,
+    },
+    {
+      registration: 'QX-FMJ',
+      position: 'Normal brake, left wheel well',
+      performer: technician,
+      state: 'returned',
+      hoursAgo: 26,
+      gasCelsius: 4,
+    },
+    {
+      registration: 'QX-FMB',
+      position: 'Main hydraulic, left wheel well',
+      performer: technician,
+      state: 'draft',
+      hoursAgo: 1,
+      gasCelsius: 10,
+    },
   ]
   let workOrder = 88000
   for (const item of plan) {
     const aircraft = (await Aircraft.findOne({ where: { registration: item.registration }, transaction }))!
-    const accumulator = (await Accumulator.findOne({ where: { aircraftId: aircraft.id, position: item.position }, transaction }))!
+    const accumulator = (await Accumulator.findOne({
+      where: { aircraftId: aircraft.id, position: item.position },
+      transaction,
+    }))!
     const seedSpecification = SPECIFICATIONS.find(candidate => candidate.partNumber === accumulator.partNumber)!
-    const specification: SpecificationDto = { ...seedSpecification, id: specifications[accumulator.partNumber]!.id, status: 'current' }
+    const specification: SpecificationDto = {
+      ...seedSpecification,
+      id: specifications[accumulator.partNumber]!.id,
+      status: 'current',
+    }
     const start = Date.now() - item.hoursAgo * 3_600_000
     const at = (minutes: number) => new Date(start + minutes * 60_000).toISOString()
     const gasTemperature: Temperature = { value: item.gasCelsius, unit: 'C' }
     const target = specificationChargeTarget(specification, gasTemperature, ambient)
     const reading = specificationPressure(specification, Math.round(target.target.value / 5) * 5)
     const result = assessWorksheetReading(specification, reading, gasTemperature, ambient, gauge)
-    const { status: _status, ...frozenSpecification } = specification
     const content: WorksheetContent = {
-      specification: frozenSpecification,
-      aircraft: { id: aircraft.id, registration: aircraft.registration, fleetNumber: aircraft.fleetNumber, type: aircraft.type },
-      accumulator: { id: accumulator.id, partNumber: accumulator.partNumber, serialNumber: accumulator.serialNumber, position: accumulator.position ?? '' },
+      ...frozenContent(accumulator, aircraft, specification),
       preparation: { systemDepressurised: at(2), aircraftSafe: at(3), eyeProtection: at(4), nitrogenOnly: at(4) },
       tools: { gauge, cart },
       conditions: { gasTemperature, temperatureMethod: 'ambient-shade', minutesSinceOperated: 95, ambient },
@@ -328,24 +644,59 @@ async function seedOpenWork({ specifications, gauge, cart, users, transaction }:
       content.asFound = { reading, recordedAt: at(10) }
       content.action = { kind: 'none', recordedAt: at(11) }
       content.asLeft = { reading, gasTemperature, recordedAt: at(12) }
-      content.finish = { valveLeakCheck: true, capFitted: true, remarks: 'In limits; no action.', unserviceableReference: null, recordedAt: at(20) }
+      content.finish = {
+        valveLeakCheck: true,
+        capFitted: true,
+        remarks: 'In limits; no action.',
+        unserviceableReference: null,
+        recordedAt: at(20),
+      }
     }
     const submittedAt = new Date(start + 25 * 60_000)
-    const worksheet = await Worksheet.create({
-      state: item.state, accumulatorId: accumulator.id, aircraftId: aircraft.id, specificationId: specification.id, performerId: item.performer.id,
-      correctsId: null, workOrder: `WO-${new Date().getUTCFullYear()}-${++workOrder}`, reason: 'scheduled',
-      serviceable: finished ? result.assessment.verdict === 'in-limits' : null,
-      returnReason: item.state === 'returned' ? 'The gas temperature was taken in the sun on the wheel; take it in the shade and re-read the as-found.' : null,
-      voidReason: null, voidedById: null, content: content as unknown as Record<string, unknown>,
-      results: (finished ? { asFound: result, asLeft: result } : {}) as Record<string, unknown>,
-      engineVersion: ENGINE_VERSION, performedAt: new Date(start), submittedAt: item.state === 'awaiting-countersign' ? submittedAt : null, releasedAt: null,
-      round: item.state === 'returned' ? 2 : 1, createdAt: new Date(start), updatedAt: submittedAt,
-    }, { transaction })
+    const worksheet = await Worksheet.create(
+      {
+        state: item.state,
+        accumulatorId: accumulator.id,
+        aircraftId: aircraft.id,
+        specificationId: specification.id,
+        performerId: item.performer.id,
+        correctsId: null,
+        workOrder: `WO-${new Date().getUTCFullYear()}-${++workOrder}`,
+        reason: 'scheduled',
+        serviceable: finished ? result.assessment.verdict === 'in-limits' : null,
+        returnReason:
+          item.state === 'returned'
+            ? 'The gas temperature was taken in the sun on the wheel; take it in the shade and re-read the as-found.'
+            : null,
+        voidReason: null,
+        voidedById: null,
+        content,
+        results: finished ? { asFound: result, asLeft: result } : {},
+        engineVersion: ENGINE_VERSION,
+        performedAt: new Date(start),
+        submittedAt: item.state === 'awaiting-countersign' ? submittedAt : null,
+        releasedAt: null,
+        round: item.state === 'returned' ? 2 : 1,
+        createdAt: new Date(start),
+        updatedAt: submittedAt,
+      },
+      { transaction },
+    )
     if (finished) {
-      await Signature.create({ worksheetId: worksheet.id, userId: item.performer.id, capacity: 'performer', name: item.performer.name, authorisationNumber: item.performer.authorisationNumber, statement: PERFORMER_STATEMENT, signedAt: submittedAt, round: 1 }, { transaction })
+      await createSignature({ id: worksheet.id, round: 1 }, item.performer, 'performer', submittedAt, transaction)
     }
     const action = item.state === 'returned' ? 'returned' : item.state === 'draft' ? 'started' : 'signed'
-    await appendAudit({ at: new Date(start + 30 * 60_000), actorId: item.state === 'returned' ? inspector.id : item.performer.id, entity: 'worksheet', entityId: String(worksheet.id), action, detail: { seeded: true } }, transaction)
+    await appendAudit(
+      {
+        at: new Date(start + 30 * 60_000),
+        actorId: item.state === 'returned' ? inspector.id : item.performer.id,
+        entity: 'worksheet',
+        entityId: String(worksheet.id),
+        action,
+        detail: { seeded: true },
+      },
+      transaction,
+    )
   }
 }
 
@@ -353,9 +704,14 @@ async function seedOpenWork({ specifications, gauge, cart, users, transaction }:
 export const LEAKING_SYSTEM = { registration: 'QX-FMJ', system: 'Hydraulic system 1' }
 
 /** A year of monthly pump cycle checks on every hydraulic system; one shortens over the last months. */
-async function seedCycleChecks(technician: User, random: () => number, transaction: import('sequelize').Transaction): Promise<void> {
-  const systemUnits = (await Accumulator.findAll({ include: [{ model: Aircraft, as: 'aircraft' }], transaction }))
-    .filter(unit => unit.system?.startsWith('Hydraulic system'))
+async function seedCycleChecks(
+  technician: User,
+  random: () => number,
+  transaction: Transaction,
+): Promise<void> {
+  const systemUnits = (
+    await Accumulator.findAll({ include: [{ model: Aircraft, as: 'aircraft' }], transaction })
+  ).filter(unit => unit.system?.startsWith('Hydraulic system'))
   for (const unit of systemUnits) {
     const specification = SPECIFICATIONS.find(seed => seed.partNumber === unit.partNumber)!
     const leaking = unit.aircraft?.registration === LEAKING_SYSTEM.registration && unit.system === LEAKING_SYSTEM.system
@@ -364,59 +720,45 @@ async function seedCycleChecks(technician: User, random: () => number, transacti
       const shortening = leaking && month >= 7 ? 1 - 0.12 * (month - 6) : 1
       const seconds = Math.round((420 + (random() - 0.5) * 30) * shortening)
       const body = {
-        aircraftId: unit.aircraft!.id, system: unit.system!, checkedAt: checkedAt.toISOString().slice(0, 10),
-        cutOut: { value: 3000, unit: 'psi' as const, basis: 'gauge' as const }, cutIn: { value: 2600, unit: 'psi' as const, basis: 'gauge' as const },
-        interval: { value: seconds, unit: 's' as const }, fluidTemperature: { value: Math.round(38 + random() * 8), unit: 'C' as const },
+        aircraftId: unit.aircraft!.id,
+        system: unit.system!,
+        checkedAt: checkedAt.toISOString().slice(0, 10),
+        cutOut: { value: 3000, unit: 'psi' as const, basis: 'gauge' as const },
+        cutIn: { value: 2600, unit: 'psi' as const, basis: 'gauge' as const },
+        interval: { value: seconds, unit: 's' as const },
+        fluidTemperature: { value: Math.round(38 + random() * 8), unit: 'C' as const },
         ambient: { elevation: { value: 420, unit: 'ft' as const } },
       }
       const result = cycleCheckLeakRate(body, specification)
-      await CycleCheck.create({
-        aircraftId: unit.aircraft!.id, accumulatorId: unit.id, system: unit.system!, checkedAt, inputs: body,
-        results: { fluidReleased: result.fluidReleased, leakRate: result.leakRate, warnings: result.warnings, method: result.method },
-        intervalSeconds: seconds, engineVersion: result.engineVersion, recordedById: technician.id, createdAt: checkedAt,
-      }, { transaction })
+      await CycleCheck.create(
+        {
+          aircraftId: unit.aircraft!.id,
+          accumulatorId: unit.id,
+          system: unit.system!,
+          checkedAt,
+          inputs: body,
+          results: {
+            fluidReleased: result.fluidReleased,
+            leakRate: result.leakRate,
+            warnings: result.warnings,
+            method: result.method,
+          },
+          intervalSeconds: seconds,
+          engineVersion: result.engineVersion,
+          recordedById: technician.id,
+          createdAt: checkedAt,
+        },
+        { transaction },
+      )
     }
   }
 }
 
-/** The environment the server would run with: the process's own, then the git-ignored .env for what it lacks. */
-function serverEnvironment(): Record<string, string | undefined> {
-  const env: Record<string, string | undefined> = { ...process.env }
-  if (existsSync('.env')) {
-    for (const line of readFileSync('.env', 'utf8').split('\n')) {
-      const match = line.match(/^\s*([A-Z_][A-Z0-9_]*)\s*=\s*(.*?)\s*$/)
-      if (match && env[match[1]!] === undefined) env[match[1]!] = match[2]!.replace(/^['"]|['"]$/g, '')
-    }
-  }
-  return env
-}
-
-export async function seed(path: string): Promise<{ applied: string[], users: number, aircraft: number, worksheets: number }> {
-  const env = serverEnvironment()
-  const secret = auditSecretFrom({ auditSecret: env.NUXT_AUDIT_SECRET, sessionPassword: env.NUXT_SESSION_PASSWORD })
-  if (!secret) throw new Error('Set NUXT_SESSION_PASSWORD (or NUXT_AUDIT_SECRET) as the server will have it: the seed seals the audit chain with it.')
-  configureAuditSecret(secret)
-  const sequelize = await openDatabase(path)
-  try {
-    const applied = await migrate(sequelize)
-    const users = await seedUsers()
-    await seedScenario(sequelize, users)
-    await rebuildTrends(createWriteQueue(sequelize))
-    return { applied, users: await User.count(), aircraft: await Aircraft.count(), worksheets: await Worksheet.count() }
-  }
-  finally {
-    await sequelize.close()
-  }
-}
-
-const isMain = process.argv[1] && import.meta.url === new URL(`file://${process.argv[1]}`).href
-if (isMain) {
-  const env = serverEnvironment()
-  const path = databaseLocation({ databaseUrl: env.NUXT_DATABASE_URL, dbPath: env.NUXT_DB_PATH })
-  seed(path).then((summary) => {
-    console.log(`Seeded ${path.replace(/\/\/[^@/]*@/, '//…@')}: migrations applied ${summary.applied.length ? summary.applied.join(', ') : 'none'}; ${summary.users} users, ${summary.aircraft} aircraft, ${summary.worksheets} worksheets.`)
-  }).catch((error) => {
-    console.error(error)
-    process.exit(1)
-  })
+/** Migrates (on opening) and fills the server's database with the demo scenario; a second run changes nothing. */
+export async function seedDemo(): Promise<{ users: number, aircraft: number, worksheets: number }> {
+  await useDB()
+  const users = await seedUsers()
+  await seedScenario(users)
+  await rebuildTrends(writeTransaction)
+  return { users: await User.count(), aircraft: await Aircraft.count(), worksheets: await Worksheet.count() }
 }

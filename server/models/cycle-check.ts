@@ -1,6 +1,17 @@
-import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type ForeignKey,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize'
 
-/** A pump cycle check: cut-out and cut-in pressures and the interval between them, with the leak rate the engine found. */
+/**
+ * A pump cycle check: cut-out and cut-in pressures and the interval between them, with the leak rate the engine
+ * found.
+ */
 export class CycleCheck extends Model<InferAttributes<CycleCheck>, InferCreationAttributes<CycleCheck>> {
   declare id: CreationOptional<number>
   declare aircraftId: ForeignKey<number>
@@ -22,23 +33,26 @@ export class CycleCheck extends Model<InferAttributes<CycleCheck>, InferCreation
   declare updatedAt: CreationOptional<Date | null>
 
   static initModel(sequelize: Sequelize): void {
-    CycleCheck.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      aircraftId: { type: DataTypes.INTEGER, allowNull: false },
-      accumulatorId: { type: DataTypes.INTEGER, allowNull: false },
-      system: { type: DataTypes.STRING(80), allowNull: false },
-      checkedAt: { type: DataTypes.DATE, allowNull: false },
-      inputs: { type: DataTypes.JSON, allowNull: false },
-      results: { type: DataTypes.JSON, allowNull: false },
-      intervalSeconds: { type: DataTypes.FLOAT, allowNull: false },
-      engineVersion: { type: DataTypes.STRING(20), allowNull: false },
-      recordedById: { type: DataTypes.INTEGER, allowNull: false },
-      version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-      withdrawnAt: { type: DataTypes.DATE, allowNull: true },
-      withdrawnReason: { type: DataTypes.TEXT, allowNull: true },
-      withdrawnById: { type: DataTypes.INTEGER, allowNull: true },
-      createdAt: DataTypes.DATE,
-      updatedAt: { type: DataTypes.DATE, allowNull: true },
-    }, { sequelize, tableName: 'cycle_checks', underscored: true })
+    CycleCheck.init(
+      {
+        id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+        aircraftId: { type: DataTypes.INTEGER, allowNull: false },
+        accumulatorId: { type: DataTypes.INTEGER, allowNull: false },
+        system: { type: DataTypes.STRING(80), allowNull: false },
+        checkedAt: { type: DataTypes.DATE, allowNull: false },
+        inputs: { type: DataTypes.JSON, allowNull: false },
+        results: { type: DataTypes.JSON, allowNull: false },
+        intervalSeconds: { type: DataTypes.FLOAT, allowNull: false },
+        engineVersion: { type: DataTypes.STRING(20), allowNull: false },
+        recordedById: { type: DataTypes.INTEGER, allowNull: false },
+        version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+        withdrawnAt: { type: DataTypes.DATE, allowNull: true },
+        withdrawnReason: { type: DataTypes.TEXT, allowNull: true },
+        withdrawnById: { type: DataTypes.INTEGER, allowNull: true },
+        createdAt: DataTypes.DATE,
+        updatedAt: { type: DataTypes.DATE, allowNull: true },
+      },
+      { sequelize, tableName: 'cycle_checks', underscored: true },
+    )
   }
 }

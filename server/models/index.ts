@@ -21,16 +21,54 @@ import { UserSession } from './user-session'
 import { listColumns, Worksheet } from './worksheet'
 
 export {
-  Accumulator, AccumulatorInstallation, Aircraft, Attachment, AuditEvent, AuditHead, CycleCheck, LoginAttempt, Notification, PrechargeReading, Signature,
-  SizingStudy, Specification, SpecificationTablePoint, Tool, TrendAlert, UnitTrend, User, UserSession, Worksheet, listColumns,
+  Accumulator,
+  AccumulatorInstallation,
+  Aircraft,
+  Attachment,
+  AuditEvent,
+  AuditHead,
+  CycleCheck,
+  LoginAttempt,
+  Notification,
+  PrechargeReading,
+  Signature,
+  SizingStudy,
+  Specification,
+  SpecificationTablePoint,
+  Tool,
+  TrendAlert,
+  UnitTrend,
+  User,
+  UserSession,
+  Worksheet,
+  listColumns,
 }
 
 /** Registers every model and association on a connection. */
 export function initModels(sequelize: Sequelize): void {
   for (const model of [
-    User, LoginAttempt, Aircraft, Specification, SpecificationTablePoint, Accumulator, AccumulatorInstallation, Tool,
-    Worksheet, Signature, Attachment, AuditEvent, AuditHead, SizingStudy, Notification, CycleCheck, TrendAlert, UserSession, PrechargeReading, UnitTrend,
-  ]) model.initModel(sequelize)
+    User,
+    LoginAttempt,
+    Aircraft,
+    Specification,
+    SpecificationTablePoint,
+    Accumulator,
+    AccumulatorInstallation,
+    Tool,
+    Worksheet,
+    Signature,
+    Attachment,
+    AuditEvent,
+    AuditHead,
+    SizingStudy,
+    Notification,
+    CycleCheck,
+    TrendAlert,
+    UserSession,
+    PrechargeReading,
+    UnitTrend,
+  ])
+    model.initModel(sequelize)
 
   Specification.hasMany(SpecificationTablePoint, { as: 'tablePoints', foreignKey: 'specificationId' })
   Specification.belongsTo(Specification, { as: 'supersedes', foreignKey: 'supersedesId' })

@@ -1,12 +1,14 @@
 import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type NonAttribute, type Sequelize } from 'sequelize'
+import type { StudyInput } from '../../shared/schemas/study'
+import type { StudyResults } from '../../shared/utils/study'
 import type { Specification } from './specification'
 
 export class SizingStudy extends Model<InferAttributes<SizingStudy>, InferCreationAttributes<SizingStudy>> {
   declare id: CreationOptional<number>
   declare name: string
   declare specificationId: ForeignKey<number> | null
-  declare inputs: Record<string, unknown>
-  declare results: Record<string, unknown>
+  declare inputs: StudyInput
+  declare results: StudyResults
   declare engineVersion: string
   declare createdById: ForeignKey<number>
   declare updatedById: ForeignKey<number>

@@ -1,6 +1,6 @@
 import { Op } from 'sequelize'
-import { can } from '../../shared/abilities'
-import type { HomeWork, WorkPile } from '../../shared/types/work'
+import { can } from '#shared/abilities'
+import type { HomeWork, WorkPile } from '#shared/types/work'
 import { Tool, TrendAlert, Worksheet, type User } from '../models'
 
 /**
@@ -12,9 +12,24 @@ const SHOWN = 5
 async function pile(where: Record<string, unknown>, oldestFirst = false): Promise<WorkPile> {
   const [count, rows] = await Promise.all([
     Worksheet.count({ where }),
-    Worksheet.findAll({ where, attributes: ['id', 'workOrder', 'registration', 'position', 'state', 'updatedAt'], order: [['createdAt', oldestFirst ? 'ASC' : 'DESC']], limit: SHOWN }),
+    Worksheet.findAll({
+      where,
+      attributes: ['id', 'workOrder', 'registration', 'position', 'state', 'updatedAt'],
+      order: [['createdAt', oldestFirst ? 'ASC' : 'DESC']],
+      limit: SHOWN,
+    }),
   ])
-  return { count, items: rows.map(row => ({ id: row.id, workOrder: row.workOrder, registration: row.registration, position: row.position, state: row.state, at: row.updatedAt.toISOString() })) }
+  return {
+    count,
+    items: rows.map(row => ({
+      id: row.id,
+      workOrder: row.workOrder,
+      registration: row.registration,
+      position: row.position,
+      state: row.state,
+      at: row.updatedAt.toISOString(),
+    })),
+  }
 }
 
 function alertLink(subject: string): string {
@@ -27,7 +42,9 @@ export async function homeWork(user: User): Promise<HomeWork> {
   if (can(user.roles, 'worksheet.perform')) {
     const mine = { performerId: user.id }
     const [drafts, returned, submitted] = await Promise.all([
-      pile({ ...mine, state: 'draft' }), pile({ ...mine, state: 'returned' }), pile({ ...mine, state: 'awaiting-countersign' }),
+      pile({ ...mine, state: 'draft' }),
+      pile({ ...mine, state: 'returned' }),
+      pile({ ...mine, state: 'awaiting-countersign' }),
     ])
     Object.assign(work, { drafts, returned, submitted })
   }
@@ -37,7 +54,17 @@ export async function homeWork(user: User): Promise<HomeWork> {
   }
   if (can(user.roles, 'specification.manage') || can(user.roles, 'study.edit')) {
     const open = await TrendAlert.findAll({ where: { clearedAt: null }, order: [['raisedAt', 'DESC']] })
-    work.alerts = { count: open.length, items: open.slice(0, SHOWN).map(alert => ({ subject: alert.subject, message: alert.message, raisedAt: alert.raisedAt.toISOString(), to: alertLink(alert.subject) })) }
+    work.alerts = {
+      count: open.length,
+      items: open
+        .slice(0, SHOWN)
+        .map(alert => ({
+          subject: alert.subject,
+          message: alert.message,
+          raisedAt: alert.raisedAt.toISOString(),
+          to: alertLink(alert.subject),
+        })),
+    }
   }
   if (can(user.roles, 'tool.manage')) {
     const today = stationToday()

@@ -57,15 +57,29 @@ export function hasSessionCookie(event: H3Event): boolean {
 export async function beginSession(event: H3Event, user: User): Promise<UserSession> {
   const token = randomBytes(32).toString('base64url')
   const now = new Date()
-  const session = await writeTransaction(transaction => UserSession.create({
-    token, userId: user.id, sessionVersion: user.sessionVersion, userAgent: (getRequestHeader(event, 'user-agent') ?? '').slice(0, 300) || null,
-    address: clientAddress(event), lastSeenAt: now, endedAt: null, endReason: null,
-  }, { transaction }))
+  const session = await writeTransaction(transaction =>
+    UserSession.create(
+      {
+        token,
+        userId: user.id,
+        sessionVersion: user.sessionVersion,
+        userAgent: (getRequestHeader(event, 'user-agent') ?? '').slice(0, 300) || null,
+        address: clientAddress(event),
+        lastSeenAt: now,
+        endedAt: null,
+        endReason: null,
+      },
+      { transaction },
+    ),
+  )
   await replaceUserSession(event, { user: sessionUser(user), token, loggedInAt: now.toISOString() })
   return session
 }
 
-export interface LiveSession { user: User, session: UserSession }
+export interface LiveSession {
+  user: User
+  session: UserSession
+}
 
 /**
  * The user and session row behind the request's cookie, if the session still counts; null
@@ -91,14 +105,19 @@ async function checkSession(event: H3Event): Promise<LiveSession | null> {
   if (!token) throw new SessionEnded('This session is from before server-side sessions; sign in again.')
   await useDB()
   const session = await UserSession.findOne({ where: { token }, include: [{ model: User, as: 'user' }] })
-  const user = (session as UserSession & { user?: User } | null)?.user
-  if (!session || !user || session.userId !== data.user.id) throw new SessionEnded('Your session was not found; sign in again.')
+  const user = (session as (UserSession & { user?: User }) | null)?.user
+  if (!session || !user || session.userId !== data.user.id)
+    throw new SessionEnded('Your session was not found; sign in again.')
   if (session.endedAt) throw new SessionEnded(endedMessage(session.endReason))
-  if (user.disabled) throw new SessionEnded('Your account is no longer active. Please sign in again or ask an administrator.')
-  if (session.sessionVersion !== user.sessionVersion) throw new SessionEnded('Your sign-in has ended because your password or access changed. Please sign in again.')
+  if (user.disabled)
+    throw new SessionEnded('Your account is no longer active. Please sign in again or ask an administrator.')
+  if (session.sessionVersion !== user.sessionVersion)
+    throw new SessionEnded('Your sign-in has ended because your password or access changed. Please sign in again.')
   if (Date.now() - session.lastSeenAt.getTime() > TOUCH_EVERY_MS) {
     const seen = new Date()
-    await writeTransaction(transaction => UserSession.update({ lastSeenAt: seen }, { where: { id: session.id }, transaction }))
+    await writeTransaction(transaction =>
+      UserSession.update({ lastSeenAt: seen }, { where: { id: session.id }, transaction }),
+    )
     session.lastSeenAt = seen
   }
   return { user, session }
@@ -106,18 +125,28 @@ async function checkSession(event: H3Event): Promise<LiveSession | null> {
 
 function endedMessage(reason: SessionEndReason | null): string {
   switch (reason) {
-    case 'signed-out': return 'You signed out of this session. Please sign in again.'
+    case 'signed-out':
+      return 'You signed out of this session. Please sign in again.'
     case 'ended-by-user':
-    case 'signed-out-everywhere': return 'This session was ended from another device. Please sign in again.'
-    default: return 'Your sign-in has ended because your password or access changed. Please sign in again.'
+    case 'signed-out-everywhere':
+      return 'This session was ended from another device. Please sign in again.'
+    default:
+      return 'Your sign-in has ended because your password or access changed. Please sign in again.'
   }
 }
 
 /** Ends one session (sign-out, or the user ending one of their devices). */
-export async function endSession(sessionId: number, reason: SessionEndReason, transaction?: Transaction): Promise<void> {
+export async function endSession(
+  sessionId: number,
+  reason: SessionEndReason,
+  transaction?: Transaction,
+): Promise<void> {
   const end = async (inside: Transaction) => {
     const session = await UserSession.findByPk(sessionId, { attributes: ['id', 'userId'], transaction: inside })
-    await UserSession.update({ endedAt: new Date(), endReason: reason }, { where: { id: sessionId, endedAt: null }, transaction: inside })
+    await UserSession.update(
+      { endedAt: new Date(), endReason: reason },
+      { where: { id: sessionId, endedAt: null }, transaction: inside },
+    )
     if (session) sessionsChangedAfterCommit(session.userId, inside)
   }
   await (transaction ? end(transaction) : writeTransaction(end))
@@ -127,20 +156,87 @@ export async function endSession(sessionId: number, reason: SessionEndReason, tr
  * Ends every session of a user by bumping their session version, inside the caller's write;
  * `keep` (the session making the change) is carried over to the new version.
  */
-export async function endAllSessions(user: User, reason: SessionEndReason, transaction: Transaction, keep?: UserSession): Promise<void> {
+export async function endAllSessions(
+  user: User,
+  reason: SessionEndReason,
+  transaction: Transaction,
+  keep?: UserSession,
+): Promise<void> {
   // Incremented in the database, not from what this request read, so two bumps at once both count.
   await User.increment({ sessionVersion: 1 }, { where: { id: user.id }, transaction })
   const next = (await User.findByPk(user.id, { attributes: ['sessionVersion'], transaction }))!.sessionVersion
   user.sessionVersion = next
-  await UserSession.update({ endedAt: new Date(), endReason: reason }, {
-    where: { userId: user.id, endedAt: null, ...(keep ? { id: { [Op.ne]: keep.id } } : {}) }, transaction,
-  })
+  await UserSession.update(
+    { endedAt: new Date(), endReason: reason },
+    {
+      where: { userId: user.id, endedAt: null, ...(keep ? { id: { [Op.ne]: keep.id } } : {}) },
+      transaction,
+    },
+  )
   if (keep) await UserSession.update({ sessionVersion: next }, { where: { id: keep.id }, transaction })
   sessionsChangedAfterCommit(user.id, transaction)
 }
 
 /** A user's sessions still open, newest first (for "signed in on 2 devices"). */
 export async function openSessions(userId: number): Promise<UserSession[]> {
-  const sessions = await UserSession.findAll({ where: { userId, endedAt: null }, order: [['lastSeenAt', 'DESC']], include: [{ model: User, as: 'user', attributes: ['sessionVersion'] }] })
-  return sessions.filter(session => session.sessionVersion === (session as UserSession & { user?: User }).user?.sessionVersion)
+  const sessions = await UserSession.findAll({
+    where: { userId, endedAt: null },
+    order: [['lastSeenAt', 'DESC']],
+    include: [{ model: User, as: 'user', attributes: ['sessionVersion'] }],
+  })
+  return sessions.filter(
+    session => session.sessionVersion === (session as UserSession & { user?: User }).user?.sessionVersion,
+  )
+}
+
+const WRONG_CREDENTIALS = 'That e-mail address and password do not match an active account.'
+
+/**
+ * Signs in. The attempt is counted and recorded before the password is checked (server/utils/sign-in.ts):
+ * failures lock the account, and the network address, for the rest of the window. An unknown
+ * account costs the same work as a known one.
+ */
+export async function signIn(event: H3Event, body: { email: string, password: string }) {
+  const ticket = await admitAttempt(event, body.email)
+  const user = await User.findOne({ where: { email: body.email } })
+  const passwordMatches = await checkPassword(user?.passwordHash, body.password)
+  if (!user || !passwordMatches) throw createError({ status: 401, statusMessage: 'Unauthorized', message: WRONG_CREDENTIALS })
+  if (user.disabled) throw createError({ status: 401, statusMessage: 'Unauthorized', message: 'This account is disabled. Ask an administrator to enable it.' })
+  await attemptSucceeded(ticket)
+  await beginSession(event, user)
+  return user.toPublic()
+}
+
+/** Ends this request's session on the server and clears its cookie; harmless without one. */
+export async function signOut(event: H3Event): Promise<void> {
+  if (!hasSessionCookie(event)) return
+  const live = await liveSession(event).catch((error) => {
+    if (error instanceof SessionEnded) return null
+    throw error
+  })
+  if (live) await endSession(live.session.id, 'signed-out')
+  await clearUserSession(event)
+}
+
+/** The devices a user is signed in on, the current one marked. */
+export async function devicesOf(userId: number, currentSessionId: number | undefined) {
+  return (await openSessions(userId)).map(session => ({
+    id: session.id, current: session.id === currentSessionId, userAgent: session.userAgent, address: session.address,
+    signedInAt: session.createdAt.toISOString(), lastSeenAt: session.lastSeenAt.toISOString(),
+  }))
+}
+
+/** Ends one of the user's own sessions; ending the current one signs out here. */
+export async function endOwnSession(event: H3Event, user: User, id: number): Promise<void> {
+  const session = await UserSession.findOne({ where: { id, userId: user.id } })
+  if (!session) throw createError({ status: 404, statusMessage: 'Not Found', message: 'No such session of yours.' })
+  const current = id === event.context.sessionId
+  await endSession(session.id, current ? 'signed-out' : 'ended-by-user')
+  if (current) await clearUserSession(event)
+}
+
+/** "Sign out everywhere else": every session of the user but the current one ends. */
+export async function endOtherSessions(user: User, currentSessionId: number | undefined): Promise<void> {
+  const current = currentSessionId ? await UserSession.findByPk(currentSessionId) : null
+  await writeTransaction(transaction => endAllSessions(user, 'signed-out-everywhere', transaction, current ?? undefined))
 }

@@ -1,11 +1,26 @@
+import { mailAlerts } from './notifications'
+import { currentSpecification } from './specifications'
 import { Op, type Transaction } from 'sequelize'
-import type { FleetTrendRow, UnitTrendDto } from '../../shared/types/trends'
-import { cycleTrend, type CycleTrend } from '../../shared/utils/cycle-check'
-import { specificationPressure } from '../../shared/utils/specification-target'
+import type { FleetTrendRow, UnitTrendDto } from '#shared/types/trends'
+import { cycleTrend, type CycleTrend } from '#shared/utils/cycle-check'
+import { specificationPressure } from '#shared/utils/specification-target'
 import {
-  currentSpecification, refreshUnitTrend, removeReadings, renormaliseUnit, storeReleasedReadings, syncAlert, type AlertChange,
+  refreshUnitTrend,
+  removeReadings,
+  renormaliseUnit,
+  storeReleasedReadings,
+  syncAlert,
+  type AlertChange,
 } from '../database/trend-store'
-import { Accumulator, Aircraft, CycleCheck, PrechargeReading, Specification, UnitTrend, User, type Worksheet } from '../models'
+import {
+  Accumulator,
+  Aircraft,
+  CycleCheck,
+  PrechargeReading,
+  Specification,
+  UnitTrend,
+  type Worksheet,
+} from '../models'
 
 /**
  * Fleet trends: kept up to date by the writes that change them (release, void, a specification
@@ -21,7 +36,11 @@ export async function trendAfterRelease(worksheet: Worksheet, transaction: Trans
 }
 
 /** A released worksheet was voided: its readings no longer count. */
-export async function trendAfterVoid(worksheet: Worksheet, previousState: string, transaction: Transaction): Promise<AlertChange[]> {
+export async function trendAfterVoid(
+  worksheet: Worksheet,
+  previousState: string,
+  transaction: Transaction,
+): Promise<AlertChange[]> {
   if (previousState !== 'released') return []
   await removeReadings(worksheet.id, transaction)
   const change = await refreshUnitTrend(worksheet.accumulatorId, transaction)
@@ -42,27 +61,30 @@ export async function trendAfterSpecificationChange(partNumber: string): Promise
 }
 
 /** A pump cycle check was recorded: its system's interval trend raises or clears its alert. */
-export async function trendAfterCycleCheck(aircraftId: number, system: string, transaction: Transaction): Promise<AlertChange[]> {
+export async function trendAfterCycleCheck(
+  aircraftId: number,
+  system: string,
+  transaction: Transaction,
+): Promise<AlertChange[]> {
   const [trend] = await cycleTrends({ aircraftId, system }, transaction)
   // Every check withdrawn: nothing is left to flag.
-  const change = await syncAlert('cycle', `cycle:${aircraftId}:${system}`, trend?.flagged ?? false, `${trend?.registration ?? ''} ${system}: ${trend?.message ?? ''}`, transaction)
+  const change = await syncAlert(
+    'cycle',
+    `cycle:${aircraftId}:${system}`,
+    trend?.flagged ?? false,
+    `${trend?.registration ?? ''} ${system}: ${trend?.message ?? ''}`,
+    transaction,
+  )
   return change ? [change] : []
 }
 
-/** One e-mail to every engineer per newly raised alert (after the write committed). */
-export async function mailAlerts(changes: AlertChange[]): Promise<void> {
-  if (changes.length === 0) return
-  const engineers = (await User.findAll({ where: { disabled: false } })).filter(user => user.roles.includes('engineer'))
-  const link = `${useRuntimeConfig().publicUrl}/trends`
-  for (const { kind, message } of changes) {
-    await Promise.all(engineers.map(engineer => sendMail({
-      to: engineer.email, kind: `trend-${kind}`, subject: `Trend alert: ${message.slice(0, 90)}`,
-      text: `${message}\n\nSee ${link}\n\nThe approved maintenance data and local regulations govern.`,
-    })))
-  }
+export interface FleetTrendFilters {
+  type?: string
+  base?: string
+  position?: string
+  partNumber?: string
+  flagged?: boolean
 }
-
-export interface FleetTrendFilters { type?: string, base?: string, position?: string, partNumber?: string, flagged?: boolean }
 
 /** Installed units ranked by loss rate (fastest loss first), from the stored trends. */
 export async function fleetPrechargeTrends(filters: FleetTrendFilters = {}): Promise<FleetTrendRow[]> {
@@ -75,39 +97,60 @@ export async function fleetPrechargeTrends(filters: FleetTrendFilters = {}): Pro
       ...(filters.base ? { '$aircraft.base$': filters.base } : {}),
       ...(filters.flagged !== undefined ? { '$trend.flagged$': filters.flagged } : {}),
     },
-    include: [{ model: Aircraft, as: 'aircraft' }, { model: UnitTrend, as: 'trend', required: false }],
+    include: [
+      { model: Aircraft, as: 'aircraft' },
+      { model: UnitTrend, as: 'trend', required: false },
+    ],
   })
-  const pressureUnits = new Map((await Specification.findAll({ where: { status: 'current' }, attributes: ['partNumber', 'pressureUnit'] })).map(row => [row.partNumber, row.pressureUnit]))
-  return units.map((unit) => {
-    const joined = unit as Accumulator & { aircraft?: Aircraft, trend?: UnitTrend }
-    const trend = joined.trend
-    return {
-      accumulatorId: unit.id,
-      registration: joined.aircraft?.registration ?? null,
-      type: joined.aircraft?.type ?? null,
-      base: joined.aircraft?.base ?? null,
-      position: unit.position,
-      partNumber: unit.partNumber,
-      serialNumber: unit.serialNumber,
-      unit: pressureUnits.has(unit.partNumber) ? `${pressureUnits.get(unit.partNumber)}/day` : null,
-      lossRate: trend?.lossPerDay ?? null,
-      lossRateStandardError: trend?.fit?.lossRateStandardError ?? null,
-      predictedOutOfLimitsAt: trend?.fit?.predictedOutOfLimitsAt ?? null,
-      nextCheckAt: trend?.flag.nextCheckAt ?? null,
-      flagged: trend?.flagged ?? false,
-      reasons: trend?.flag.reasons ?? [],
-      services: trend?.services ?? 0,
-    }
-  }).sort((a, b) => (b.lossRate ?? -Infinity) - (a.lossRate ?? -Infinity))
+  const pressureUnits = new Map(
+    (await Specification.findAll({ where: { status: 'current' }, attributes: ['partNumber', 'pressureUnit'] })).map(
+      row => [row.partNumber, row.pressureUnit],
+    ),
+  )
+  return units
+    .map((unit) => {
+      const joined = unit as Accumulator & { aircraft?: Aircraft, trend?: UnitTrend }
+      const trend = joined.trend
+      return {
+        accumulatorId: unit.id,
+        registration: joined.aircraft?.registration ?? null,
+        type: joined.aircraft?.type ?? null,
+        base: joined.aircraft?.base ?? null,
+        position: unit.position,
+        partNumber: unit.partNumber,
+        serialNumber: unit.serialNumber,
+        unit: pressureUnits.has(unit.partNumber) ? `${pressureUnits.get(unit.partNumber)}/day` : null,
+        lossRate: trend?.lossPerDay ?? null,
+        lossRateStandardError: trend?.fit?.lossRateStandardError ?? null,
+        predictedOutOfLimitsAt: trend?.fit?.predictedOutOfLimitsAt ?? null,
+        nextCheckAt: trend?.flag.nextCheckAt ?? null,
+        flagged: trend?.flagged ?? false,
+        reasons: trend?.flag.reasons ?? [],
+        services: trend?.services ?? 0,
+      }
+    })
+    .sort((a, b) => (b.lossRate ?? -Infinity) - (a.lossRate ?? -Infinity))
 }
 
 /** One unit's trend with its points and services, from the stored readings. */
 export async function unitTrend(accumulatorId: number): Promise<UnitTrendDto> {
-  const accumulator = await Accumulator.findByPk(accumulatorId, { include: [{ model: Aircraft, as: 'aircraft' }, { model: UnitTrend, as: 'trend', required: false }] })
+  const accumulator = await Accumulator.findByPk(accumulatorId, {
+    include: [
+      { model: Aircraft, as: 'aircraft' },
+      { model: UnitTrend, as: 'trend', required: false },
+    ],
+  })
   if (!accumulator) throw createError({ status: 404, statusMessage: 'Not Found', message: 'Accumulator not found.' })
   const joined = accumulator as Accumulator & { aircraft?: Aircraft, trend?: UnitTrend }
   const specification = await currentSpecification(accumulator.partNumber)
-  const readings = await PrechargeReading.findAll({ where: { accumulatorId }, order: [['takenAt', 'ASC'], ['id', 'ASC']], include: [{ association: 'worksheet', attributes: ['id', 'performedAt'] }] })
+  const readings = await PrechargeReading.findAll({
+    where: { accumulatorId },
+    order: [
+      ['takenAt', 'ASC'],
+      ['id', 'ASC'],
+    ],
+    include: [{ association: 'worksheet', attributes: ['id', 'performedAt'] }],
+  })
   let segment = 0
   const usable = readings.filter(row => row.normalised !== null && row.specificationId === specification?.id)
   const normalised = usable.map((row, index) => {
@@ -116,27 +159,66 @@ export async function unitTrend(accumulatorId: number): Promise<UnitTrendDto> {
   })
   const services = new Map<number, UnitTrendDto['services'][number]>()
   for (const row of readings) {
-    const performedAt = (row as PrechargeReading & { worksheet?: Worksheet }).worksheet?.performedAt?.toISOString() ?? row.takenAt.toISOString()
-    const service = services.get(row.worksheetId) ?? { worksheetId: row.worksheetId, performedAt, asFound: null, asLeft: null, action: row.action }
+    const performedAt
+      = (row as PrechargeReading & { worksheet?: Worksheet }).worksheet?.performedAt?.toISOString()
+        ?? row.takenAt.toISOString()
+    const service = services.get(row.worksheetId) ?? {
+      worksheetId: row.worksheetId,
+      performedAt,
+      asFound: null,
+      asLeft: null,
+      action: row.action,
+    }
     if (row.kind === 'as-found') service.asFound = row.normalised
     service.asLeft = row.normalised
     services.set(row.worksheetId, service)
   }
   const stored = joined.trend
   return {
-    accumulator: { id: accumulator.id, partNumber: accumulator.partNumber, serialNumber: accumulator.serialNumber, position: accumulator.position },
-    aircraft: joined.aircraft ? { id: joined.aircraft.id, registration: joined.aircraft.registration, type: joined.aircraft.type, base: joined.aircraft.base } : null,
-    specification: specification ? { id: specification.id, partNumber: specification.partNumber, revision: specification.revision, pressureUnit: specification.pressureUnit, pressureBasis: specification.pressureBasis } : null,
-    trend: stored?.fit && specification
-      ? { ...stored.fit, normalised, reference: { pressure: specificationPressure(specification, specification.referencePressure), temperature: { value: specification.referenceTemperature, unit: specification.referenceTemperatureUnit } } }
+    accumulator: {
+      id: accumulator.id,
+      partNumber: accumulator.partNumber,
+      serialNumber: accumulator.serialNumber,
+      position: accumulator.position,
+    },
+    aircraft: joined.aircraft
+      ? {
+          id: joined.aircraft.id,
+          registration: joined.aircraft.registration,
+          type: joined.aircraft.type,
+          base: joined.aircraft.base,
+        }
       : null,
+    specification: specification
+      ? {
+          id: specification.id,
+          partNumber: specification.partNumber,
+          revision: specification.revision,
+          pressureUnit: specification.pressureUnit,
+          pressureBasis: specification.pressureBasis,
+        }
+      : null,
+    trend:
+      stored?.fit && specification
+        ? {
+            ...stored.fit,
+            normalised,
+            reference: {
+              pressure: specificationPressure(specification, specification.referencePressure),
+              temperature: { value: specification.referenceTemperature, unit: specification.referenceTemperatureUnit },
+            },
+          }
+        : null,
     flag: stored?.flag ?? { flagged: false, reasons: [], nextCheckAt: null, lossPerDay: null },
     services: [...services.values()],
   }
 }
 
 /** Pump cycle interval trends per aircraft system, against each system's own baseline. */
-export async function cycleTrends(only?: { aircraftId: number, system: string }, transaction?: Transaction): Promise<CycleTrend[]> {
+export async function cycleTrends(
+  only?: { aircraftId: number, system: string },
+  transaction?: Transaction,
+): Promise<CycleTrend[]> {
   const checks = await CycleCheck.findAll({
     // Withdrawn checks are kept, but say nothing about the system.
     where: { ...only, withdrawnAt: null },
@@ -153,14 +235,23 @@ export async function cycleTrends(only?: { aircraftId: number, system: string },
     else groups.set(key, [check])
   }
   const dropShare = Number(useRuntimeConfig().cycleDropShare)
-  return [...groups.values()].map((group) => {
-    const first = group[0]! as CycleCheck & { aircraft?: Aircraft }
-    return cycleTrend({
-      aircraftId: first.aircraftId,
-      registration: first.aircraft?.registration ?? '',
-      system: first.system,
-      accumulatorId: group.at(-1)!.accumulatorId,
-      checks: group.map(check => ({ checkedAt: check.checkedAt.toISOString(), intervalSeconds: check.intervalSeconds, leakRate: (check.results as { leakRate: { value: number, unit: string } }).leakRate })),
-    }, dropShare)
-  }).sort((a, b) => (b.drop ?? -1) - (a.drop ?? -1))
+  return [...groups.values()]
+    .map((group) => {
+      const first = group[0]! as CycleCheck & { aircraft?: Aircraft }
+      return cycleTrend(
+        {
+          aircraftId: first.aircraftId,
+          registration: first.aircraft?.registration ?? '',
+          system: first.system,
+          accumulatorId: group.at(-1)!.accumulatorId,
+          checks: group.map(check => ({
+            checkedAt: check.checkedAt.toISOString(),
+            intervalSeconds: check.intervalSeconds,
+            leakRate: (check.results as { leakRate: { value: number, unit: string } }).leakRate,
+          })),
+        },
+        dropShare,
+      )
+    })
+    .sort((a, b) => (b.drop ?? -1) - (a.drop ?? -1))
 }

@@ -1,7 +1,11 @@
-import type { UserCreateBody, UserUpdateBody } from '../../shared/schemas/auth'
-import { DEFAULT_PREFERENCES } from '../../shared/types/user'
+import { Op } from 'sequelize'
+import type { z } from 'zod'
+import type { auditEventQuerySchema } from '#shared/schemas/audit'
+import type { PasswordChangeBody, UserCreateBody, UserUpdateBody } from '#shared/schemas/auth'
+import { DEFAULT_PREFERENCES, type UserPreferences } from '#shared/types/user'
+import { describeAuditEvent, type AuditEventDto } from '#shared/utils/audit-words'
 import { appendAudit } from '../database/audit-chain'
-import { User } from '../models'
+import { AuditEvent, User, UserSession } from '../models'
 import { endAllSessions, sessionsChangedAfterCommit } from './sessions'
 
 /**
@@ -16,14 +20,36 @@ function notFound(): never {
 
 export async function createUser(admin: User, body: UserCreateBody): Promise<User> {
   if (await User.findOne({ where: { email: body.email } })) {
-    throw createError({ status: 409, statusMessage: 'Conflict', message: `A user with the e-mail ${body.email} already exists.`, data: { issues: [{ path: ['email'], field: 'email', message: 'Already in use.' }] } })
+    throw createError({
+      status: 409,
+      statusMessage: 'Conflict',
+      message: `A user with the e-mail ${body.email} already exists.`,
+      data: { issues: [{ path: ['email'], field: 'email', message: 'Already in use.' }] },
+    })
   }
   const passwordHash = await hashPassword(body.password)
   return writeTransaction(async (transaction) => {
-    const created = await User.create({
-      email: body.email, name: body.name, roles: body.roles, authorisationNumber: body.authorisationNumber ?? null, passwordHash, preferences: DEFAULT_PREFERENCES,
-    }, { transaction })
-    await appendAudit({ actorId: admin.id, entity: 'user', entityId: String(created.id), action: 'created', detail: { email: created.email, roles: created.roles } }, transaction)
+    const created = await User.create(
+      {
+        email: body.email,
+        name: body.name,
+        roles: body.roles,
+        authorisationNumber: body.authorisationNumber ?? null,
+        passwordHash,
+        preferences: DEFAULT_PREFERENCES,
+      },
+      { transaction },
+    )
+    await appendAudit(
+      {
+        actorId: admin.id,
+        entity: 'user',
+        entityId: String(created.id),
+        action: 'created',
+        detail: { email: created.email, roles: created.roles },
+      },
+      transaction,
+    )
     return created
   })
 }
@@ -32,12 +58,22 @@ export async function updateUser(admin: User, id: number, body: UserUpdateBody):
   const user = await User.findByPk(id)
   if (!user) notFound()
   if (user.id === admin.id && (body.disabled === true || (body.roles && !body.roles.includes('admin')))) {
-    throw createError({ status: 422, statusMessage: 'Unprocessable Entity', message: 'You cannot disable yourself or remove your own admin role; ask another administrator.' })
+    throw createError({
+      status: 422,
+      statusMessage: 'Unprocessable Entity',
+      message: 'You cannot disable yourself or remove your own admin role; ask another administrator.',
+    })
   }
-  const before = { roles: [...user.roles].sort(), disabled: user.disabled, name: user.name, authorisationNumber: user.authorisationNumber }
+  const before = {
+    roles: [...user.roles].sort(),
+    disabled: user.disabled,
+    name: user.name,
+    authorisationNumber: user.authorisationNumber,
+  }
   await writeTransaction(async (transaction) => {
     await user.update(body, { transaction })
-    const audit = (action: string, detail: Record<string, unknown>) => appendAudit({ actorId: admin.id, entity: 'user', entityId: String(user.id), action, detail }, transaction)
+    const audit = (action: string, detail: Record<string, unknown>) =>
+      appendAudit({ actorId: admin.id, entity: 'user', entityId: String(user.id), action, detail }, transaction)
     const roles = body.roles ? [...body.roles].sort() : before.roles
     if (roles.join(',') !== before.roles.join(',')) {
       await audit('roles-changed', { from: before.roles, to: roles })
@@ -49,7 +85,11 @@ export async function updateUser(admin: User, id: number, body: UserUpdateBody):
     }
     // A re-enabled account starts afresh: its old sessions stay ended.
     if (body.disabled === false && before.disabled) await audit('enabled', {})
-    const details = Object.fromEntries((['name', 'authorisationNumber'] as const).filter(field => body[field] !== undefined && body[field] !== before[field]).map(field => [field, { from: before[field], to: body[field] }]))
+    const details = Object.fromEntries(
+      (['name', 'authorisationNumber'] as const)
+        .filter(field => body[field] !== undefined && body[field] !== before[field])
+        .map(field => [field, { from: before[field], to: body[field] }]),
+    )
     if (Object.keys(details).length) await audit('updated', { changes: details })
     // A new name or authorisation number is what the user's next request sees.
     sessionsChangedAfterCommit(user.id, transaction)
@@ -65,6 +105,83 @@ export async function resetPassword(admin: User, id: number, password: string): 
   await writeTransaction(async (transaction) => {
     await user.update({ passwordHash }, { transaction })
     await endAllSessions(user, 'password-reset', transaction)
-    await appendAudit({ actorId: admin.id, entity: 'user', entityId: String(user.id), action: 'password-reset', detail: {} }, transaction)
+    await appendAudit(
+      { actorId: admin.id, entity: 'user', entityId: String(user.id), action: 'password-reset', detail: {} },
+      transaction,
+    )
   })
+}
+
+export async function listUsers() {
+  return (await User.findAll({ order: [['name', 'ASC']] })).map(user => user.toPublic())
+}
+
+/** The user's own display units and home station. */
+export async function savePreferences(user: User, preferences: UserPreferences) {
+  await writeTransaction(async (transaction) => {
+    await user.update({ preferences }, { transaction })
+    sessionsChangedAfterCommit(user.id, transaction)
+  })
+  return user.toPublic()
+}
+
+/** The user's own password, the current one re-entered; their other sessions end, this one stays. */
+export async function changeOwnPassword(
+  user: User,
+  body: PasswordChangeBody,
+  currentSessionId: number | undefined,
+): Promise<void> {
+  if (!(await checkPassword(user.passwordHash, body.currentPassword))) {
+    throw createError({
+      status: 422,
+      statusMessage: 'Unprocessable Entity',
+      message: 'That is not your current password; nothing was changed.',
+      data: {
+        issues: [{ path: ['currentPassword'], field: 'currentPassword', message: 'Not your current password.' }],
+      },
+    })
+  }
+  const passwordHash = await hashPassword(body.newPassword)
+  const current = currentSessionId ? await UserSession.findByPk(currentSessionId) : null
+  await writeTransaction(async (transaction) => {
+    await user.update({ passwordHash }, { transaction })
+    await endAllSessions(user, 'password-changed', transaction, current ?? undefined)
+    await appendAudit(
+      { actorId: user.id, entity: 'user', entityId: String(user.id), action: 'password-changed', detail: {} },
+      transaction,
+    )
+  })
+}
+
+/** The audit trail in words, newest first, for the Admin page. */
+export async function auditEvents(
+  query: z.infer<typeof auditEventQuerySchema>,
+): Promise<{ total: number, items: AuditEventDto[] }> {
+  const { total, rows } = await pageOf(AuditEvent, {
+    where: query.entity ? { entity: query.entity } : {},
+    order: [['id', 'DESC']],
+    page: query.page,
+    pageSize: query.pageSize,
+  })
+  const ids = rows
+    .flatMap(row => [row.actorId, row.entity === 'user' ? Number(row.entityId) : null])
+    .filter((id): id is number => Number.isInteger(id))
+  const nameOf = new Map(
+    (await User.findAll({ where: { id: { [Op.in]: [...new Set(ids)] } }, attributes: ['id', 'name'] })).map(person => [
+      person.id,
+      person.name,
+    ]),
+  )
+  return {
+    total,
+    items: rows.map(row => ({
+      id: row.id,
+      at: row.at.toISOString(),
+      actor: row.actorId ? (nameOf.get(row.actorId) ?? `user ${row.actorId}`) : null,
+      entity: row.entity,
+      entityId: row.entityId,
+      action: row.action,
+      text: describeAuditEvent(row, row.entity === 'user' ? nameOf.get(Number(row.entityId)) : null),
+    })),
+  }
 }

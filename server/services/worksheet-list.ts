@@ -1,6 +1,6 @@
 import { Op, QueryTypes, Utils, col, fn, literal, where as condition, type Order, type WhereOptions } from 'sequelize'
-import type { WorksheetListQuery } from '../../shared/schemas/worksheet'
-import type { WorksheetListItem, WorksheetListPage } from '../../shared/types/worksheet'
+import type { WorksheetListQuery } from '#shared/schemas/worksheet'
+import type { WorksheetListItem, WorksheetListPage } from '#shared/types/worksheet'
 import { User, Worksheet } from '../models'
 
 /**
@@ -10,14 +10,32 @@ import { User, Worksheet } from '../models'
  */
 const COUNT_CAP = 10_000
 const LIST_ATTRIBUTES = [
-  'id', 'state', 'workOrder', 'reason', 'performerId', 'registration', 'fleetNumber', 'position', 'partNumber', 'serialNumber',
-  'asFoundVerdict', 'asLeftVerdict', 'correctsId', 'performedAt', 'releasedAt', 'createdAt',
+  'id',
+  'state',
+  'workOrder',
+  'reason',
+  'performerId',
+  'registration',
+  'fleetNumber',
+  'position',
+  'partNumber',
+  'serialNumber',
+  'asFoundVerdict',
+  'asLeftVerdict',
+  'correctsId',
+  'performedAt',
+  'releasedAt',
+  'createdAt',
 ] as const
 const SEARCHED = ['work_order', 'registration', 'serial_number', 'part_number']
 type Filters = Omit<WorksheetListQuery, 'cursor' | 'pageSize'>
 
 /** Where the list continues: after (or before) the row with this sort value and id. */
-interface Cursor { toward: 'after' | 'before', value: string | null, id: number }
+interface Cursor {
+  toward: 'after' | 'before'
+  value: string | null
+  id: number
+}
 
 function encodeCursor(cursor: Cursor): string {
   return Buffer.from(JSON.stringify([cursor.toward, cursor.value, cursor.id])).toString('base64url')
@@ -26,10 +44,22 @@ function encodeCursor(cursor: Cursor): string {
 function decodeCursor(text: string): Cursor {
   try {
     const [toward, value, id] = JSON.parse(Buffer.from(text, 'base64url').toString('utf8'))
-    if ((toward === 'after' || toward === 'before') && (typeof value === 'string' || value === null) && Number.isSafeInteger(id)) return { toward, value, id }
+    if (
+      (toward === 'after' || toward === 'before')
+      && (typeof value === 'string' || value === null)
+      && Number.isSafeInteger(id)
+    )
+      return { toward, value, id }
   }
-  catch { /* refused below */ }
-  throw createError({ status: 400, statusMessage: 'Bad Request', message: 'That page link is not valid; start again from the first page.', data: { issues: [{ path: ['cursor'], field: 'cursor', message: 'Not a page link from this list.' }] } })
+  catch {
+    /* refused below */
+  }
+  throw createError({
+    status: 400,
+    statusMessage: 'Bad Request',
+    message: 'That page link is not valid; start again from the first page.',
+    data: { issues: [{ path: ['cursor'], field: 'cursor', message: 'Not a page link from this list.' }] },
+  })
 }
 
 /**
@@ -42,10 +72,12 @@ function searchCondition(q: string, walkSortOrder = false): WhereOptions {
   const prefix = q.toLowerCase()
   const postgres = Worksheet.sequelize!.getDialect() === 'postgres'
   return {
-    [Op.or]: SEARCHED.map(name => postgres
-      ? condition(fn('lower', col(name)), { [Op.like]: `${prefix.replace(/[\\%_]/g, match => `\\${match}`)}%` })
+    [Op.or]: SEARCHED.map((name) => {
+      if (postgres) return condition(fn('lower', col(name)), { [Op.like]: `${prefix.replace(/[\\%_]/g, match => `\\${match}`)}%` })
       // SQLite: a range on the expression index; U+10FFFF sorts after every character.
-      : condition(walkSortOrder ? literal(`+lower(\`${name}\`)`) : fn('lower', col(name)), { [Op.gte]: prefix, [Op.lt]: `${prefix}\u{10FFFF}` })),
+      const column = walkSortOrder ? literal(`+lower(\`${name}\`)`) : fn('lower', col(name))
+      return condition(column, { [Op.gte]: prefix, [Op.lt]: `${prefix}\u{10FFFF}` })
+    }),
   }
 }
 
@@ -77,7 +109,9 @@ function keysetCondition(sort: Filters['sort'], ascending: boolean, cursor: Curs
  * A list row as the database gives it without building a model instance (several times
  * cheaper per row): dates arrive as Date objects from PostgreSQL and as text from SQLite.
  */
-type RawRow = Pick<Worksheet, (typeof LIST_ATTRIBUTES)[number] extends infer Key ? Key & keyof Worksheet : never> & { performer?: { name: string | null } }
+type RawRow = Pick<Worksheet, (typeof LIST_ATTRIBUTES)[number] extends infer Key ? Key & keyof Worksheet : never> & {
+  performer?: { name: string | null }
+}
 
 function iso(value: Date | string | null | undefined): string | null {
   if (value === null || value === undefined) return null
@@ -85,31 +119,59 @@ function iso(value: Date | string | null | undefined): string | null {
 }
 
 function sortValue(row: RawRow, sort: Filters['sort']): string | null {
-  return isDateSort(sort) ? iso(row[sort]) : row[sort] as string
+  return isDateSort(sort) ? iso(row[sort]) : (row[sort] as string)
 }
 
 export function toListItem(row: RawRow): WorksheetListItem {
   return {
-    id: row.id, state: row.state, workOrder: row.workOrder, reason: row.reason, performerId: row.performerId,
+    id: row.id,
+    state: row.state,
+    workOrder: row.workOrder,
+    reason: row.reason,
+    performerId: row.performerId,
     performer: row.performer?.name ?? '',
-    registration: row.registration ?? '', fleetNumber: row.fleetNumber ?? '', position: row.position ?? '', partNumber: row.partNumber ?? '', serialNumber: row.serialNumber ?? '',
-    asFoundVerdict: row.asFoundVerdict ?? null, asLeftVerdict: row.asLeftVerdict ?? null, correctsId: row.correctsId ?? null,
-    performedAt: iso(row.performedAt), releasedAt: iso(row.releasedAt), createdAt: iso(row.createdAt)!,
+    registration: row.registration ?? '',
+    fleetNumber: row.fleetNumber ?? '',
+    position: row.position ?? '',
+    partNumber: row.partNumber ?? '',
+    serialNumber: row.serialNumber ?? '',
+    asFoundVerdict: row.asFoundVerdict ?? null,
+    asLeftVerdict: row.asLeftVerdict ?? null,
+    correctsId: row.correctsId ?? null,
+    performedAt: iso(row.performedAt),
+    releasedAt: iso(row.releasedAt),
+    createdAt: iso(row.createdAt)!,
   }
 }
 
 function findRows(where: WhereOptions, order: Order, limit: number): Promise<RawRow[]> {
-  return Worksheet.findAll({ where, attributes: [...LIST_ATTRIBUTES], include: [{ model: User, as: 'performer', attributes: ['name'] }], order, limit, raw: true, nest: true }) as unknown as Promise<RawRow[]>
+  return Worksheet.findAll({
+    where,
+    attributes: [...LIST_ATTRIBUTES],
+    include: [{ model: User, as: 'performer', attributes: ['name'] }],
+    order,
+    limit,
+    raw: true,
+    nest: true,
+  }) as unknown as Promise<RawRow[]>
 }
 
 /** Matches, counted up to the cap by the database (a bounded scan of the index, not of the table). */
 async function cappedCount(where: WhereOptions): Promise<number> {
   const sequelize = Worksheet.sequelize!
-  const generator = sequelize.getQueryInterface().queryGenerator as { selectQuery: (table: string, options: object, model: unknown) => string }
+  const generator = sequelize.getQueryInterface().queryGenerator as {
+    selectQuery: (table: string, options: object, model: unknown) => string
+  }
   // The model's attribute names become column names, as findAll would map them.
-  const options = Utils.mapOptionFieldNames({ attributes: [[literal('1'), 'one']], where, limit: COUNT_CAP + 1 } as never, Worksheet as never) as object
+  const options = Utils.mapOptionFieldNames(
+    { attributes: [[literal('1'), 'one']], where, limit: COUNT_CAP + 1 } as never,
+    Worksheet as never,
+  ) as object
   const inner = generator.selectQuery('worksheets', options, Worksheet).replace(/;\s*$/, '')
-  const [row] = await sequelize.query<{ total: number | string }>(`SELECT COUNT(*) AS total FROM (${inner}) AS capped`, { type: QueryTypes.SELECT })
+  const [row] = await sequelize.query<{ total: number | string }>(
+    `SELECT COUNT(*) AS total FROM (${inner}) AS capped`,
+    { type: QueryTypes.SELECT },
+  )
   return Number(row?.total ?? 0)
 }
 
@@ -124,19 +186,23 @@ export async function listWorksheets(query: WorksheetListQuery): Promise<Workshe
   const pageFilter = query.q && total > DENSE_MATCHES ? worksheetFilter(query, true) : filter
   const where = cursor ? { [Op.and]: [pageFilter, keysetCondition(query.sort, walkAscending, cursor)] } : pageFilter
   const direction = walkAscending ? 'ASC' : 'DESC'
-  const order: Order = [[query.sort, direction], ['id', direction]]
+  const order: Order = [
+    [query.sort, direction],
+    ['id', direction],
+  ]
   const found = await findRows(where, order, query.pageSize + 1)
   const more = found.length > query.pageSize
   const rows = found.slice(0, query.pageSize)
   if (cursor?.toward === 'before') rows.reverse()
-  const edge = (row: RawRow | undefined, toward: Cursor['toward']) => row ? encodeCursor({ toward, value: sortValue(row, query.sort), id: row.id }) : null
+  const edge = (row: RawRow | undefined, toward: Cursor['toward']) =>
+    row ? encodeCursor({ toward, value: sortValue(row, query.sort), id: row.id }) : null
   const backwards = cursor?.toward === 'before'
   return {
     items: rows.map(toListItem),
     pageSize: query.pageSize,
     total: Math.min(total, COUNT_CAP),
     totalCapped: total > COUNT_CAP,
-    next: (backwards || more) ? edge(rows.at(-1), 'after') : null,
+    next: backwards || more ? edge(rows.at(-1), 'after') : null,
     previous: (cursor && !backwards) || (backwards && more) ? edge(rows[0], 'before') : null,
   }
 }
@@ -148,8 +214,17 @@ export async function* allWorksheets(filters: Filters): AsyncGenerator<Worksheet
   const direction = ascending ? 'ASC' : 'DESC'
   for (;;) {
     const filter = worksheetFilter(filters)
-    const where: WhereOptions = cursor ? { [Op.and]: [filter, keysetCondition(filters.sort, ascending, cursor)] } : filter
-    const rows: RawRow[] = await findRows(where, [[filters.sort, direction], ['id', direction]], 1000)
+    const where: WhereOptions = cursor
+      ? { [Op.and]: [filter, keysetCondition(filters.sort, ascending, cursor)] }
+      : filter
+    const rows: RawRow[] = await findRows(
+      where,
+      [
+        [filters.sort, direction],
+        ['id', direction],
+      ],
+      1000,
+    )
     if (rows.length === 0) return
     yield rows.map(toListItem)
     // Other requests get their turn between batches (each batch is a few milliseconds of work).

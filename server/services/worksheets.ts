@@ -1,202 +1,469 @@
-import { Op, UniqueConstraintError, type InferCreationAttributes, type Transaction } from 'sequelize'
-import type { WorksheetCreateBody, WorksheetStepBody } from '../../shared/schemas/worksheet'
-import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT, WORKSHEET_STATE_LABELS, type WorksheetContent, type WorksheetResults, type WorksheetState } from '../../shared/types/worksheet'
-import { canCorrect, canDiscard, canEdit, canInspect, canVoid, EDITABLE_STATES } from '../../shared/utils/worksheet-rules'
+import type { H3Event } from 'h3'
+import { Op, type Transaction } from 'sequelize'
+import { ENGINE_VERSION } from '#shared/gas/version'
+import type { WorksheetCreateBody, WorksheetStepBody } from '#shared/schemas/worksheet'
+import {
+  WORKSHEET_STATE_LABELS,
+  type WorksheetContent,
+  type WorksheetDto,
+  type WorksheetState,
+} from '#shared/types/worksheet'
+import {
+  canCorrect,
+  canDiscard,
+  canEdit,
+  canInspect,
+  canVoid,
+  EDITABLE_STATES,
+  type Decision,
+} from '#shared/utils/worksheet-rules'
+import {
+  applyStep,
+  missingForSignature,
+  recomputeResults,
+  settleUntil,
+  StepRefusal,
+  type StepTool,
+} from '#shared/utils/worksheet-steps'
 import { appendAudit } from '../database/audit-chain'
-import { Accumulator, Aircraft, Signature, Specification, SpecificationTablePoint, User as UserModel, Worksheet, listColumns, type User } from '../models'
-import { mailAlerts, trendAfterRelease, trendAfterVoid } from './trends'
+import type { SpecificationDto } from '#shared/types/registers'
+import { Accumulator, Aircraft, Attachment, Signature, Tool, User, Worksheet, listColumns } from '../models'
+import { askForCountersign, mailAlerts, tellReturned } from './notifications'
+import { notFound, unprocessable } from './records'
+import { confirmPassword, createSignature, currentSigner } from './signatures'
+import { currentSpecification, toSpecificationDto } from './specifications'
+import { trendAfterRelease, trendAfterVoid } from './trends'
 
 /**
- * The worksheet's life: start, steps, sign, countersign, return, void. Every change is one
- * compare-and-set inside the single writer's transaction: the update names the row version
- * (and the states) it expects, and a request that lost a race gets 409 with a plain reason.
- * Signatures are unique per round in the database itself, so a second performer or inspector
- * signature for the same round cannot be written whatever the interleaving.
+ * The worksheet's life: start, steps, sign, countersign, return, void, discard. Every change is
+ * one compare-and-set inside the single writer's transaction: the update names the row version
+ * (and the states) it expects, and a request that lost a race gets 409 with a plain reason. The
+ * steps' rules are shared with the pages (shared/utils/worksheet-steps.ts); the server runs them
+ * again on every save and recomputes every figure. Each action answers the worksheet as it now is.
  */
 
-interface Actor { id: number, name: string, roles: User['roles'], authorisationNumber: string | null }
+type Actor = Pick<User, 'id' | 'name' | 'roles' | 'authorisationNumber'>
+
+/** Throws a rule's refusal as an HTTP error (403 or 409 with the reason). */
+export function enforce(decision: Decision): void {
+  if (!decision.allowed)
+    throw createError({
+      status: decision.status,
+      statusMessage: decision.status === 409 ? 'Conflict' : 'Forbidden',
+      message: decision.reason,
+    })
+}
 
 function conflict(message: string): never {
   throw createError({ status: 409, statusMessage: 'Conflict', message })
 }
 
-/** The version a client says it saw (If-Match) must be the current one. */
-function checkVersion(worksheet: Worksheet, expected: number | undefined): void {
-  if (expected !== undefined && expected !== worksheet.version) {
-    conflict(`Worksheet ${worksheet.id} has changed since you opened it (it is now ${WORKSHEET_STATE_LABELS[worksheet.state].toLowerCase()}). Reload it and check it again before going on.`)
-  }
+/** A step refused by the shared rules, as the API answers it: the reason on the field it names. */
+function asHttpError(refusal: StepRefusal) {
+  const field = refusal.field
+  return createError({
+    status: refusal.status,
+    statusMessage: refusal.status === 409 ? 'Conflict' : 'Unprocessable Entity',
+    message: refusal.message,
+    data: field
+      ? { field, issues: [{ path: field.split('.'), field, message: refusal.message }], ...refusal.extra }
+      : undefined,
+  })
 }
 
-/**
- * Moves the row from the version read to the next, only if it is still at that version and in
- * one of `from`; anything else means another request got there first.
- */
-async function compareAndSet(worksheet: Worksheet, from: readonly WorksheetState[], changes: Partial<Worksheet>, transaction: Transaction): Promise<void> {
-  // A static update runs no model hooks: keep the list's columns in step here.
-  const derived = changes.content || changes.results ? listColumns(changes.content ?? worksheet.content, changes.results ?? worksheet.results) : {}
-  const [updated] = await Worksheet.update({ ...changes, ...derived, version: worksheet.version + 1 }, {
-    where: { id: worksheet.id, version: worksheet.version, state: { [Op.in]: [...from] } },
+export async function findWorksheet(id: number, transaction?: Transaction): Promise<Worksheet> {
+  const worksheet = await Worksheet.findByPk(id, {
+    include: [
+      { model: Signature, as: 'signatures' },
+      { model: Attachment, as: 'attachments' },
+      { model: User, as: 'performer', attributes: ['id', 'name'] },
+    ],
     transaction,
   })
-  if (updated !== 1) {
-    const now = await Worksheet.findByPk(worksheet.id, { attributes: ['state'], transaction })
-    conflict(`Someone else changed worksheet ${worksheet.id} a moment ago (it is now ${now ? WORKSHEET_STATE_LABELS[now.state].toLowerCase() : 'gone'}); your change was not made. Reload to see it.`)
+  return worksheet ?? notFound('Worksheet')
+}
+
+export async function toWorksheetDto(worksheet: Worksheet): Promise<WorksheetDto> {
+  const correctedBy = await Worksheet.findAll({ where: { correctsId: worksheet.id }, attributes: ['id'] })
+  const performer = (worksheet as Worksheet & { performer?: User }).performer
+  const attachments = (worksheet as Worksheet & { attachments?: Attachment[] }).attachments ?? []
+  const signatures = [...(worksheet.signatures ?? [])].sort(
+    (a, b) => a.signedAt.getTime() - b.signedAt.getTime() || a.id - b.id,
+  )
+  const iso = (date: Date | null) => date?.toISOString() ?? null
+  return {
+    id: worksheet.id,
+    state: worksheet.state,
+    version: worksheet.version,
+    round: worksheet.round,
+    workOrder: worksheet.workOrder,
+    reason: worksheet.reason,
+    performer: { id: worksheet.performerId, name: performer?.name ?? '' },
+    correctsId: worksheet.correctsId,
+    correctedBy: correctedBy.map(row => row.id),
+    content: worksheet.content,
+    results: worksheet.results,
+    engineVersion: worksheet.engineVersion,
+    serviceable: worksheet.serviceable,
+    returnReason: worksheet.returnReason,
+    voidReason: worksheet.voidReason,
+    performedAt: iso(worksheet.performedAt),
+    submittedAt: iso(worksheet.submittedAt),
+    releasedAt: iso(worksheet.releasedAt),
+    createdAt: worksheet.createdAt.toISOString(),
+    updatedAt: worksheet.updatedAt.toISOString(),
+    signatures: signatures.map(signature => ({
+      capacity: signature.capacity,
+      name: signature.name,
+      authorisationNumber: signature.authorisationNumber,
+      statement: signature.statement,
+      signedAt: signature.signedAt.toISOString(),
+      round: signature.round,
+    })),
+    attachments: attachments.map(({ id, kind, originalName, mimeType, sizeBytes }) => ({
+      id,
+      kind,
+      originalName,
+      mimeType,
+      sizeBytes,
+    })),
+    settleUntil: settleUntil(worksheet.content),
   }
 }
 
-async function signOnce(fields: Omit<InferCreationAttributes<Signature>, 'id'>, transaction: Transaction): Promise<void> {
+/** The worksheet as the API answers it. */
+export async function worksheetById(id: number): Promise<WorksheetDto> {
+  return toWorksheetDto(await findWorksheet(id))
+}
+
+/** The answer with the row version as its ETag (sent back as If-Match). */
+export function versioned(event: H3Event, worksheet: WorksheetDto): WorksheetDto {
+  setVersionTag(event, worksheet.version)
+  return worksheet
+}
+
+/** The version a client says it saw (If-Match) must be the current one. */
+function checkVersion(worksheet: Worksheet, expected: number | undefined): void {
+  if (expected === undefined || expected === worksheet.version) return
+  conflict(
+    `Worksheet ${worksheet.id} has changed since you opened it (it is now ${WORKSHEET_STATE_LABELS[worksheet.state].toLowerCase()}). `
+    + 'Reload it and check it again before going on.',
+  )
+}
+
+/** Moves the row from the version read to the next, only if it is still at that version and in one of `from`. */
+async function compareAndSet(
+  worksheet: Worksheet,
+  from: readonly WorksheetState[],
+  changes: Partial<Worksheet>,
+  transaction: Transaction,
+): Promise<void> {
+  // A static update runs no model hooks: keep the list's columns in step here.
+  const derived
+    = changes.content || changes.results
+      ? listColumns(changes.content ?? worksheet.content, changes.results ?? worksheet.results)
+      : {}
+  const [updated] = await Worksheet.update(
+    { ...changes, ...derived, version: worksheet.version + 1 },
+    {
+      where: { id: worksheet.id, version: worksheet.version, state: { [Op.in]: [...from] } },
+      transaction,
+    },
+  )
+  if (updated === 1) return
+  const now = await Worksheet.findByPk(worksheet.id, { attributes: ['state'], transaction })
+  conflict(
+    `Someone else changed worksheet ${worksheet.id} a moment ago (it is now ${now ? WORKSHEET_STATE_LABELS[now.state].toLowerCase() : 'gone'}); `
+    + 'your change was not made. Reload to see it.',
+  )
+}
+
+async function lockedWorksheet(id: number, transaction: Transaction): Promise<Worksheet> {
+  return (await Worksheet.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })) ?? notFound('Worksheet')
+}
+
+const audit = (
+  actor: Pick<User, 'id'>,
+  worksheet: Worksheet,
+  action: string,
+  detail: Record<string, unknown>,
+  transaction: Transaction,
+  at?: Date,
+) =>
+  appendAudit(
+    { at, actorId: actor.id, entity: 'worksheet', entityId: String(worksheet.id), action, detail },
+    transaction,
+  )
+
+/** What a worksheet freezes of its unit: the aircraft, the unit, and the specification in force. */
+export function frozenContent(
+  accumulator: Accumulator,
+  aircraft: Aircraft,
+  specification: SpecificationDto,
+): WorksheetContent {
+  const { status: _status, ...frozen } = specification
+  return {
+    specification: frozen,
+    aircraft: {
+      id: aircraft.id,
+      registration: aircraft.registration,
+      fleetNumber: aircraft.fleetNumber,
+      type: aircraft.type,
+    },
+    accumulator: {
+      id: accumulator.id,
+      partNumber: accumulator.partNumber,
+      serialNumber: accumulator.serialNumber,
+      position: accumulator.position ?? '',
+    },
+  }
+}
+
+/** The unit, its aircraft and its specification in force, or 422 naming what is missing. */
+async function unitToService(accumulatorId: number) {
+  const accumulator = await Accumulator.findByPk(accumulatorId, { include: [{ model: Aircraft, as: 'aircraft' }] })
+  if (!accumulator?.aircraft) unprocessable('That accumulator is not installed on an aircraft.', 'accumulatorId')
+  const specification = await currentSpecification(accumulator.partNumber)
+  if (!specification)
+    unprocessable(
+      `There is no current specification for P/N ${accumulator.partNumber}. Ask engineering; do not service from memory.`,
+      'accumulatorId',
+    )
+  return { accumulator, aircraft: accumulator.aircraft, specification }
+}
+
+/** Starts a worksheet for an installed unit, freezing its specification; a correction points at a released one. */
+export async function startWorksheet(actor: Actor, body: WorksheetCreateBody): Promise<WorksheetDto> {
+  const { accumulator, aircraft, specification } = await unitToService(body.accumulatorId)
+  if (body.correctsId) {
+    const corrected = (await Worksheet.findByPk(body.correctsId)) ?? notFound('The worksheet to correct')
+    enforce(canCorrect(actor, corrected))
+    if (corrected.accumulatorId !== accumulator.id)
+      unprocessable('A correction must be for the same accumulator as the worksheet it corrects.', 'accumulatorId')
+  }
+  const id = await writeTransaction(async (transaction) => {
+    const created = await Worksheet.create(
+      {
+        state: 'draft',
+        accumulatorId: accumulator.id,
+        aircraftId: aircraft.id,
+        specificationId: specification.id,
+        performerId: actor.id,
+        correctsId: body.correctsId ?? null,
+        workOrder: body.workOrder,
+        reason: body.reason,
+        content: frozenContent(accumulator, aircraft, toSpecificationDto(specification)),
+        results: {},
+        engineVersion: ENGINE_VERSION,
+        serviceable: null,
+        returnReason: null,
+        voidReason: null,
+        voidedById: null,
+        performedAt: new Date(),
+        submittedAt: null,
+        releasedAt: null,
+      },
+      { transaction },
+    )
+    const label = `${specification.partNumber} rev ${specification.revision}`
+    await audit(
+      actor,
+      created,
+      body.correctsId ? 'correction-started' : 'started',
+      { correctsId: body.correctsId ?? null, specification: label },
+      transaction,
+    )
+    return created.id
+  })
+  return worksheetById(id)
+}
+
+/** The tools a step names, read from the register for the shared rules. */
+async function toolsFor(content: WorksheetContent, step: WorksheetStepBody): Promise<Map<number, StepTool>> {
+  const ids = step.step === 'tools' ? [step.gaugeId, step.cartId] : content.tools ? [content.tools.gauge.id] : []
+  const tools = await Tool.findAll({ where: { id: { [Op.in]: ids } } })
+  return new Map(tools.map(tool => [tool.id, tool.get({ plain: true })]))
+}
+
+/** Runs the shared step rules with the server's clock, the station's date and the tool register. */
+export async function applyStepOnServer(
+  worksheet: Pick<Worksheet, 'content' | 'results'>,
+  step: WorksheetStepBody,
+  now = new Date().toISOString(),
+) {
+  const tools = await toolsFor(worksheet.content, step)
   try {
-    await Signature.create(fields, { transaction })
+    return applyStep(worksheet, step, { now, today: stationToday(), tool: id => tools.get(id) })
   }
   catch (error) {
-    if (error instanceof UniqueConstraintError) conflict('This worksheet already carries that signature for this round; it was not signed twice.')
+    if (error instanceof StepRefusal) throw asHttpError(error)
     throw error
   }
 }
 
-async function lockedWorksheet(id: number, transaction: Transaction): Promise<Worksheet> {
-  const worksheet = await Worksheet.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
-  if (!worksheet) throw createError({ status: 404, statusMessage: 'Not Found', message: 'Worksheet not found.' })
-  return worksheet
-}
-
-const audit = (actor: Actor, worksheet: Worksheet, action: string, detail: Record<string, unknown>, transaction: Transaction, at?: Date) =>
-  appendAudit({ at, actorId: actor.id, entity: 'worksheet', entityId: String(worksheet.id), action, detail }, transaction)
-
-/** Starts a worksheet for an installed unit, freezing its current specification; a correction points at a released one. */
-export async function startWorksheet(actor: Actor, body: WorksheetCreateBody): Promise<number> {
-  const accumulator = await Accumulator.findByPk(body.accumulatorId, { include: [{ model: Aircraft, as: 'aircraft' }] })
-  if (!accumulator?.aircraft) throw createError({ status: 422, statusMessage: 'Unprocessable Entity', message: 'That accumulator is not installed on an aircraft.', data: { field: 'accumulatorId' } })
-  const specification = await Specification.findOne({ where: { partNumber: accumulator.partNumber, status: 'current' }, include: [{ model: SpecificationTablePoint, as: 'tablePoints' }] })
-  if (!specification) {
-    throw createError({ status: 422, statusMessage: 'Unprocessable Entity', message: `There is no current specification for P/N ${accumulator.partNumber}. Ask engineering; do not service from memory.`, data: { field: 'accumulatorId' } })
-  }
-  if (body.correctsId) {
-    const corrected = await Worksheet.findByPk(body.correctsId)
-    if (!corrected) throw createError({ status: 404, statusMessage: 'Not Found', message: 'The worksheet to correct was not found.' })
-    enforce(canCorrect(actor, corrected))
-    if (corrected.accumulatorId !== accumulator.id) {
-      throw createError({ status: 422, statusMessage: 'Unprocessable Entity', message: 'A correction must be for the same accumulator as the worksheet it corrects.', data: { field: 'accumulatorId' } })
-    }
-  }
-  const { status: _status, ...frozen } = toSpecificationDto(specification)
-  const aircraft = accumulator.aircraft
-  const content: WorksheetContent = {
-    specification: frozen,
-    aircraft: { id: aircraft.id, registration: aircraft.registration, fleetNumber: aircraft.fleetNumber, type: aircraft.type },
-    accumulator: { id: accumulator.id, partNumber: accumulator.partNumber, serialNumber: accumulator.serialNumber, position: accumulator.position ?? '' },
-  }
-  return writeTransaction(async (transaction) => {
-    const created = await Worksheet.create({
-      state: 'draft', accumulatorId: accumulator.id, aircraftId: aircraft.id, specificationId: specification.id, performerId: actor.id,
-      correctsId: body.correctsId ?? null, workOrder: body.workOrder, reason: body.reason, content: content as unknown as Record<string, unknown>,
-      results: {}, engineVersion: ENGINE_VERSION, serviceable: null, returnReason: null, voidReason: null, voidedById: null,
-      performedAt: new Date(), submittedAt: null, releasedAt: null,
-    }, { transaction })
-    const specificationLabel = `${specification.partNumber} rev ${specification.revision}`
-    await audit(actor, created, body.correctsId ? 'correction-started' : 'started', { correctsId: body.correctsId ?? null, specification: specificationLabel }, transaction)
-    return created.id
-  })
-}
-
 /** Saves one completed step: the server recomputes every figure from the frozen specification. */
-export async function saveStep(actor: Actor, id: number, step: WorksheetStepBody, expectedVersion?: number): Promise<void> {
+export async function saveStep(
+  actor: Actor,
+  id: number,
+  step: WorksheetStepBody,
+  expectedVersion?: number,
+): Promise<WorksheetDto> {
   await writeTransaction(async (transaction) => {
     const worksheet = await lockedWorksheet(id, transaction)
     enforce(canEdit(actor, worksheet))
     checkVersion(worksheet, expectedVersion)
-    const { content, results } = await applyStep(worksheet, step)
-    await compareAndSet(worksheet, EDITABLE_STATES, {
-      content: content as unknown as Record<string, unknown>, results: results as Record<string, unknown>, engineVersion: ENGINE_VERSION,
-    }, transaction)
+    const { content, results } = await applyStepOnServer(worksheet, step)
+    await compareAndSet(worksheet, EDITABLE_STATES, { content, results, engineVersion: ENGINE_VERSION }, transaction)
     await audit(actor, worksheet, 'step-saved', { step: step.step }, transaction)
   })
+  return worksheetById(id)
 }
 
-/** The performer signs: results recomputed and frozen, state to awaiting countersign. */
-/** The signer as the database holds them now: a signature never carries a name or authorisation from a cache. */
-async function signer(actor: Actor): Promise<Actor & { passwordHash: string }> {
-  const fresh = await UserModel.findByPk(actor.id)
-  if (!fresh || fresh.disabled) throw createError({ status: 401, statusMessage: 'Unauthorized', message: 'Your account is no longer active; the signature was not made.' })
-  return fresh
-}
-
-export async function signWorksheet(cachedActor: Actor, id: number, password: string, expectedVersion?: number): Promise<Worksheet> {
-  const actor = await signer(cachedActor)
-  const seen = await findWorksheet(id)
-  enforce(canEdit(actor, seen))
-  checkVersion(seen, expectedVersion)
-  // The password is checked outside the write lock (it takes tens of milliseconds on purpose).
-  await confirmPassword(actor, password)
-  const content = seen.content as unknown as WorksheetContent
-  const results: WorksheetResults = recomputeResults(content)
+/** The results a signature freezes, recomputed now with this engine; 422 naming what is still missing. */
+function resultsToSign(content: WorksheetContent) {
+  let results
+  try {
+    results = recomputeResults(content)
+  }
+  catch (error) {
+    if (error instanceof StepRefusal) throw asHttpError(error)
+    throw error
+  }
   const missing = missingForSignature(content, results)
-  if (missing.length) throw createError({ status: 422, statusMessage: 'Unprocessable Entity', message: `Not ready to sign. Still needed: ${missing.join('; ')}.`, data: { missing } })
+  if (missing.length) {
+    throw createError({
+      status: 422,
+      statusMessage: 'Unprocessable Entity',
+      message: `Not ready to sign. Still needed: ${missing.join('; ')}.`,
+      data: { missing },
+    })
+  }
+  return results
+}
+
+/**
+ * The performer signs with their password: results recomputed and frozen, awaiting countersign; inspectors are
+ * told.
+ */
+export async function signWorksheet(
+  actor: Actor,
+  id: number,
+  password: string,
+  expectedVersion?: number,
+): Promise<WorksheetDto> {
+  const signer = await currentSigner(actor.id)
+  const seen = await findWorksheet(id)
+  enforce(canEdit(signer, seen))
+  checkVersion(seen, expectedVersion)
+  await confirmPassword(signer, password)
+  const results = resultsToSign(seen.content)
   const now = new Date()
   const serviceable = results.asLeft!.assessment.verdict === 'in-limits'
   await writeTransaction(async (transaction) => {
     // Signed as seen: the version whose content was just checked, or the request loses.
-    await compareAndSet(seen, EDITABLE_STATES, {
-      state: 'awaiting-countersign', results: results as Record<string, unknown>, engineVersion: ENGINE_VERSION, serviceable, submittedAt: now, returnReason: null,
-    }, transaction)
-    await signOnce({
-      worksheetId: seen.id, userId: actor.id, capacity: 'performer', name: actor.name, authorisationNumber: actor.authorisationNumber,
-      statement: PERFORMER_STATEMENT, signedAt: now, round: seen.round,
-    }, transaction)
-    await audit(actor, seen, 'signed', { engineVersion: ENGINE_VERSION, serviceable, round: seen.round }, transaction, now)
+    const changes = {
+      state: 'awaiting-countersign' as const,
+      results,
+      engineVersion: ENGINE_VERSION,
+      serviceable,
+      submittedAt: now,
+      returnReason: null,
+    }
+    await compareAndSet(seen, EDITABLE_STATES, changes, transaction)
+    await createSignature(seen, signer, 'performer', now, transaction)
+    await audit(
+      signer,
+      seen,
+      'signed',
+      { engineVersion: ENGINE_VERSION, serviceable, round: seen.round },
+      transaction,
+      now,
+    )
   })
-  return seen
+  await askForCountersign(seen, signer)
+  return worksheetById(id)
 }
 
 /** Independent inspection: an inspector who did not do the work countersigns, and the record is released. */
-export async function countersignWorksheet(cachedActor: Actor, id: number, password: string, expectedVersion?: number): Promise<void> {
-  const actor = await signer(cachedActor)
+export async function countersignWorksheet(
+  actor: Actor,
+  id: number,
+  password: string,
+  expectedVersion?: number,
+): Promise<WorksheetDto> {
+  const signer = await currentSigner(actor.id)
   const seen = await findWorksheet(id)
-  enforce(canInspect(actor, seen))
+  enforce(canInspect(signer, seen))
   checkVersion(seen, expectedVersion)
-  await confirmPassword(actor, password)
+  await confirmPassword(signer, password)
   const now = new Date()
   const alerts = await writeTransaction(async (transaction) => {
     await compareAndSet(seen, ['awaiting-countersign'], { state: 'released', releasedAt: now }, transaction)
-    await signOnce({
-      worksheetId: seen.id, userId: actor.id, capacity: 'inspector', name: actor.name, authorisationNumber: actor.authorisationNumber,
-      statement: INSPECTOR_STATEMENT, signedAt: now, round: seen.round,
-    }, transaction)
-    await audit(actor, seen, 'countersigned', { performerId: seen.performerId, round: seen.round }, transaction, now)
+    await createSignature(seen, signer, 'inspector', now, transaction)
+    await audit(signer, seen, 'countersigned', { performerId: seen.performerId, round: seen.round }, transaction, now)
     // The released as-found joins its unit's trend, in the same write.
     return trendAfterRelease(seen, transaction)
   })
   await mailAlerts(alerts)
+  return worksheetById(id)
 }
 
-/** Back to the performer with a reason; the next signature opens a new round. */
-export async function returnWorksheet(actor: Actor, id: number, reason: string, expectedVersion?: number): Promise<Worksheet> {
-  return writeTransaction(async (transaction) => {
-    const worksheet = await lockedWorksheet(id, transaction)
-    enforce(canInspect(actor, worksheet))
-    checkVersion(worksheet, expectedVersion)
-    await compareAndSet(worksheet, ['awaiting-countersign'], { state: 'returned', returnReason: reason, submittedAt: null, round: worksheet.round + 1 }, transaction)
-    await audit(actor, worksheet, 'returned', { reason, round: worksheet.round }, transaction)
-    return worksheet
+/** Back to the performer with a reason (they are told); the next signature opens a new round. */
+export async function returnWorksheet(
+  actor: Actor,
+  id: number,
+  reason: string,
+  expectedVersion?: number,
+): Promise<WorksheetDto> {
+  const worksheet = await writeTransaction(async (transaction) => {
+    const found = await lockedWorksheet(id, transaction)
+    enforce(canInspect(actor, found))
+    checkVersion(found, expectedVersion)
+    await compareAndSet(
+      found,
+      ['awaiting-countersign'],
+      { state: 'returned', returnReason: reason, submittedAt: null, round: found.round + 1 },
+      transaction,
+    )
+    await audit(actor, found, 'returned', { reason, round: found.round }, transaction)
+    return found
   })
+  await tellReturned(worksheet, actor, reason)
+  return worksheetById(id)
 }
 
 /** Voided with a reason: the record stays, readable, marked voided. */
-export async function voidWorksheet(actor: Actor, id: number, reason: string, expectedVersion?: number): Promise<void> {
+export async function voidWorksheet(
+  actor: Actor,
+  id: number,
+  reason: string,
+  expectedVersion?: number,
+): Promise<WorksheetDto> {
   const alerts = await writeTransaction(async (transaction) => {
     const worksheet = await lockedWorksheet(id, transaction)
     enforce(canVoid(actor, worksheet))
     checkVersion(worksheet, expectedVersion)
     const previousState = worksheet.state
-    await compareAndSet(worksheet, ['draft', 'awaiting-countersign', 'released', 'returned'], { state: 'voided', voidReason: reason, voidedById: actor.id }, transaction)
+    await compareAndSet(
+      worksheet,
+      ['draft', 'awaiting-countersign', 'released', 'returned'],
+      { state: 'voided', voidReason: reason, voidedById: actor.id },
+      transaction,
+    )
     await audit(actor, worksheet, 'voided', { reason, previousState }, transaction)
     return trendAfterVoid(worksheet, previousState, transaction)
   })
   await mailAlerts(alerts)
+  return worksheetById(id)
 }
 
 /** The performer discards a draft that was never signed: kept, marked voided, with the reason. */
-export async function discardWorksheet(actor: Actor, id: number, reason: string, expectedVersion?: number): Promise<void> {
+export async function discardWorksheet(
+  actor: Actor,
+  id: number,
+  reason: string,
+  expectedVersion?: number,
+): Promise<WorksheetDto> {
   await writeTransaction(async (transaction) => {
     const worksheet = await lockedWorksheet(id, transaction)
     enforce(canDiscard(actor, worksheet))
@@ -205,4 +472,14 @@ export async function discardWorksheet(actor: Actor, id: number, reason: string,
     await compareAndSet(worksheet, ['draft'], { state: 'voided', voidReason, voidedById: actor.id }, transaction)
     await audit(actor, worksheet, 'discarded', { reason }, transaction)
   })
+  return worksheetById(id)
+}
+
+/** A released (or voided) worksheet as a PDF record: the sections the record page shows. */
+export async function worksheetRecordPdf(id: number): Promise<Uint8Array> {
+  const worksheet = await worksheetById(id)
+  if (worksheet.state !== 'released' && worksheet.state !== 'voided') {
+    conflict('Only a released (or voided) worksheet is issued as a PDF record; use the print page to review a draft.')
+  }
+  return worksheetPdf(worksheet)
 }

@@ -1,6 +1,6 @@
 import type { H3Event } from 'h3'
-import { can, refusal, type Ability } from '../../shared/abilities'
-import type { Role } from '../../shared/types/user'
+import { can, refusal, type Ability } from '#shared/abilities'
+import type { Role } from '#shared/types/user'
 import type { User } from '../models'
 import { liveSession, SessionEnded } from '../services/sessions'
 

@@ -2,7 +2,7 @@ import type { H3Event } from 'h3'
 import Papa from 'papaparse'
 import { UniqueConstraintError, type Transaction } from 'sequelize'
 import type { ZodType, ZodTypeDef } from 'zod'
-import { toFieldIssues } from '../../shared/schemas/issues'
+import { toFieldIssues } from '#shared/schemas/issues'
 
 export interface RejectedRow {
   /** The line in the file (the header is line 1). */
@@ -23,11 +23,21 @@ export async function readCsvText(event: H3Event): Promise<string> {
   const type = getRequestHeader(event, 'content-type') ?? ''
   if (type.startsWith('multipart/form-data')) {
     const file = (await readMultipartFormData(event))?.find(part => part.name === 'file')
-    if (!file) throw createError({ status: 400, statusMessage: 'Bad Request', message: 'Attach the CSV file in the field "file".' })
+    if (!file)
+      throw createError({
+        status: 400,
+        statusMessage: 'Bad Request',
+        message: 'Attach the CSV file in the field "file".',
+      })
     return file.data.toString('utf8')
   }
   const text = await readRawBody(event, 'utf8')
-  if (!text?.trim()) throw createError({ status: 400, statusMessage: 'Bad Request', message: 'Send the CSV as the request body (text/csv) or as a file upload.' })
+  if (!text?.trim())
+    throw createError({
+      status: 400,
+      statusMessage: 'Bad Request',
+      message: 'Send the CSV as the request body (text/csv) or as a file upload.',
+    })
   return text
 }
 
@@ -42,22 +52,39 @@ export async function importCsv<Row>(
   write: (row: Row, transaction: Transaction, line: number) => Promise<void>,
   check?: (row: Row, line: number) => Promise<RejectedRow[]>,
 ): Promise<ImportReport> {
-  const parsed = Papa.parse<Record<string, string>>((await readCsvText(event)).replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: 'greedy', transformHeader: header => header.trim(), transform: unguardCell })
-  if (parsed.data.length > MAX_ROWS) throw createError({ status: 413, statusMessage: 'Payload Too Large', message: `At most ${MAX_ROWS} rows per import.` })
-  const rejected: RejectedRow[] = parsed.errors.map(error => ({ line: (error.row ?? 0) + 2, field: '(row)', message: error.message }))
+  const parsed = Papa.parse<Record<string, string>>((await readCsvText(event)).replace(/^\uFEFF/, ''), {
+    header: true,
+    skipEmptyLines: 'greedy',
+    transformHeader: header => header.trim(),
+    transform: unguardCell,
+  })
+  if (parsed.data.length > MAX_ROWS)
+    throw createError({
+      status: 413,
+      statusMessage: 'Payload Too Large',
+      message: `At most ${MAX_ROWS} rows per import.`,
+    })
+  const rejected: RejectedRow[] = parsed.errors.map(error => ({
+    line: (error.row ?? 0) + 2,
+    field: '(row)',
+    message: error.message,
+  }))
   const rows: { row: Row, line: number }[] = []
   for (const [index, raw] of parsed.data.entries()) {
     const line = index + 2
     const result = schema.safeParse(raw)
     if (!result.success) {
-      rejected.push(...toFieldIssues(result.error.issues).map(issue => ({ line, field: issue.field, message: issue.message })))
+      rejected.push(
+        ...toFieldIssues(result.error.issues).map(issue => ({ line, field: issue.field, message: issue.message })),
+      )
       continue
     }
     const problems = check ? await check(result.data, line) : []
     if (problems.length) rejected.push(...problems)
     else rows.push({ row: result.data, line })
   }
-  if (parsed.data.length === 0) rejected.push({ line: 1, field: '(file)', message: 'The file has a header but no rows.' })
+  if (parsed.data.length === 0)
+    rejected.push({ line: 1, field: '(file)', message: 'The file has a header but no rows.' })
   if (rejected.length === 0) {
     let current = 0
     try {
@@ -69,8 +96,14 @@ export async function importCsv<Row>(
       })
     }
     catch (error) {
-      if (error instanceof UniqueConstraintError) rejected.push({ line: current, field: error.errors[0]?.path ?? '(row)', message: 'Already in the register (or twice in this file).' })
-      else if (error instanceof Error && 'statusCode' in error) rejected.push({ line: current, field: '(row)', message: error.message })
+      if (error instanceof UniqueConstraintError)
+        rejected.push({
+          line: current,
+          field: error.errors[0]?.path ?? '(row)',
+          message: 'Already in the register (or twice in this file).',
+        })
+      else if (error instanceof Error && 'statusCode' in error)
+        rejected.push({ line: current, field: '(row)', message: error.message })
       else throw error
     }
   }

@@ -20,12 +20,14 @@ function open() {
     if (isPostgresUrl(location)) onSessionChangeBroadcast(listenForSessionChanges(location, forgetSessions))
     await migrate(sequelize)
     const write = createWriteQueue(sequelize)
-    configureAuditSecret(auditSecretFrom({ auditSecret: config.auditSecret, sessionPassword: config.session?.password }))
+    configureAuditSecret(
+      auditSecretFrom({ auditSecret: config.auditSecret, sessionPassword: config.session?.password }),
+    )
     // Before any request writes: a chain that was never sealed is baselined and sealed now.
     const { established, baselined } = await write(transaction => establishSeal(transaction))
     if (established) console.info(`Audit chain sealed; ${baselined} record(s) baselined.`)
     // Stored trends missing (a database from before them, or loaded in bulk): derive them once.
-    if (await UnitTrend.count() === 0 && await Accumulator.count() > 0) {
+    if ((await UnitTrend.count()) === 0 && (await Accumulator.count()) > 0) {
       const released = await rebuildTrends(write)
       console.info(`Pre-charge trends derived from ${released} released worksheet(s).`)
     }

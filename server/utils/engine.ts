@@ -1,4 +1,4 @@
-import { isEngineInputError } from '../../shared/gas/errors'
+import { isEngineInputError } from '#shared/gas/errors'
 
 /**
  * Runs an engine calculation; physically impossible input (the engine's EngineInputError)

@@ -6,10 +6,9 @@ let transporter: Transporter | undefined
 function useTransporter(): Transporter {
   if (transporter) return transporter
   const config = useRuntimeConfig()
-  transporter = config.smtpUrl
-    ? nodemailer.createTransport(config.smtpUrl)
-    // Development and tests: the fake SMTP server started by server/plugins/fake-smtp.ts.
-    : nodemailer.createTransport({ host: '127.0.0.1', port: Number(config.fakeSmtpPort), secure: false, ignoreTLS: true })
+  // Without an SMTP server (development and tests): the fake one started by server/plugins/fake-smtp.ts.
+  const fake = { host: '127.0.0.1', port: Number(config.fakeSmtpPort), secure: false, ignoreTLS: true }
+  transporter = config.smtpUrl ? nodemailer.createTransport(config.smtpUrl) : nodemailer.createTransport(fake)
   return transporter
 }
 
@@ -28,11 +27,44 @@ export interface MailRequest {
 export async function sendMail(request: MailRequest): Promise<Notification> {
   const config = useRuntimeConfig()
   try {
-    const info = await useTransporter().sendMail({ from: config.mailFrom, to: request.to, subject: request.subject, text: request.text })
-    return await writeTransaction(transaction => Notification.create({ recipient: request.to, subject: request.subject, body: request.text, kind: request.kind, worksheetId: request.worksheetId ?? null, status: 'sent', error: null, messageId: info.messageId ?? null }, { transaction }))
+    const info = await useTransporter().sendMail({
+      from: config.mailFrom,
+      to: request.to,
+      subject: request.subject,
+      text: request.text,
+    })
+    return await writeTransaction(transaction =>
+      Notification.create(
+        {
+          recipient: request.to,
+          subject: request.subject,
+          body: request.text,
+          kind: request.kind,
+          worksheetId: request.worksheetId ?? null,
+          status: 'sent',
+          error: null,
+          messageId: info.messageId ?? null,
+        },
+        { transaction },
+      ),
+    )
   }
   catch (error) {
     console.error(`Mail to ${request.to} failed:`, error)
-    return await writeTransaction(transaction => Notification.create({ recipient: request.to, subject: request.subject, body: request.text, kind: request.kind, worksheetId: request.worksheetId ?? null, status: 'failed', error: String(error), messageId: null }, { transaction }))
+    return await writeTransaction(transaction =>
+      Notification.create(
+        {
+          recipient: request.to,
+          subject: request.subject,
+          body: request.text,
+          kind: request.kind,
+          worksheetId: request.worksheetId ?? null,
+          status: 'failed',
+          error: String(error),
+          messageId: null,
+        },
+        { transaction },
+      ),
+    )
   }
 }

@@ -1,4 +1,5 @@
 import fontkit from '@pdf-lib/fontkit'
+import type { H3Event } from 'h3'
 import { PDFDocument, rgb, type PDFFont } from 'pdf-lib'
 
 /**
@@ -11,12 +12,22 @@ import { PDFDocument, rgb, type PDFFont } from 'pdf-lib'
  */
 const SOURCE_SANS_SUBSETS = ['latin', 'latin-ext', 'greek', 'greek-ext', 'cyrillic', 'cyrillic-ext', 'vietnamese']
 const FACES = {
-  regular: [...SOURCE_SANS_SUBSETS.map(subset => `pdf-fonts:source-sans-3-${subset}-400-normal.woff`), 'pdf-fonts-fallback:DejaVuSans.ttf'],
-  bold: [...SOURCE_SANS_SUBSETS.map(subset => `pdf-fonts:source-sans-3-${subset}-700-normal.woff`), 'pdf-fonts-fallback:DejaVuSans-Bold.ttf'],
+  regular: [
+    ...SOURCE_SANS_SUBSETS.map(subset => `pdf-fonts:source-sans-3-${subset}-400-normal.woff`),
+    'pdf-fonts-fallback:DejaVuSans.ttf',
+  ],
+  bold: [
+    ...SOURCE_SANS_SUBSETS.map(subset => `pdf-fonts:source-sans-3-${subset}-700-normal.woff`),
+    'pdf-fonts-fallback:DejaVuSans-Bold.ttf',
+  ],
 }
 type Face = keyof typeof FACES
 
-interface FontFile { key: string, bytes: Uint8Array, codePoints: Set<number> }
+interface FontFile {
+  key: string
+  bytes: Uint8Array
+  codePoints: Set<number>
+}
 let fontFiles: Promise<Record<Face, FontFile[]>> | undefined
 
 /** The shipped font files with the characters each covers, read once per process. */
@@ -37,8 +48,18 @@ function loadFontFiles(): Promise<Record<Face, FontFile[]>> {
   return fontFiles
 }
 
-interface Block { text: string, face: Face, size: number, gap: number, colour: [number, number, number], spaceBefore: number }
-interface Run { text: string, file: FontFile }
+interface Block {
+  text: string
+  face: Face
+  size: number
+  gap: number
+  colour: [number, number, number]
+  spaceBefore: number
+}
+interface Run {
+  text: string
+  file: FontFile
+}
 
 const INK: [number, number, number] = [0.04, 0.16, 0.19]
 const MARGIN = 50
@@ -53,8 +74,18 @@ export class PdfWriter {
     return new PdfWriter(title)
   }
 
-  write(text: string, options: { bold?: boolean, size?: number, gap?: number, colour?: [number, number, number] } = {}): void {
-    this.blocks.push({ text, face: options.bold ? 'bold' : 'regular', size: options.size ?? 10, gap: options.gap ?? 0, colour: options.colour ?? INK, spaceBefore: 0 })
+  write(
+    text: string,
+    options: { bold?: boolean, size?: number, gap?: number, colour?: [number, number, number] } = {},
+  ): void {
+    this.blocks.push({
+      text,
+      face: options.bold ? 'bold' : 'regular',
+      size: options.size ?? 10,
+      gap: options.gap ?? 0,
+      colour: options.colour ?? INK,
+      spaceBefore: 0,
+    })
   }
 
   heading(text: string): void {
@@ -111,7 +142,7 @@ export class PdfWriter {
         let line = ''
         for (const word of paragraph.split(' ')) {
           const candidate = line ? `${line} ${word}` : word
-          if (line && await widthOf(runsOf(candidate, block.face), block.size) > width) {
+          if (line && (await widthOf(runsOf(candidate, block.face), block.size)) > width) {
             lines.push(line)
             line = `   ${word}`
           }
@@ -136,8 +167,22 @@ export class PdfWriter {
     }
     for (const block of this.blocks) await draw(block)
     if (undrawable.size > 0) {
-      await draw({ text: 'Some characters in this record could not be drawn with the fonts Chargewell ships; each is shown as [U+code], its Unicode number, so nothing was dropped.', face: 'bold', size: 10, gap: 0, colour: [0.55, 0.1, 0.07], spaceBefore: 10 })
+      await draw({
+        text: 'Some characters in this record could not be drawn with the fonts Chargewell ships; each is shown as [U+code], its Unicode number, so nothing was dropped.',
+        face: 'bold',
+        size: 10,
+        gap: 0,
+        colour: [0.55, 0.1, 0.07],
+        spaceBefore: 10,
+      })
     }
     return document.save()
   }
+}
+
+/** A PDF as a download named chargewell-<name>.pdf. */
+export function sendPdf(event: H3Event, name: string, bytes: Uint8Array): Buffer {
+  setResponseHeader(event, 'content-type', 'application/pdf')
+  setResponseHeader(event, 'content-disposition', `attachment; filename="chargewell-${name}.pdf"`)
+  return Buffer.from(bytes)
 }

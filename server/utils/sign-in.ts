@@ -8,7 +8,9 @@ import { LoginAttempt } from '../models'
  * sent at once are admitted one by one and the sixth already finds five recorded. An attempt
  * counts as failed until its password proves right.
  */
-export interface AttemptTicket { id: number }
+export interface AttemptTicket {
+  id: number
+}
 
 function limits() {
   const config = useRuntimeConfig()
@@ -29,7 +31,12 @@ export function clientAddress(event: H3Event): string {
 function refuse(event: H3Event, unlockAt: number, now: number, message: string): never {
   const retryAfterSeconds = Math.max(1, Math.ceil((unlockAt - now) / 1000))
   setResponseHeader(event, 'Retry-After', retryAfterSeconds)
-  throw createError({ status: 429, statusMessage: 'Too Many Requests', message: `${message} Try again in ${Math.ceil(retryAfterSeconds / 60)} minute(s).`, data: { retryAfterSeconds } })
+  throw createError({
+    status: 429,
+    statusMessage: 'Too Many Requests',
+    message: `${message} Try again in ${Math.ceil(retryAfterSeconds / 60)} minute(s).`,
+    data: { retryAfterSeconds },
+  })
 }
 
 /** Admits one attempt (recording it as failed for now) or refuses it with 429 and the wait. */
@@ -47,15 +54,38 @@ export async function admitAttempt(event: H3Event, email: string): Promise<Attem
     }
     const now = Date.now()
     const windowStart = new Date(now - windowMs)
-    const lastSuccess = await LoginAttempt.max<Date, LoginAttempt>('at', { where: { email, succeeded: true }, transaction })
+    const lastSuccess = await LoginAttempt.max<Date, LoginAttempt>('at', {
+      where: { email, succeeded: true },
+      transaction,
+    })
     const since = new Date(Math.max(windowStart.getTime(), lastSuccess ? new Date(lastSuccess).getTime() + 1 : 0))
-    const accountFailures = await LoginAttempt.findAll({ where: { email, succeeded: false, at: { [Op.gte]: since } }, order: [['at', 'DESC']], limit: perAccount, transaction })
+    const accountFailures = await LoginAttempt.findAll({
+      where: { email, succeeded: false, at: { [Op.gte]: since } },
+      order: [['at', 'DESC']],
+      limit: perAccount,
+      transaction,
+    })
     if (accountFailures.length >= perAccount) {
-      refuse(event, accountFailures[perAccount - 1]!.at.getTime() + windowMs, now, 'Too many failed sign-ins for this account.')
+      refuse(
+        event,
+        accountFailures[perAccount - 1]!.at.getTime() + windowMs,
+        now,
+        'Too many failed sign-ins for this account.',
+      )
     }
-    const addressFailures = await LoginAttempt.findAll({ where: { address, succeeded: false, at: { [Op.gte]: windowStart } }, order: [['at', 'DESC']], limit: perAddress, transaction })
+    const addressFailures = await LoginAttempt.findAll({
+      where: { address, succeeded: false, at: { [Op.gte]: windowStart } },
+      order: [['at', 'DESC']],
+      limit: perAddress,
+      transaction,
+    })
     if (addressFailures.length >= perAddress) {
-      refuse(event, addressFailures[perAddress - 1]!.at.getTime() + windowMs, now, 'Too many failed sign-ins from this network address.')
+      refuse(
+        event,
+        addressFailures[perAddress - 1]!.at.getTime() + windowMs,
+        now,
+        'Too many failed sign-ins from this network address.',
+      )
     }
     const attempt = await LoginAttempt.create({ email, succeeded: false, at: new Date(now), address }, { transaction })
     return { id: attempt.id }
@@ -63,7 +93,9 @@ export async function admitAttempt(event: H3Event, email: string): Promise<Attem
 }
 
 export async function attemptSucceeded(ticket: AttemptTicket): Promise<void> {
-  await writeTransaction(transaction => LoginAttempt.update({ succeeded: true }, { where: { id: ticket.id }, transaction }))
+  await writeTransaction(transaction =>
+    LoginAttempt.update({ succeeded: true }, { where: { id: ticket.id }, transaction }),
+  )
 }
 
 let dummyHash: Promise<string> | undefined
@@ -74,6 +106,6 @@ let dummyHash: Promise<string> | undefined
  */
 export async function checkPassword(passwordHash: string | undefined, password: string): Promise<boolean> {
   dummyHash ??= hashPassword(`no-account-${Math.random()}`)
-  const matches = await verifyPassword(passwordHash ?? await dummyHash, password)
+  const matches = await verifyPassword(passwordHash ?? (await dummyHash), password)
   return passwordHash !== undefined && matches
 }

@@ -1,6 +1,6 @@
 import { H3Error } from 'h3'
 import type { ZodType, ZodTypeDef } from 'zod'
-import { describeIssues, toFieldIssues, type FieldIssue } from '../../shared/schemas/issues'
+import { describeIssues, toFieldIssues, type FieldIssue } from '#shared/schemas/issues'
 
 /**
  * Bad input: 400 with a message naming each field and `data.issues[]` of `{ path, field, message }`.
@@ -32,7 +32,8 @@ function nonFiniteNumbers(value: unknown, path: (string | number)[] = [], found:
     found.push({ path, field: path.join('.') || '(body)', message: 'Must be an ordinary finite number.' })
   }
   else if (value && typeof value === 'object' && found.length < 20) {
-    for (const [key, item] of Object.entries(value)) nonFiniteNumbers(item, [...path, Array.isArray(value) ? Number(key) : key], found)
+    for (const [key, item] of Object.entries(value))
+      nonFiniteNumbers(item, [...path, Array.isArray(value) ? Number(key) : key], found)
   }
   return found
 }

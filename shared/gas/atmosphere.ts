@@ -20,13 +20,19 @@ export function standardAtmospherePressure(elevationMetres: number): number {
   return STANDARD_ATMOSPHERE_PA * Math.pow(1 - 2.25577e-5 * elevationMetres, 5.25588)
 }
 
-/** Local atmospheric pressure (Pa absolute) from a barometric reading, an elevation, or neither (sea level standard). */
+/**
+ * Local atmospheric pressure (Pa absolute) from a barometric reading, an elevation, or neither (sea level
+ * standard).
+ */
 export function ambientPressure(ambient?: Ambient): number {
   if (!ambient) return STANDARD_ATMOSPHERE_PA
   if ('pressure' in ambient) {
     const pascals = pressureToPascalAbsolute(ambient.pressure, 0)
     if (ambient.pressure.basis !== 'absolute' || !(pascals > 30000 && pascals < 120000)) {
-      throw new EngineInputError('A barometric reading must be an absolute pressure between 300 and 1200 hPa.', 'ambient.pressure')
+      throw new EngineInputError(
+        'A barometric reading must be an absolute pressure between 300 and 1200 hPa.',
+        'ambient.pressure',
+      )
     }
     return pascals
   }

@@ -3,8 +3,11 @@ import { EngineInputError } from './errors'
 import { describeModel, gasLaw, stateAt, stateAtTemperature } from './gas-law'
 import type { Ambient, GasModel, Pressure, PressureUnit, Provenance, TablePoint, Temperature, Tolerance } from './types'
 import {
-  kelvinToTemperature, pascalAbsoluteToPressure, pressureDifferenceToPascal,
-  pressureToPascalAbsolute, temperatureToKelvin,
+  kelvinToTemperature,
+  pascalAbsoluteToPressure,
+  pressureDifferenceToPascal,
+  pressureToPascalAbsolute,
+  temperatureToKelvin,
 } from './units'
 import { ENGINE_VERSION } from './version'
 
@@ -25,9 +28,15 @@ export interface ChargeTargetResult extends Provenance<ChargeTargetInput> {
 }
 
 /** The band ends at the reference temperature, Pa absolute. */
-function referenceBand(referencePa: number, reference: Pressure, tolerance: Tolerance, ambientPa: number): { low: number, high: number } {
+function referenceBand(
+  referencePa: number,
+  reference: Pressure,
+  tolerance: Tolerance,
+  ambientPa: number,
+): { low: number, high: number } {
   const stated = reference.basis === 'gauge' ? referencePa - ambientPa : referencePa
-  const toPascal = (amount: number) => tolerance.unit === '%' ? stated * amount / 100 : pressureDifferenceToPascal(amount, tolerance.unit)
+  const toPascal = (amount: number) =>
+    tolerance.unit === '%' ? (stated * amount) / 100 : pressureDifferenceToPascal(amount, tolerance.unit)
   return { low: referencePa - toPascal(tolerance.minus), high: referencePa + toPascal(tolerance.plus) }
 }
 
@@ -50,7 +59,8 @@ export function chargeTarget(input: ChargeTargetInput): ChargeTargetResult {
   law.checkInput(gasK, referencePa, 'gasTemperature')
 
   const carry = (pascals: number) => {
-    if (!(pascals > 0)) throw new EngineInputError('The low end of the tolerance band is at or below zero absolute.', 'tolerance.minus')
+    if (!(pascals > 0))
+      throw new EngineInputError('The low end of the tolerance band is at or below zero absolute.', 'tolerance.minus')
     const state = stateAtTemperature(law, stateAt(law, pascals, referenceK), gasK)
     law.checkInput(gasK, state.pressure, 'gasTemperature')
     return pascalAbsoluteToPressure(state.pressure, pressure.unit, pressure.basis, ambientPa)
@@ -97,10 +107,15 @@ export function chargeTargetFromTable(input: TableTargetInput): TableTargetResul
   if (input.points.length < 2) throw new EngineInputError('An approved-data table needs at least two points.', 'points')
   const first = input.points[0]!.pressure
   const rows = input.points
-    .map(point => ({ point, kelvin: temperatureToKelvin(point.temperature), pascals: pressureToPascalAbsolute(point.pressure, ambientPa) }))
+    .map(point => ({
+      point,
+      kelvin: temperatureToKelvin(point.temperature),
+      pascals: pressureToPascalAbsolute(point.pressure, ambientPa),
+    }))
     .sort((a, b) => a.kelvin - b.kelvin)
   for (let i = 1; i < rows.length; i++) {
-    if (rows[i]!.kelvin === rows[i - 1]!.kelvin) throw new EngineInputError('Two table points have the same temperature.', 'points')
+    if (rows[i]!.kelvin === rows[i - 1]!.kelvin)
+      throw new EngineInputError('Two table points have the same temperature.', 'points')
   }
   const gasK = temperatureToKelvin(input.gasTemperature)
   const lowest = rows[0]!
@@ -117,7 +132,7 @@ export function chargeTargetFromTable(input: TableTargetInput): TableTargetResul
   if (upper === 0) upper = 1
   const a = rows[upper - 1]!
   const b = rows[upper]!
-  const targetPa = a.pascals + (b.pascals - a.pascals) * (gasK - a.kelvin) / (b.kelvin - a.kelvin)
+  const targetPa = a.pascals + ((b.pascals - a.pascals) * (gasK - a.kelvin)) / (b.kelvin - a.kelvin)
   const show = (pascals: number) => pascalAbsoluteToPressure(pascals, first.unit, first.basis, ambientPa)
   const result: TableTargetResult = {
     target: show(targetPa),
@@ -173,11 +188,13 @@ export function correctionCurve(input: CorrectionCurveInput): CorrectionCurveRes
   law.checkInput(fromK, referencePa, 'from')
   law.checkInput(toK, referencePa, 'to')
   const band = input.tolerance ? referenceBand(referencePa, pressure, input.tolerance, ambientPa) : undefined
-  const densities = [referencePa, band?.low, band?.high].map(pa => pa === undefined ? undefined : law.density(pa, referenceK))
+  const densities = [referencePa, band?.low, band?.high].map(pa =>
+    pa === undefined ? undefined : law.density(pa, referenceK),
+  )
   const lines: number[][] = [[], [], []]
   const temperatures: number[] = []
   for (let i = 0; i < count; i++) {
-    const kelvin = fromK + (toK - fromK) * i / (count - 1)
+    const kelvin = fromK + ((toK - fromK) * i) / (count - 1)
     temperatures.push(kelvinToTemperature(kelvin, input.from.unit).value)
     densities.forEach((density, line) => {
       if (density === undefined) return
@@ -235,11 +252,16 @@ export function assessReading(input: ReadingAssessmentInput): ReadingAssessment 
   const low = inTargetUnit(input.low)
   const high = inTargetUnit(input.high)
   const verdict: Verdict = reading < low ? 'low' : reading > high ? 'high' : 'in-limits'
-  const accuracy = input.gaugeAccuracy ? pressureDifferenceToPascal(input.gaugeAccuracy.value, input.gaugeAccuracy.unit) / pressureDifferenceToPascal(1, target.unit) : 0
+  const accuracy = input.gaugeAccuracy
+    ? pressureDifferenceToPascal(input.gaugeAccuracy.value, input.gaugeAccuracy.unit)
+    / pressureDifferenceToPascal(1, target.unit)
+    : 0
   const nearLimit = accuracy > 0 && (Math.abs(reading - low) <= accuracy || Math.abs(reading - high) <= accuracy)
   const warnings: string[] = []
   if (nearLimit) {
-    warnings.push(`The reading is within the gauge accuracy (±${accuracy.toFixed(1)} ${target.unit}) of a limit: the verdict could go either way on this gauge.`)
+    warnings.push(
+      `The reading is within the gauge accuracy (±${accuracy.toFixed(1)} ${target.unit}) of a limit: the verdict could go either way on this gauge.`,
+    )
   }
   return {
     verdict,

@@ -4,11 +4,25 @@ import { EngineInputError } from './errors'
 import { formatPressure } from './format'
 import { describeModel, gasLaw, stateAt } from './gas-law'
 import type {
-  Ambient, GasModel, Interval, IntervalUnit, Pressure, Provenance, Temperature, Tolerance, Volume, VolumeUnit,
+  Ambient,
+  GasModel,
+  Interval,
+  IntervalUnit,
+  Pressure,
+  Provenance,
+  Temperature,
+  Tolerance,
+  Volume,
+  VolumeUnit,
 } from './types'
 import {
-  cubicMetresToVolume, intervalToSeconds, pascalAbsoluteToPressure, pressureToPascalAbsolute,
-  secondsToInterval, temperatureToKelvin, volumeToCubicMetres,
+  cubicMetresToVolume,
+  intervalToSeconds,
+  pascalAbsoluteToPressure,
+  pressureToPascalAbsolute,
+  secondsToInterval,
+  temperatureToKelvin,
+  volumeToCubicMetres,
 } from './units'
 import { ENGINE_VERSION } from './version'
 
@@ -25,14 +39,21 @@ export interface CycleConditions {
 }
 
 /** A volume per minute, in a volume unit. */
-export interface FlowRate { value: number, unit: `${VolumeUnit}/min` }
+export interface FlowRate {
+  value: number
+  unit: `${VolumeUnit}/min`
+}
 
 /**
  * Fluid the accumulator gives up as the pressure falls from cut-out to cut-in. The fall is
  * slow, so the gas expands isothermally at the check temperature (Boyle's law for the ideal
  * model, the nitrogen equation of state for the real one).
  */
-function fluidBetweenCutOutAndCutIn(input: CycleConditions): { releasedM3: number, warnings: string[], method: string } {
+function fluidBetweenCutOutAndCutIn(input: CycleConditions): {
+  releasedM3: number
+  warnings: string[]
+  method: string
+} {
   const law = gasLaw(input.model ?? 'real')
   const ambientPa = ambientPressure(input.ambient)
   const prechargePa = pressureToPascalAbsolute(input.precharge, ambientPa)
@@ -44,21 +65,29 @@ function fluidBetweenCutOutAndCutIn(input: CycleConditions): { releasedM3: numbe
   law.checkInput(checkK, cutOutPa, 'cutOut')
   law.checkInput(checkK, cutInPa, 'cutIn')
   if (cutInPa >= cutOutPa) {
-    throw new EngineInputError(`The cut-in pressure (${formatPressure(input.cutIn)}) must be below the cut-out pressure (${formatPressure(input.cutOut)}).`, 'cutIn')
+    throw new EngineInputError(
+      `The cut-in pressure (${formatPressure(input.cutIn)}) must be below the cut-out pressure (${formatPressure(input.cutOut)}).`,
+      'cutIn',
+    )
   }
   const gasM3 = volumeToCubicMetres(input.gasVolume)
   if (!(gasM3 > 0)) throw new EngineInputError('The gas volume must be above zero.', 'gasVolume')
   const mass = stateAt(law, prechargePa, prechargeK).density * gasM3
   const prechargeNowPa = law.pressure(mass / gasM3, checkK)
   if (prechargeNowPa >= cutOutPa) {
-    throw new EngineInputError('At this temperature the pre-charge is at or above the cut-out pressure: the accumulator holds no fluid between cut-out and cut-in.', 'precharge')
+    throw new EngineInputError(
+      'At this temperature the pre-charge is at or above the cut-out pressure: the accumulator holds no fluid between cut-out and cut-in.',
+      'precharge',
+    )
   }
   const warnings: string[] = []
   const atCutOut = mass / law.density(cutOutPa, checkK)
   let atCutIn = mass / law.density(cutInPa, checkK)
   if (atCutIn > gasM3) {
     atCutIn = gasM3
-    warnings.push('The cut-in pressure is below the pre-charge at this temperature: the accumulator is empty of fluid before cut-in, so the leak rate is a lower bound.')
+    warnings.push(
+      'The cut-in pressure is below the pre-charge at this temperature: the accumulator is empty of fluid before cut-in, so the leak rate is a lower bound.',
+    )
   }
   return {
     releasedM3: atCutIn - atCutOut,
@@ -112,7 +141,7 @@ export function leakInterval(input: LeakIntervalInput): LeakIntervalResult {
   const { releasedM3, warnings, method } = fluidBetweenCutOutAndCutIn(input)
   return {
     fluidReleased: cubicMetresToVolume(releasedM3, input.gasVolume.unit),
-    interval: secondsToInterval(releasedM3 / perMinuteM3 * 60, input.intervalUnit ?? 'min'),
+    interval: secondsToInterval((releasedM3 / perMinuteM3) * 60, input.intervalUnit ?? 'min'),
     warnings,
     inputs: input,
     method,
@@ -186,9 +215,19 @@ function trendMethod(model: GasModel, reference: { temperature: Temperature }): 
  * for the ideal gas, the nitrogen equation of state for the real one), in the reference
  * pressure's unit and basis: what the gas would read at the reference temperature.
  */
-export function normalisePrechargeReading(reading: Pick<PrechargeReading, 'pressure' | 'temperature' | 'ambient'>, reference: { pressure: Pressure, temperature: Temperature }, model: GasModel = 'real', ambient?: Ambient): number {
+export function normalisePrechargeReading(
+  reading: Pick<PrechargeReading, 'pressure' | 'temperature' | 'ambient'>,
+  reference: { pressure: Pressure, temperature: Temperature },
+  model: GasModel = 'real',
+  ambient?: Ambient,
+): number {
   const atmosphere = reading.ambient ?? ambient
-  const carried = chargeTarget({ reference: { pressure: reading.pressure, temperature: reading.temperature }, gasTemperature: reference.temperature, ambient: atmosphere, model }).target
+  const carried = chargeTarget({
+    reference: { pressure: reading.pressure, temperature: reading.temperature },
+    gasTemperature: reference.temperature,
+    ambient: atmosphere,
+    model,
+  }).target
   return sameUnit(carried, reference.pressure, atmosphere)
 }
 
@@ -201,10 +240,24 @@ export function normalisePrechargeReading(reading: Pick<PrechargeReading, 'press
 export function prechargeTrend(input: PrechargeTrendInput): PrechargeTrendResult {
   const model = input.model ?? 'real'
   const points = input.readings.map((reading, index) => {
-    if (Number.isNaN(Date.parse(reading.takenAt))) throw new EngineInputError('A reading has no valid date.', `readings.${index}.takenAt`)
-    return { takenAt: reading.takenAt, value: normalisePrechargeReading(reading, input.reference, model, input.ambient), startsSegment: reading.startsSegment }
+    if (Number.isNaN(Date.parse(reading.takenAt)))
+      throw new EngineInputError('A reading has no valid date.', `readings.${index}.takenAt`)
+    return {
+      takenAt: reading.takenAt,
+      value: normalisePrechargeReading(reading, input.reference, model, input.ambient),
+      startsSegment: reading.startsSegment,
+    }
   })
-  return { ...fitPrechargeTrend({ points, reference: input.reference, tolerance: input.tolerance, ambient: input.ambient, model }), inputs: input }
+  return {
+    ...fitPrechargeTrend({
+      points,
+      reference: input.reference,
+      tolerance: input.tolerance,
+      ambient: input.ambient,
+      model,
+    }),
+    inputs: input,
+  }
 }
 
 /**
@@ -230,9 +283,20 @@ export function fitPrechargeTrend(input: PrechargeFitInput): PrechargeFit & Prov
     if (point.startsSegment && order > 0) segment++
     return { takenAt: point.takenAt, value: point.value, segment }
   })
-  const result: PrechargeFit & Provenance<PrechargeFitInput> = { normalised, inputs: input, method: trendMethod(model, reference), engineVersion: ENGINE_VERSION }
+  const result: PrechargeFit & Provenance<PrechargeFitInput> = {
+    normalised,
+    inputs: input,
+    method: trendMethod(model, reference),
+    engineVersion: ENGINE_VERSION,
+  }
   if (input.tolerance) {
-    const band = chargeTarget({ reference, gasTemperature: reference.temperature, tolerance: input.tolerance, ambient: input.ambient, model })
+    const band = chargeTarget({
+      reference,
+      gasTemperature: reference.temperature,
+      tolerance: input.tolerance,
+      ambient: input.ambient,
+      model,
+    })
     result.lowLimit = band.low!.value
     result.highLimit = band.high!.value
   }
@@ -279,7 +343,8 @@ export function fitPrechargeTrend(input: PrechargeFitInput): PrechargeFit & Prov
     const centreDay = latest.day / latest.n
     const crossingDay = centreDay + (result.lowLimit - latest.value / latest.n) / slope
     // Beyond fifty years a forecast says nothing useful (and leaves the range of a date).
-    if (crossingDay - centreDay < 50 * 365) result.predictedOutOfLimitsAt = new Date(origin + crossingDay * DAY_MS).toISOString()
+    if (crossingDay - centreDay < 50 * 365)
+      result.predictedOutOfLimitsAt = new Date(origin + crossingDay * DAY_MS).toISOString()
   }
   return result
 }

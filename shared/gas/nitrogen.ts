@@ -30,24 +30,23 @@ const INTERNAL_RANGE = { minKelvin: 130, maxKelvin: 1000, maxPascal: 100e6 } as 
 const LEAD_A1 = -12.76952708
 const LEAD_A2 = -0.00784163
 const LOG_TAU = 2.5
-const IDEAL_POWER_N = [-0.0001934819, -1.247742e-05, 6.678326e-08]
+const IDEAL_POWER_N = [-0.0001934819, -1.247742e-5, 6.678326e-8]
 const IDEAL_POWER_T = [-1, -2, -3]
 const PLANCK_N = 1.012941
 const PLANCK_THETA = 3364.011 / REDUCING_TEMPERATURE // v/Tcrit, multiplies τ
 
 // Residual part αʳ: power terms n·δ^d·τ^t·exp(−δ^l) (no exponential where l = 0)
 const POWER_N = [
-  0.924803575275, -0.492448489428, 0.661883336938, -1.92902649201, -0.0622469309629, 0.349943957581,
-  0.564857472498, -1.61720005987, -0.481395031883, 0.421150636384, -0.0161962230825, 0.172100994165,
-  0.00735448924933, 0.0168077305479, -0.00107626664179, -0.0137318088513, 0.000635466899859, 0.00304432279419,
-  -0.0435762336045, -0.0723174889316, 0.0389644315272, -0.021220136391, 0.00408822981509, -5.51990017984e-05,
-  -0.0462016716479, -0.00300311716011, 0.0368825891208, -0.0025585684622, 0.00896915264558, -0.0044151337035,
-  0.00133722924858, 0.000264832491957,
+  0.924803575275, -0.492448489428, 0.661883336938, -1.92902649201, -0.0622469309629, 0.349943957581, 0.564857472498,
+  -1.61720005987, -0.481395031883, 0.421150636384, -0.0161962230825, 0.172100994165, 0.00735448924933, 0.0168077305479,
+  -0.00107626664179, -0.0137318088513, 0.000635466899859, 0.00304432279419, -0.0435762336045, -0.0723174889316,
+  0.0389644315272, -0.021220136391, 0.00408822981509, -5.51990017984e-5, -0.0462016716479, -0.00300311716011,
+  0.0368825891208, -0.0025585684622, 0.00896915264558, -0.0044151337035, 0.00133722924858, 0.000264832491957,
 ]
 const POWER_D = [1, 1, 2, 2, 3, 3, 1, 1, 1, 3, 3, 4, 6, 6, 7, 7, 8, 8, 1, 2, 3, 4, 5, 8, 4, 5, 5, 8, 3, 5, 6, 9]
 const POWER_T = [
-  0.25, 0.875, 0.5, 0.875, 0.375, 0.75, 0.5, 0.75, 2, 1.25, 3.5, 1, 0.5, 3, 0, 2.75, 0.75, 2.5, 4, 6, 6, 3, 3, 6,
-  16, 11, 15, 12, 12, 7, 4, 16,
+  0.25, 0.875, 0.5, 0.875, 0.375, 0.75, 0.5, 0.75, 2, 1.25, 3.5, 1, 0.5, 3, 0, 2.75, 0.75, 2.5, 4, 6, 6, 3, 3, 6, 16,
+  11, 15, 12, 12, 7, 4, 16,
 ]
 const POWER_L = [0, 0, 0, 0, 0, 0, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 2, 2, 2, 2, 2, 2, 3, 3, 3, 3, 4, 4, 4, 4]
 
@@ -81,7 +80,12 @@ interface TauSlot {
   gaussSlope: Float64Array
 }
 
-const newSlot = (): TauSlot => ({ tau: Number.NaN, power: new Float64Array(POWER_COUNT), gauss: new Float64Array(GAUSS_COUNT), gaussSlope: new Float64Array(GAUSS_COUNT) })
+const newSlot = (): TauSlot => ({
+  tau: Number.NaN,
+  power: new Float64Array(POWER_COUNT),
+  gauss: new Float64Array(GAUSS_COUNT),
+  gaussSlope: new Float64Array(GAUSS_COUNT),
+})
 const tauSlots = [newSlot(), newSlot()]
 let lastSlot = 0
 
@@ -132,7 +136,11 @@ function prepareDelta(delta: number): void {
   }
 }
 
-export function residualHelmholtz(delta: number, tau: number, out: ResidualHelmholtz = { value: 0, d: 0, dd: 0, t: 0, tt: 0, dt: 0 }): ResidualHelmholtz {
+export function residualHelmholtz(
+  delta: number,
+  tau: number,
+  out: ResidualHelmholtz = { value: 0, d: 0, dd: 0, t: 0, tt: 0, dt: 0 },
+): ResidualHelmholtz {
   const slot = prepareTau(tau)
   prepareDelta(delta)
   const inverseDelta = 1 / delta
@@ -192,8 +200,8 @@ export function idealHelmholtz(delta: number, tau: number): { value: number, t: 
   }
   const e = Math.exp(PLANCK_THETA * tau)
   value += PLANCK_N * Math.log(1 - 1 / e)
-  t += PLANCK_N * PLANCK_THETA / (e - 1)
-  tt -= PLANCK_N * PLANCK_THETA * PLANCK_THETA * e / ((e - 1) * (e - 1))
+  t += (PLANCK_N * PLANCK_THETA) / (e - 1)
+  tt -= (PLANCK_N * PLANCK_THETA * PLANCK_THETA * e) / ((e - 1) * (e - 1))
   return { value, t, tt }
 }
 
@@ -273,7 +281,9 @@ export function lastDensityIterations(): number {
 export function nitrogenDensity(pressure: number, temperature: number, internal = true): number {
   checkState(temperature, pressure, internal)
   if (pressure > (internal ? INTERNAL_RANGE.maxPascal : REAL_GAS_INPUT_RANGE.maxPascal) * (1 + 1e-12)) {
-    throw new EngineInputError(`Gas pressure ${(pressure / 1e6).toFixed(2)} MPa absolute is above the real-gas range (50 MPa).`)
+    throw new EngineInputError(
+      `Gas pressure ${(pressure / 1e6).toFixed(2)} MPa absolute is above the real-gas range (50 MPa).`,
+    )
   }
   const tau = REDUCING_TEMPERATURE / temperature
   const rt = NITROGEN_GAS_CONSTANT * temperature
@@ -297,7 +307,9 @@ export function nitrogenDensity(pressure: number, temperature: number, internal 
     if (!(slope > 0) || !(next > low && next < high)) next = 0.5 * (low + high)
     density = next
   }
-  throw new EngineInputError(`The nitrogen density did not converge at ${(pressure / 1e6).toFixed(3)} MPa and ${(temperature - 273.15).toFixed(1)} °C.`)
+  throw new EngineInputError(
+    `The nitrogen density did not converge at ${(pressure / 1e6).toFixed(3)} MPa and ${(temperature - 273.15).toFixed(1)} °C.`,
+  )
 }
 
 /** Specific entropy s = R[τ(α⁰τ + αʳτ) − α⁰ − αʳ], J/(kg·K), with CoolProp's reference state. */
@@ -310,14 +322,17 @@ export function nitrogenEntropy(density: number, temperature: number): number {
 }
 
 /** Isochoric and isobaric heat capacities, J/(kg·K), and their ratio. */
-export function nitrogenHeatCapacities(density: number, temperature: number): { cv: number, cp: number, ratio: number } {
+export function nitrogenHeatCapacities(
+  density: number,
+  temperature: number,
+): { cv: number, cp: number, ratio: number } {
   const delta = density / REDUCING_DENSITY
   const tau = REDUCING_TEMPERATURE / temperature
   const ideal = idealHelmholtz(delta, tau)
   const r = residualHelmholtz(delta, tau, scratch)
   const cv = -NITROGEN_GAS_CONSTANT * tau * tau * (ideal.tt + r.tt)
   const numerator = 1 + delta * r.d - delta * tau * r.dt
-  const cp = cv + NITROGEN_GAS_CONSTANT * numerator * numerator / (1 + 2 * delta * r.d + delta * delta * r.dd)
+  const cp = cv + (NITROGEN_GAS_CONSTANT * numerator * numerator) / (1 + 2 * delta * r.d + delta * delta * r.dd)
   return { cv, cp, ratio: cp / cv }
 }
 
@@ -327,7 +342,11 @@ export function nitrogenCompressibility(density: number, temperature: number): n
 }
 
 /** Temperature (K) at which nitrogen of a given density has a given pressure (Newton on T, ∂p/∂T at constant ρ). */
-export function nitrogenTemperature(density: number, pressure: number, guess = pressure / (density * NITROGEN_GAS_CONSTANT)): number {
+export function nitrogenTemperature(
+  density: number,
+  pressure: number,
+  guess = pressure / (density * NITROGEN_GAS_CONSTANT),
+): number {
   let temperature = Math.min(Math.max(guess, INTERNAL_RANGE.minKelvin), INTERNAL_RANGE.maxKelvin)
   for (let iteration = 0; iteration < 60; iteration++) {
     const delta = density / REDUCING_DENSITY
@@ -347,7 +366,11 @@ export function nitrogenTemperature(density: number, pressure: number, guess = p
  * The isentropic (reversible adiabatic) change from (ρ₁, T₁) to pressure p₂: Newton on T with
  * ∂s/∂T at constant p = cp/T, starting from the ideal-gas estimate.
  */
-export function nitrogenIsentropicToPressure(density: number, temperature: number, pressure: number): { density: number, temperature: number } {
+export function nitrogenIsentropicToPressure(
+  density: number,
+  temperature: number,
+  pressure: number,
+): { density: number, temperature: number } {
   const entropy = nitrogenEntropy(density, temperature)
   const startPressure = nitrogenPressure(density, temperature)
   let t = temperature * Math.pow(pressure / startPressure, 0.4 / 1.4)
@@ -356,7 +379,7 @@ export function nitrogenIsentropicToPressure(density: number, temperature: numbe
     const rho = nitrogenDensity(pressure, t)
     const error = nitrogenEntropy(rho, t) - entropy
     const { cp } = nitrogenHeatCapacities(rho, t)
-    const next = t - error * t / cp
+    const next = t - (error * t) / cp
     checkState(next, pressure, true)
     if (Math.abs(next - t) < 1e-10 * t) return { density: nitrogenDensity(pressure, next), temperature: next }
     t = next
@@ -365,14 +388,18 @@ export function nitrogenIsentropicToPressure(density: number, temperature: numbe
 }
 
 /** The isentropic change from (ρ₁, T₁) to density ρ₂: Newton on T with ∂s/∂T at constant ρ = cv/T. */
-export function nitrogenIsentropicToDensity(density: number, temperature: number, targetDensity: number): { pressure: number, temperature: number } {
+export function nitrogenIsentropicToDensity(
+  density: number,
+  temperature: number,
+  targetDensity: number,
+): { pressure: number, temperature: number } {
   const entropy = nitrogenEntropy(density, temperature)
   let t = temperature * Math.pow(targetDensity / density, 0.4)
   t = Math.min(Math.max(t, INTERNAL_RANGE.minKelvin), INTERNAL_RANGE.maxKelvin)
   for (let iteration = 0; iteration < 60; iteration++) {
     const error = nitrogenEntropy(targetDensity, t) - entropy
     const { cv } = nitrogenHeatCapacities(targetDensity, t)
-    const next = t - error * t / cv
+    const next = t - (error * t) / cv
     checkState(next, targetDensity, true)
     if (Math.abs(next - t) < 1e-10 * t) return { pressure: nitrogenPressure(targetDensity, next), temperature: next }
     t = next
@@ -383,9 +410,15 @@ export function nitrogenIsentropicToDensity(density: number, temperature: number
 /** Rejects an input state outside −70 °C…+120 °C or above 50 MPa, naming the field. */
 export function assertRealGasInput(temperature: number, pressure: number, field: string): void {
   if (!(temperature >= REAL_GAS_INPUT_RANGE.minKelvin - 1e-9 && temperature <= REAL_GAS_INPUT_RANGE.maxKelvin + 1e-9)) {
-    throw new EngineInputError(`${(temperature - 273.15).toFixed(1)} °C is outside the real-gas range (−70 °C to +120 °C).`, field)
+    throw new EngineInputError(
+      `${(temperature - 273.15).toFixed(1)} °C is outside the real-gas range (−70 °C to +120 °C).`,
+      field,
+    )
   }
   if (!(pressure > 0) || pressure > REAL_GAS_INPUT_RANGE.maxPascal * (1 + 1e-12)) {
-    throw new EngineInputError(`${(pressure / 1e6).toFixed(2)} MPa absolute is outside the real-gas range (above 0 up to 50 MPa).`, field)
+    throw new EngineInputError(
+      `${(pressure / 1e6).toFixed(2)} MPa absolute is outside the real-gas range (above 0 up to 50 MPa).`,
+      field,
+    )
   }
 }

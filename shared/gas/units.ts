@@ -1,7 +1,15 @@
 import convert from 'convert-units'
 import type {
-  Elevation, Interval, IntervalUnit, Pressure, PressureBasis, PressureUnit, Temperature,
-  TemperatureUnit, Volume, VolumeUnit,
+  Elevation,
+  Interval,
+  IntervalUnit,
+  Pressure,
+  PressureBasis,
+  PressureUnit,
+  Temperature,
+  TemperatureUnit,
+  Volume,
+  VolumeUnit,
 } from './types'
 
 /**
@@ -41,7 +49,12 @@ export function pressureToPascalAbsolute(pressure: Pressure, ambientPa: number):
   return pressure.basis === 'gauge' ? pascals + ambientPa : pascals
 }
 
-export function pascalAbsoluteToPressure(pascals: number, unit: PressureUnit, basis: PressureBasis, ambientPa: number): Pressure {
+export function pascalAbsoluteToPressure(
+  pascals: number,
+  unit: PressureUnit,
+  basis: PressureBasis,
+  ambientPa: number,
+): Pressure {
   const shown = basis === 'gauge' ? pascals - ambientPa : pascals
   return { value: shown / PASCALS_PER[unit], unit, basis }
 }
@@ -85,12 +98,12 @@ export function secondsToInterval(seconds: number, unit: IntervalUnit): Interval
 
 /** The same pressure in another unit, keeping its basis (no ambient pressure needed). */
 export function convertPressure(pressure: Pressure, unit: PressureUnit): Pressure {
-  return { value: pressure.value * PASCALS_PER[pressure.unit] / PASCALS_PER[unit], unit, basis: pressure.basis }
+  return { value: (pressure.value * PASCALS_PER[pressure.unit]) / PASCALS_PER[unit], unit, basis: pressure.basis }
 }
 
 /** A pressure difference (tolerance, accuracy) in another unit. */
 export function convertPressureDifference(value: number, from: PressureUnit, to: PressureUnit): number {
-  return value * PASCALS_PER[from] / PASCALS_PER[to]
+  return (value * PASCALS_PER[from]) / PASCALS_PER[to]
 }
 
 /** A temperature in another unit. */
@@ -100,10 +113,10 @@ export function convertTemperature(temperature: Temperature, unit: TemperatureUn
 
 /** A barometer reading in hectopascals (QFE) as the engine's absolute ambient pressure; 1 hPa = 100 Pa. */
 export function stationPressureFromHectopascals(hectopascals: number): Pressure {
-  return { value: hectopascals * 100 / PASCALS_PER.kPa, unit: 'kPa', basis: 'absolute' }
+  return { value: (hectopascals * 100) / PASCALS_PER.kPa, unit: 'kPa', basis: 'absolute' }
 }
 
 /** An absolute pressure as a barometer reading in hectopascals. */
 export function pressureToHectopascals(pressure: Pressure): number {
-  return pressure.value * PASCALS_PER[pressure.unit] / 100
+  return (pressure.value * PASCALS_PER[pressure.unit]) / 100
 }

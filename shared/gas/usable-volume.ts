@@ -2,12 +2,23 @@ import { ambientPressure, describeAmbient } from './atmosphere'
 import { EngineInputError } from './errors'
 import { formatPressure } from './format'
 import {
-  changeToDensity, changeToPressure, describeModel, describeProcess, gasLaw, stateAt,
-  stateAtTemperature, type GasLaw, type GasState,
+  changeToDensity,
+  changeToPressure,
+  describeModel,
+  describeProcess,
+  gasLaw,
+  stateAt,
+  stateAtTemperature,
+  type GasLaw,
+  type GasState,
 } from './gas-law'
 import type { Ambient, GasModel, Pressure, Process, Provenance, Temperature, Volume, VolumeUnit } from './types'
 import {
-  cubicMetresToVolume, kelvinToTemperature, pascalAbsoluteToPressure, pressureToPascalAbsolute, temperatureToKelvin,
+  cubicMetresToVolume,
+  kelvinToTemperature,
+  pascalAbsoluteToPressure,
+  pressureToPascalAbsolute,
+  temperatureToKelvin,
   volumeToCubicMetres,
 } from './units'
 import { ENGINE_VERSION } from './version'
@@ -113,7 +124,10 @@ function sizeSi(si: SiConditions): SiOutcome {
   const filled = stateAt(law, si.prechargePa, si.prechargeK)
   const operating = stateAtTemperature(law, filled, si.operatingK)
   if (operating.pressure >= si.maxPa) {
-    throw new EngineInputError('At the operating temperature the pre-charge reaches the maximum working pressure: no fluid would enter the accumulator.', 'precharge')
+    throw new EngineInputError(
+      'At the operating temperature the pre-charge reaches the maximum working pressure: no fluid would enter the accumulator.',
+      'precharge',
+    )
   }
   const atMax = changeToPressure(law, si.charge, operating, si.maxPa)
   let atMin = changeToPressure(law, si.discharge, atMax, si.minPa)
@@ -124,7 +138,15 @@ function sizeSi(si: SiConditions): SiOutcome {
   }
   const atMaxFraction = filled.density / atMax.density
   const atMinFraction = filled.density / atMin.density
-  return { atMaxFraction, atMinFraction, usableFraction: atMinFraction - atMaxFraction, operating, atMax, atMin, bottomOut }
+  return {
+    atMaxFraction,
+    atMinFraction,
+    usableFraction: atMinFraction - atMaxFraction,
+    operating,
+    atMax,
+    atMin,
+    bottomOut,
+  }
 }
 
 function methodText(si: SiConditions, ambient?: Ambient): string {
@@ -160,20 +182,27 @@ export function usableVolume(input: UsableVolumeInput): UsableVolumeResult {
     engineVersion: ENGINE_VERSION,
   }
   if (outcome.operating.pressure > si.minPa) {
-    warnings.push(`The pre-charge at operating temperature (${formatPressure(result.prechargeAtOperatingTemperature)}) is above the minimum working pressure (${formatPressure(input.minPressure)}).`)
+    warnings.push(
+      `The pre-charge at operating temperature (${formatPressure(result.prechargeAtOperatingTemperature)}) is above the minimum working pressure (${formatPressure(input.minPressure)}).`,
+    )
   }
   if (outcome.bottomOut) {
     result.bottomOutPressure = showPressure(outcome.bottomOut.pressure, input.minPressure)
-    warnings.push(`The separator bottoms out at ${formatPressure(result.bottomOutPressure)}, before the pressure falls to the minimum: the gas volume at minimum is the full gas volume.`)
+    warnings.push(
+      `The separator bottoms out at ${formatPressure(result.bottomOutPressure)}, before the pressure falls to the minimum: the gas volume at minimum is the full gas volume.`,
+    )
   }
   if (input.perApplication) {
     const perM3 = volumeToCubicMetres(input.perApplication)
     if (!(perM3 > 0)) throw new EngineInputError('The volume per application must be above zero.', 'perApplication')
-    const applications = Math.floor(usableM3 / perM3 * (1 + 1e-12) + 1e-12)
+    const applications = Math.floor((usableM3 / perM3) * (1 + 1e-12) + 1e-12)
     result.applications = applications
     const afterM3 = outcome.atMaxFraction * gasM3 + applications * perM3
     const filledDensity = outcome.atMax.density * outcome.atMaxFraction
-    const after = applications === 0 ? outcome.atMax : changeToDensity(si.law, si.discharge, outcome.atMax, filledDensity * gasM3 / afterM3)
+    const after
+      = applications === 0
+        ? outcome.atMax
+        : changeToDensity(si.law, si.discharge, outcome.atMax, (filledDensity * gasM3) / afterM3)
     result.residualPressure = showPressure(after.pressure, input.minPressure)
   }
   return result
@@ -208,13 +237,23 @@ export function requiredVolume(input: RequiredVolumeInput): RequiredVolumeResult
     unit = input.perApplication.unit
   }
   else {
-    throw new EngineInputError('Give either a usable volume, or a number of applications with a volume per application.', 'usable')
+    throw new EngineInputError(
+      'Give either a usable volume, or a number of applications with a volume per application.',
+      'usable',
+    )
   }
-  if (!(neededM3 > 0)) throw new EngineInputError('The volume to deliver must be above zero.', input.usable ? 'usable' : 'applications')
+  if (!(neededM3 > 0))
+    throw new EngineInputError('The volume to deliver must be above zero.', input.usable ? 'usable' : 'applications')
   const outcome = sizeSi(si)
   const gasVolume = cubicMetresToVolume(neededM3 / outcome.usableFraction, unit)
   const check = usableVolume({ ...input, gasVolume })
-  return { gasVolume, check, inputs: input, method: `inverse of the usable volume; ${methodText(si, input.ambient)}`, engineVersion: ENGINE_VERSION }
+  return {
+    gasVolume,
+    check,
+    inputs: input,
+    method: `inverse of the usable volume; ${methodText(si, input.ambient)}`,
+    engineVersion: ENGINE_VERSION,
+  }
 }
 
 export interface OptimumPrechargeInput extends Omit<SizingConditions, 'precharge'> {
@@ -289,7 +328,9 @@ export interface EnvelopeInput extends Omit<UsableVolumeInput, 'operatingTempera
 }
 
 export interface EnvelopeResult extends Provenance<EnvelopeInput> {
-  rows: ({ label?: string, temperature: Temperature } & ({ result: UsableVolumeResult } | { error: string, field?: string }))[]
+  rows: ({ label?: string, temperature: Temperature } & (
+    { result: UsableVolumeResult } | { error: string, field?: string }
+  ))[]
 }
 
 /** The usable-volume calculation at each temperature of an envelope (cold soak, standard day, hot day …). */
@@ -304,7 +345,12 @@ export function usableVolumeEnvelope(input: EnvelopeInput): EnvelopeResult {
       throw error
     }
   })
-  return { rows, inputs: input, method: 'usable volume at each temperature of the envelope', engineVersion: ENGINE_VERSION }
+  return {
+    rows,
+    inputs: input,
+    method: 'usable volume at each temperature of the envelope',
+    engineVersion: ENGINE_VERSION,
+  }
 }
 
 /**
@@ -317,7 +363,11 @@ export const COMPRESSION_RATIO_LIMITS = { bladder: 4, diaphragm: 8, piston: 10 }
 export type AccumulatorKind = keyof typeof COMPRESSION_RATIO_LIMITS
 
 /** Warnings on the compression ratio for an accumulator type (common practice limits). */
-export function compressionRatioWarnings(result: UsableVolumeResult, kind: AccumulatorKind | undefined, ambient?: Ambient): string[] {
+export function compressionRatioWarnings(
+  result: UsableVolumeResult,
+  kind: AccumulatorKind | undefined,
+  ambient?: Ambient,
+): string[] {
   if (!kind) return []
   const ambientPa = ambientPressure(ambient)
   const maxPa = pressureToPascalAbsolute(result.inputs.maxPressure, ambientPa)
@@ -325,7 +375,9 @@ export function compressionRatioWarnings(result: UsableVolumeResult, kind: Accum
   const ratio = maxPa / prechargePa
   const limit = COMPRESSION_RATIO_LIMITS[kind]
   if (ratio <= limit) return []
-  return [`Compression ratio ${ratio.toFixed(1)}:1 (maximum pressure to pre-charge, absolute) is beyond the usual ${limit}:1 for a ${kind} accumulator (common practice; the maker's limits govern).`]
+  return [
+    `Compression ratio ${ratio.toFixed(1)}:1 (maximum pressure to pre-charge, absolute) is beyond the usual ${limit}:1 for a ${kind} accumulator (common practice; the maker's limits govern).`,
+  ]
 }
 
 export interface DischargeCurveInput extends UsableVolumeInput {
@@ -356,15 +408,21 @@ export function dischargeCurve(input: DischargeCurveInput): DischargeCurveResult
   const mass = outcome.atMax.density * outcome.atMaxFraction * gasM3
   const pressureAt = (deliveredM3: number) => {
     if (deliveredM3 === 0) return outcome.atMax.pressure
-    const state = changeToDensity(si.law, si.discharge, outcome.atMax, mass / (outcome.atMaxFraction * gasM3 + deliveredM3))
+    const state = changeToDensity(
+      si.law,
+      si.discharge,
+      outcome.atMax,
+      mass / (outcome.atMaxFraction * gasM3 + deliveredM3),
+    )
     return state.pressure
   }
-  const show = (pa: number) => pascalAbsoluteToPressure(pa, input.minPressure.unit, input.minPressure.basis, si.ambientPa).value
+  const show = (pa: number) =>
+    pascalAbsoluteToPressure(pa, input.minPressure.unit, input.minPressure.basis, si.ambientPa).value
   const usableM3 = outcome.usableFraction * gasM3
   const delivered: number[] = []
   const pressure: number[] = []
   for (let i = 0; i < count; i++) {
-    const deliveredM3 = usableM3 * i / (count - 1)
+    const deliveredM3 = (usableM3 * i) / (count - 1)
     delivered.push(cubicMetresToVolume(deliveredM3, unit).value)
     pressure.push(show(pressureAt(deliveredM3)))
   }
@@ -372,10 +430,20 @@ export function dischargeCurve(input: DischargeCurveInput): DischargeCurveResult
   if (input.perApplication) {
     const perM3 = volumeToCubicMetres(input.perApplication)
     for (let n = 1; n * perM3 <= usableM3 * (1 + 1e-12) && n <= 500; n++) {
-      applications.push({ delivered: cubicMetresToVolume(n * perM3, unit).value, pressure: show(pressureAt(n * perM3)) })
+      applications.push({
+        delivered: cubicMetresToVolume(n * perM3, unit).value,
+        pressure: show(pressureAt(n * perM3)),
+      })
     }
   }
-  return { delivered, pressure, applications, inputs: input, method: `discharge ${describeProcess(si.discharge, si.law.model)} from the maximum pressure; ${describeModel(si.law.model)}`, engineVersion: ENGINE_VERSION }
+  return {
+    delivered,
+    pressure,
+    applications,
+    inputs: input,
+    method: `discharge ${describeProcess(si.discharge, si.law.model)} from the maximum pressure; ${describeModel(si.law.model)}`,
+    engineVersion: ENGINE_VERSION,
+  }
 }
 
 export interface PrechargeSweepInput extends Omit<UsableVolumeInput, 'precharge'> {
@@ -402,7 +470,7 @@ export function prechargeSweep(input: PrechargeSweepInput): PrechargeSweepResult
   const precharge: number[] = []
   const usable: number[] = []
   for (let i = 0; i < count; i++) {
-    const pa = maxPa * (0.2 + 0.8 * i / (count - 1)) * (i === count - 1 ? 0.999 : 1)
+    const pa = maxPa * (0.2 + (0.8 * i) / (count - 1)) * (i === count - 1 ? 0.999 : 1)
     const stated = pascalAbsoluteToPressure(pa, like.unit, like.basis, ambientPa)
     precharge.push(stated.value)
     try {
@@ -414,5 +482,12 @@ export function prechargeSweep(input: PrechargeSweepInput): PrechargeSweepResult
     }
   }
   const optimum = optimumPrecharge({ ...input, prechargeUnit: like })
-  return { precharge, usable, optimum: { precharge: optimum.precharge, usableVolume: optimum.usableVolume }, inputs: input, method: `usable volume at each pre-charge; ${optimum.method}`, engineVersion: ENGINE_VERSION }
+  return {
+    precharge,
+    usable,
+    optimum: { precharge: optimum.precharge, usableVolume: optimum.usableVolume },
+    inputs: input,
+    method: `usable volume at each pre-charge; ${optimum.method}`,
+    engineVersion: ENGINE_VERSION,
+  }
 }

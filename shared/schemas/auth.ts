@@ -64,5 +64,3 @@ export const preferencesSchema = z.object({
     }, { message: 'Station elevation must lie between −610 m and 11 000 m (−2000 ft and 36 000 ft).', path: ['value'] }),
   stationName: z.string().trim().max(60),
 })
-
-export const idParamsSchema = z.object({ id: z.coerce.number({ invalid_type_error: 'The id must be a number.' }).int().positive().max(2_147_483_647, 'Not a known id.') })

@@ -1,8 +1,17 @@
 import { z, type ZodRawShape } from 'zod'
 import './plain-words'
 import {
-  ambientSchema, gasModelSchema, intervalSchema, numberField, pressureSchema, pressureUnitSchema, processSchema, temperatureSchema,
-  toleranceSchema, volumeSchema, volumeUnitSchema,
+  ambientSchema,
+  gasModelSchema,
+  intervalSchema,
+  numberField,
+  pressureSchema,
+  pressureUnitSchema,
+  processSchema,
+  temperatureSchema,
+  toleranceSchema,
+  volumeSchema,
+  volumeUnitSchema,
 } from './quantities'
 
 /**
@@ -15,7 +24,10 @@ function calculationBody<Shape extends ZodRawShape>(shape: Shape) {
 }
 
 export const chargeTargetSchema = calculationBody({
-  reference: z.object({ pressure: pressureSchema, temperature: temperatureSchema }, { required_error: 'Enter the reference pre-charge and temperature.' }),
+  reference: z.object(
+    { pressure: pressureSchema, temperature: temperatureSchema },
+    { required_error: 'Enter the reference pre-charge and temperature.' },
+  ),
   gasTemperature: temperatureSchema,
   ambient: ambientSchema.optional(),
   model: gasModelSchema.optional(),
@@ -24,7 +36,9 @@ export const chargeTargetSchema = calculationBody({
 export type ChargeTargetBody = z.infer<typeof chargeTargetSchema>
 
 export const tableTargetSchema = calculationBody({
-  points: z.array(z.object({ temperature: temperatureSchema, pressure: pressureSchema })).min(2, 'A table needs at least two points.'),
+  points: z
+    .array(z.object({ temperature: temperatureSchema, pressure: pressureSchema }))
+    .min(2, 'A table needs at least two points.'),
   gasTemperature: temperatureSchema,
   ambient: ambientSchema.optional(),
   tolerance: toleranceSchema.optional(),
@@ -59,11 +73,20 @@ export type UsableVolumeBody = z.infer<typeof usableVolumeSchema>
 export const requiredVolumeSchema = calculationBody({
   ...sizingConditions,
   usable: volumeSchema.optional(),
-  applications: z.number({ invalid_type_error: 'Must be a whole number.' }).int('Must be a whole number.').positive('At least one application.').max(10000).optional(),
+  applications: z
+    .number({ invalid_type_error: 'Must be a whole number.' })
+    .int('Must be a whole number.')
+    .positive('At least one application.')
+    .max(10000)
+    .optional(),
 }).superRefine((body, context) => {
   if (body.usable) return
   if (body.applications === undefined) {
-    context.addIssue({ code: 'custom', path: ['usable'], message: 'Give a usable volume, or a number of applications with a volume per application.' })
+    context.addIssue({
+      code: 'custom',
+      path: ['usable'],
+      message: 'Give a usable volume, or a number of applications with a volume per application.',
+    })
   }
   else if (!body.perApplication) {
     context.addIssue({ code: 'custom', path: ['perApplication'], message: 'Give the volume per application.' })
@@ -80,7 +103,10 @@ export const envelopeSchema = calculationBody({
   gasVolume: volumeSchema,
   ...sizingConditions,
   operatingTemperature: z.undefined({ invalid_type_error: 'Give the temperatures in `temperatures`.' }).optional(),
-  temperatures: z.array(z.object({ label: z.string().max(40).optional(), temperature: temperatureSchema })).min(1, 'Give at least one temperature.').max(12, 'At most 12 temperatures.'),
+  temperatures: z
+    .array(z.object({ label: z.string().max(40).optional(), temperature: temperatureSchema }))
+    .min(1, 'Give at least one temperature.')
+    .max(12, 'At most 12 temperatures.'),
 })
 
 const cycleConditions = {
@@ -99,7 +125,10 @@ export type LeakRateBody = z.infer<typeof leakRateSchema>
 
 export const leakIntervalSchema = calculationBody({
   ...cycleConditions,
-  leakRate: z.object({ value: numberField('a leak rate').positive('The leak rate must be above zero.'), unit: volumeUnitSchema }),
+  leakRate: z.object({
+    value: numberField('a leak rate').positive('The leak rate must be above zero.'),
+    unit: volumeUnitSchema,
+  }),
   intervalUnit: z.enum(['s', 'min', 'h']).optional(),
 })
 

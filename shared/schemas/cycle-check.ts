@@ -67,14 +67,3 @@ export const cycleCheckQuerySchema = z.object({
   page: z.coerce.number().int().min(1).max(100_000, 'At most page 100000.').default(1),
   pageSize: z.coerce.number().int().min(1).max(500).default(50),
 }).strict()
-
-export const trendQuerySchema = z.object({
-  type: z.string().max(60).optional(),
-  base: z.string().max(60).optional(),
-  position: z.string().max(80).optional(),
-  partNumber: z.string().max(60).optional(),
-  flagged: z.enum(['true', 'false']).transform(value => value === 'true').optional(),
-}).strict()
-
-/** For routes that take no query parameters: any given is refused, like unknown body fields. */
-export const noQuerySchema = z.object({}).strict()

@@ -13,4 +13,35 @@ export interface InstalledUnitDto {
 }
 
 /** The values the fleet's filters offer, read from the register. */
-export interface FleetOptions { types: string[], bases: string[] }
+export interface FleetOptions {
+  types: string[]
+  bases: string[]
+}
+
+/** An aircraft as the fleet register lists it. */
+export interface AircraftDto {
+  id: number
+  registration: string
+  fleetNumber: string
+  type: string
+  base: string
+  active: boolean
+}
+
+/** One unit with where it has been and its latest worksheets (`GET /api/accumulators/:id`). */
+export interface UnitDetailDto extends InstalledUnitDto {
+  installations: {
+    aircraft: string
+    position: string
+    installedAt: string
+    removedAt: string | null
+    removalReason: string | null
+  }[]
+  worksheets: {
+    id: number
+    state: import('./worksheet').WorksheetState
+    workOrder: string
+    performedAt: string | null
+    asFoundVerdict: string | null
+  }[]
+}

@@ -3,7 +3,10 @@ import type { GasModel, PressureBasis, PressureUnit, TemperatureUnit, VolumeUnit
 export const ACCUMULATOR_TYPES = ['piston', 'bladder', 'diaphragm'] as const
 export type AccumulatorType = (typeof ACCUMULATOR_TYPES)[number]
 
-/** `gas-law`: the engine carries the reference pre-charge to temperature; `table`: the approved data's points are interpolated. */
+/**
+ * `gas-law`: the engine carries the reference pre-charge to temperature; `table`: the approved data's points are
+ * interpolated.
+ */
 export const CORRECTION_METHODS = ['gas-law', 'table'] as const
 export type CorrectionMethod = (typeof CORRECTION_METHODS)[number]
 

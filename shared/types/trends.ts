@@ -6,12 +6,24 @@ import type { UnitTrendFlag } from '../utils/trend-flags'
 export interface UnitTrendDto {
   accumulator: { id: number, partNumber: string, serialNumber: string, position: string | null }
   aircraft: { id: number, registration: string, type: string, base: string } | null
-  specification: { id: number, partNumber: string, revision: string, pressureUnit: string, pressureBasis: string } | null
+  specification: {
+    id: number
+    partNumber: string
+    revision: string
+    pressureUnit: string
+    pressureBasis: string
+  } | null
   /** The fit and its points, carried to `reference`. */
   trend: (PrechargeFit & { reference: { pressure: Pressure, temperature: Temperature } }) | null
   flag: UnitTrendFlag
   /** Each released service: as-found and as-left carried to the reference temperature. */
-  services: { worksheetId: number, performedAt: string, asFound: number | null, asLeft: number | null, action: string }[]
+  services: {
+    worksheetId: number
+    performedAt: string
+    asFound: number | null
+    asLeft: number | null
+    action: string
+  }[]
 }
 
 /** One row of the fleet ranking (`GET /api/trends/precharge`). */
@@ -46,7 +58,12 @@ export interface CycleCheckDto {
   checkedAt: string
   intervalSeconds: number
   inputs: import('../schemas/cycle-check').CycleCheckBody
-  results: { fluidReleased: { value: number, unit: string }, leakRate: { value: number, unit: string }, warnings: string[], method: string }
+  results: {
+    fluidReleased: { value: number, unit: string }
+    leakRate: { value: number, unit: string }
+    warnings: string[]
+    method: string
+  }
   engineVersion: string
   recordedById: number
   withdrawnAt: string | null

@@ -1,8 +1,18 @@
 import type { WorksheetState } from './worksheet'
 
 /** A worksheet as Home lists it. */
-export interface WorkItem { id: number, workOrder: string, registration: string | null, position: string | null, state: WorksheetState, at: string }
-export interface WorkPile { count: number, items: WorkItem[] }
+export interface WorkItem {
+  id: number
+  workOrder: string
+  registration: string | null
+  position: string | null
+  state: WorksheetState
+  at: string
+}
+export interface WorkPile {
+  count: number
+  items: WorkItem[]
+}
 
 /** What waits for the signed-in user, by what their roles do (`GET /api/me/work`). */
 export interface HomeWork {

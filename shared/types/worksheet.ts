@@ -33,11 +33,27 @@ export interface WorksheetContent {
   accumulator: { id: number, partNumber: string, serialNumber: string, position: string }
   preparation?: Partial<Record<PreparationCheck, string>>
   tools?: { gauge: ToolSnapshot, cart: ToolSnapshot }
-  conditions?: { gasTemperature: Temperature, temperatureMethod: 'ambient-shade' | 'shell', minutesSinceOperated: number, ambient: Ambient }
+  conditions?: {
+    gasTemperature: Temperature
+    temperatureMethod: 'ambient-shade' | 'shell'
+    minutesSinceOperated: number
+    ambient: Ambient
+  }
   asFound?: { reading: Pressure, recordedAt: string }
   action?: { kind: 'none' | 'charge' | 'vent', recordedAt: string }
-  asLeft?: { reading: Pressure, gasTemperature: Temperature, recordedAt: string, /** Confirmed by the technician: moved with no action recorded. */ confirmedUnchanged?: boolean }
-  finish?: { valveLeakCheck: boolean, capFitted: boolean, remarks: string, unserviceableReference: string | null, recordedAt: string }
+  asLeft?: {
+    reading: Pressure
+    gasTemperature: Temperature
+    recordedAt: string
+    /** Confirmed by the technician: moved with no action recorded. */ confirmedUnchanged?: boolean
+  }
+  finish?: {
+    valveLeakCheck: boolean
+    capFitted: boolean
+    remarks: string
+    unserviceableReference: string | null
+    recordedAt: string
+  }
 }
 
 export interface WorksheetResults {
@@ -49,17 +65,30 @@ export const PREPARATION_CHECKS = ['systemDepressurised', 'aircraftSafe', 'eyePr
 export type PreparationCheck = (typeof PREPARATION_CHECKS)[number]
 
 export const PREPARATION_LABELS: Record<PreparationCheck, string> = {
-  systemDepressurised: 'Hydraulic system depressurised: system gauge reads zero (the pre-charge cannot be read otherwise)',
+  systemDepressurised:
+    'Hydraulic system depressurised: system gauge reads zero (the pre-charge cannot be read otherwise)',
   aircraftSafe: 'Aircraft made safe for maintenance (controls, gear and doors as the approved data requires)',
   eyeProtection: 'Eye protection on',
   nitrogenOnly: 'Nitrogen only: dry, oil-free nitrogen — never oxygen or shop air',
 }
 
-export const WORKSHEET_STEPS = ['identify', 'preparation', 'tools', 'conditions', 'asFound', 'action', 'asLeft', 'finish', 'sign'] as const
+export const WORKSHEET_STEPS = [
+  'identify',
+  'preparation',
+  'tools',
+  'conditions',
+  'asFound',
+  'action',
+  'asLeft',
+  'finish',
+  'sign',
+] as const
 export type WorksheetStep = (typeof WORKSHEET_STEPS)[number]
 
-export const PERFORMER_STATEMENT = 'I certify that the servicing recorded here was carried out in accordance with the approved maintenance data, and that the readings are the ones I took.'
-export const INSPECTOR_STATEMENT = 'I certify that I have independently inspected the work recorded here, that I did not perform it, and that I found it satisfactory.'
+export const PERFORMER_STATEMENT
+  = 'I certify that the servicing recorded here was carried out in accordance with the approved maintenance data, and that the readings are the ones I took.'
+export const INSPECTOR_STATEMENT
+  = 'I certify that I have independently inspected the work recorded here, that I did not perform it, and that I found it satisfactory.'
 
 export interface SignatureDto {
   capacity: 'performer' | 'inspector'

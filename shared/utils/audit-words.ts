@@ -12,40 +12,70 @@ export interface AuditEventDto {
   text: string
 }
 
-const roles = (value: unknown) => Array.isArray(value) && value.length ? value.map(role => ROLE_LABELS[role as Role] ?? String(role)).join(', ') : 'no role'
+const roles = (value: unknown) =>
+  Array.isArray(value) && value.length
+    ? value.map(role => ROLE_LABELS[role as Role] ?? String(role)).join(', ')
+    : 'no role'
 const RECORD: Record<string, string> = {
-  'worksheet': 'worksheet', 'specification': 'specification', 'tool': 'tool', 'user': 'user', 'aircraft': 'aircraft', 'accumulator': 'accumulator', 'cycle-check': 'cycle check',
+  'worksheet': 'worksheet',
+  'specification': 'specification',
+  'tool': 'tool',
+  'user': 'user',
+  'aircraft': 'aircraft',
+  'accumulator': 'accumulator',
+  'cycle-check': 'cycle check',
 }
 
 /**
  * An audit entry in words: "changed the roles of Rowan Hale from Technician to Technician,
  * Inspector". `subject` names the record where it has a name (a user's name).
  */
-export function describeAuditEvent(event: { entity: string, entityId: string, action: string, detail: Record<string, unknown> }, subject?: string | null): string {
+export function describeAuditEvent(
+  event: { entity: string, entityId: string, action: string, detail: Record<string, unknown> },
+  subject?: string | null,
+): string {
   const what = `${RECORD[event.entity] ?? event.entity} ${subject ?? event.entityId}`
   const detail = event.detail
   switch (`${event.entity}:${event.action}`) {
-    case 'user:roles-changed': return `changed the roles of ${subject ?? `user ${event.entityId}`} from ${roles(detail.from)} to ${roles(detail.to)}`
-    case 'user:disabled': return `disabled the account of ${subject ?? `user ${event.entityId}`}`
-    case 'user:enabled': return `enabled the account of ${subject ?? `user ${event.entityId}`}`
-    case 'user:created': return `created the account of ${subject ?? `user ${event.entityId}`} with the roles ${roles(detail.roles)}`
-    case 'user:password-reset': return `reset the password of ${subject ?? `user ${event.entityId}`}`
+    case 'user:roles-changed':
+      return `changed the roles of ${subject ?? `user ${event.entityId}`} from ${roles(detail.from)} to ${roles(detail.to)}`
+    case 'user:disabled':
+      return `disabled the account of ${subject ?? `user ${event.entityId}`}`
+    case 'user:enabled':
+      return `enabled the account of ${subject ?? `user ${event.entityId}`}`
+    case 'user:created':
+      return `created the account of ${subject ?? `user ${event.entityId}`} with the roles ${roles(detail.roles)}`
+    case 'user:password-reset':
+      return `reset the password of ${subject ?? `user ${event.entityId}`}`
     case 'user:updated': {
-      const changes = Object.entries((detail.changes ?? {}) as Record<string, { from?: unknown, to?: unknown } | unknown>)
-      return `changed ${changes.map(([field, change]) => typeof change === 'object' && change && 'to' in change ? `${field} to "${String(change.to ?? '')}"` : field).join(', ') || 'the details'} of ${subject ?? `user ${event.entityId}`}`
+      const changes = Object.entries(
+        (detail.changes ?? {}) as Record<string, { from?: unknown, to?: unknown } | unknown>,
+      )
+      return `changed ${changes.map(([field, change]) => (typeof change === 'object' && change && 'to' in change ? `${field} to "${String(change.to ?? '')}"` : field)).join(', ') || 'the details'} of ${subject ?? `user ${event.entityId}`}`
     }
-    case 'worksheet:started': return `started ${what}`
-    case 'worksheet:correction-started': return `started ${what} as a correction of worksheet ${String(detail.correctsId)}`
-    case 'worksheet:step-saved': return `saved the ${String(detail.step)} step of ${what}`
-    case 'worksheet:signed': return `signed ${what} as performer`
-    case 'worksheet:countersigned': return `countersigned ${what}; it is released`
-    case 'worksheet:returned': return `returned ${what}: ${String(detail.reason ?? '')}`
-    case 'worksheet:voided': return `voided ${what}: ${String(detail.reason ?? '')}`
-    case 'worksheet:discarded': return `discarded the draft ${what}`
-    case 'cycle-check:withdrawn': return `withdrew ${what}: ${String(detail.reason ?? '')}`
-    case 'system:seeded': return 'loaded the demo data'
+    case 'worksheet:started':
+      return `started ${what}`
+    case 'worksheet:correction-started':
+      return `started ${what} as a correction of worksheet ${String(detail.correctsId)}`
+    case 'worksheet:step-saved':
+      return `saved the ${String(detail.step)} step of ${what}`
+    case 'worksheet:signed':
+      return `signed ${what} as performer`
+    case 'worksheet:countersigned':
+      return `countersigned ${what}; it is released`
+    case 'worksheet:returned':
+      return `returned ${what}: ${String(detail.reason ?? '')}`
+    case 'worksheet:voided':
+      return `voided ${what}: ${String(detail.reason ?? '')}`
+    case 'worksheet:discarded':
+      return `discarded the draft ${what}`
+    case 'cycle-check:withdrawn':
+      return `withdrew ${what}: ${String(detail.reason ?? '')}`
+    case 'system:seeded':
+      return 'loaded the demo data'
     default:
-      if (event.action === 'integrity-baseline') return `vouched for the content of ${what} as it stood when the audit trail began to hash records`
+      if (event.action === 'integrity-baseline')
+        return `vouched for the content of ${what} as it stood when the audit trail began to hash records`
       return `${event.action.replace(/-/g, ' ')} — ${what}`
   }
 }

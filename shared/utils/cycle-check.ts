@@ -7,7 +7,20 @@ import { specificationPressure } from './specification-target'
  * The fluid leak rate a cycle check implies, from the system accumulator's gas volume and
  * pre-charge (its specification), isothermal at the fluid temperature.
  */
-export function cycleCheckLeakRate(body: CycleCheckBody, specification: Pick<SpecificationDto, 'gasVolume' | 'gasVolumeUnit' | 'referencePressure' | 'pressureUnit' | 'pressureBasis' | 'referenceTemperature' | 'referenceTemperatureUnit' | 'gasModel'>): LeakRateResult {
+export function cycleCheckLeakRate(
+  body: CycleCheckBody,
+  specification: Pick<
+    SpecificationDto,
+    | 'gasVolume'
+    | 'gasVolumeUnit'
+    | 'referencePressure'
+    | 'pressureUnit'
+    | 'pressureBasis'
+    | 'referenceTemperature'
+    | 'referenceTemperatureUnit'
+    | 'gasModel'
+  >,
+): LeakRateResult {
   return leakRate({
     gasVolume: { value: specification.gasVolume, unit: specification.gasVolumeUnit },
     precharge: specificationPressure(specification, specification.referencePressure),
@@ -39,10 +52,15 @@ export interface CycleTrend {
 export const BASELINE_CHECKS = 3
 
 /** The interval trend of one system against its own baseline (the mean of its first checks). */
-export function cycleTrend(base: Omit<CycleTrend, 'baselineSeconds' | 'latestSeconds' | 'drop' | 'flagged' | 'message'>, dropShare: number): CycleTrend {
+export function cycleTrend(
+  base: Omit<CycleTrend, 'baselineSeconds' | 'latestSeconds' | 'drop' | 'flagged' | 'message'>,
+  dropShare: number,
+): CycleTrend {
   const sorted = [...base.checks].sort((a, b) => Date.parse(a.checkedAt) - Date.parse(b.checkedAt))
   const baselineChecks = sorted.slice(0, BASELINE_CHECKS)
-  const baselineSeconds = baselineChecks.length ? baselineChecks.reduce((total, check) => total + check.intervalSeconds, 0) / baselineChecks.length : null
+  const baselineSeconds = baselineChecks.length
+    ? baselineChecks.reduce((total, check) => total + check.intervalSeconds, 0) / baselineChecks.length
+    : null
   const latest = sorted.length > BASELINE_CHECKS ? sorted.at(-1)! : null
   const drop = baselineSeconds && latest ? 1 - latest.intervalSeconds / baselineSeconds : null
   const flagged = drop !== null && drop > dropShare

@@ -33,7 +33,10 @@ function numberFormat(locale: string, options: Intl.NumberFormatOptions): Intl.N
   return found
 }
 
-export interface DisplaySettings { locale: string, timeZone: string }
+export interface DisplaySettings {
+  locale: string
+  timeZone: string
+}
 
 const DATE: Intl.DateTimeFormatOptions = { day: 'numeric', month: 'short', year: 'numeric' }
 const TIME: Intl.DateTimeFormatOptions = { hour: '2-digit', minute: '2-digit' }
@@ -41,22 +44,31 @@ const TIME: Intl.DateTimeFormatOptions = { hour: '2-digit', minute: '2-digit' }
 /** One way of writing dates and times for every page, the PDF and e-mail. */
 export function displayFormat(settings: DisplaySettings) {
   const { locale, timeZone } = settings
-  const valid = (value: string | Date | null | undefined): value is string | Date => !!value && !Number.isNaN(new Date(value).getTime())
+  const valid = (value: string | Date | null | undefined): value is string | Date =>
+    !!value && !Number.isNaN(new Date(value).getTime())
   return {
     /** An instant as a date at the station: "2 Dec 2026". */
-    date: (value: string | Date | null | undefined) => valid(value) ? formatter(locale, timeZone, DATE).format(new Date(value)) : '—',
+    date: (value: string | Date | null | undefined) =>
+      valid(value) ? formatter(locale, timeZone, DATE).format(new Date(value)) : '—',
     /** An instant as date and time at the station: "2 Dec 2026, 14:05". */
-    dateTime: (value: string | Date | null | undefined) => valid(value) ? formatter(locale, timeZone, { ...DATE, ...TIME }).format(new Date(value)) : '—',
+    dateTime: (value: string | Date | null | undefined) =>
+      valid(value) ? formatter(locale, timeZone, { ...DATE, ...TIME }).format(new Date(value)) : '—',
     /** An instant as a time of day at the station: "14:05". */
-    time: (value: string | Date | null | undefined) => valid(value) ? formatter(locale, timeZone, TIME).format(new Date(value)) : '—',
-    /** A calendar date that is already the station's (YYYY-MM-DD, e.g. a calibration due date), written the same way, never shifted. */
-    day: (value: string | null | undefined) => value && /^\d{4}-\d{2}-\d{2}/.test(value)
-      ? formatter(locale, 'UTC', DATE).format(new Date(`${value.slice(0, 10)}T12:00:00Z`))
-      : '—',
+    time: (value: string | Date | null | undefined) =>
+      valid(value) ? formatter(locale, timeZone, TIME).format(new Date(value)) : '—',
+    /**
+     * A calendar date that is already the station's (YYYY-MM-DD, e.g. a calibration due date), written the same
+     * way, never shifted.
+     */
+    day: (value: string | null | undefined) =>
+      value && /^\d{4}-\d{2}-\d{2}/.test(value)
+        ? formatter(locale, 'UTC', DATE).format(new Date(`${value.slice(0, 10)}T12:00:00Z`))
+        : '—',
     /** A plain figure with a fixed number of decimals, in the user's locale. */
-    decimal: (value: number | null | undefined, decimals = 1) => typeof value === 'number' && Number.isFinite(value)
-      ? numberFormat(locale, { minimumFractionDigits: decimals, maximumFractionDigits: decimals }).format(value)
-      : '—',
+    decimal: (value: number | null | undefined, decimals = 1) =>
+      typeof value === 'number' && Number.isFinite(value)
+        ? numberFormat(locale, { minimumFractionDigits: decimals, maximumFractionDigits: decimals }).format(value)
+        : '—',
     /** A count: "100,000". */
     count: (value: number) => numberFormat(locale, { maximumFractionDigits: 0 }).format(value),
   }

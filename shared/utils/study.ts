@@ -1,7 +1,13 @@
 import { EngineInputError } from '../gas/errors'
 import {
-  compressionRatioWarnings, dischargeCurve, prechargeSweep, requiredVolume, usableVolume,
-  type DischargeCurveResult, type PrechargeSweepResult, type UsableVolumeResult,
+  compressionRatioWarnings,
+  dischargeCurve,
+  prechargeSweep,
+  requiredVolume,
+  usableVolume,
+  type DischargeCurveResult,
+  type PrechargeSweepResult,
+  type UsableVolumeResult,
 } from '../gas/usable-volume'
 import type { Volume } from '../gas/types'
 import { ENGINE_VERSION } from '../gas/version'
@@ -44,30 +50,70 @@ export function computeStudy(input: StudyInput): StudyResults {
       result.warnings.push(...compressionRatioWarnings(result, accumulatorType, conditions.ambient))
       const { delivered, pressure, applications } = dischargeCurve({ ...at, points: 40 })
       const { gasVolume: _gasVolume, ...withoutVolume } = at
-      const { precharge, usable, optimum } = prechargeSweep({ ...withoutVolume, gasVolume: conditions.gasVolume, prechargeUnit: { unit: conditions.precharge.unit, basis: conditions.precharge.basis }, points: 40 })
+      const { precharge, usable, optimum } = prechargeSweep({
+        ...withoutVolume,
+        gasVolume: conditions.gasVolume,
+        prechargeUnit: { unit: conditions.precharge.unit, basis: conditions.precharge.basis },
+        points: 40,
+      })
       let required: StudyRow['required']
       if (inverse?.usable || (inverse?.applications && conditions.perApplication)) {
-        const answer = requiredVolume({ ...withoutVolume, ...(inverse.usable ? { usable: inverse.usable } : { applications: inverse.applications }) })
+        const answer = requiredVolume({
+          ...withoutVolume,
+          ...(inverse.usable ? { usable: inverse.usable } : { applications: inverse.applications }),
+        })
         required = { gasVolume: answer.gasVolume, applications: answer.check.applications }
       }
-      const verdict = inverse?.applications && result.applications !== undefined
-        ? { required: inverse.applications, delivered: result.applications, meets: result.applications >= inverse.applications }
-        : undefined
-      return { label, temperature, result, curve: { delivered, pressure, applications }, sweep: { precharge, usable, optimum }, required, verdict }
+      const verdict
+        = inverse?.applications && result.applications !== undefined
+          ? {
+              required: inverse.applications,
+              delivered: result.applications,
+              meets: result.applications >= inverse.applications,
+            }
+          : undefined
+      return {
+        label,
+        temperature,
+        result,
+        curve: { delivered, pressure, applications },
+        sweep: { precharge, usable, optimum },
+        required,
+        verdict,
+      }
     }
     catch (error) {
-      if (error instanceof EngineInputError && error.field !== 'minPressure' && error.field !== 'precharge') return { label, temperature, error: error.message }
+      if (error instanceof EngineInputError && error.field !== 'minPressure' && error.field !== 'precharge')
+        return { label, temperature, error: error.message }
       throw error
     }
   })
-  return { rows, verdict: envelopeVerdict(rows, inverse?.applications), method: rows.find(row => row.result)?.result?.method ?? '', engineVersion: ENGINE_VERSION }
+  return {
+    rows,
+    verdict: envelopeVerdict(rows, inverse?.applications),
+    method: rows.find(row => row.result)?.result?.method ?? '',
+    engineVersion: ENGINE_VERSION,
+  }
 }
 
 /** Meets the requirement only if every temperature of the envelope does (a row that could not be computed does not). */
 function envelopeVerdict(rows: StudyRow[], required: number | undefined): StudyResults['verdict'] {
   if (!required) return undefined
   const short = rows.filter(row => !row.verdict?.meets)
-  if (short.length === 0) return { required, meets: true, message: `Meets the requirement: at least ${required} full applications at every temperature of the envelope.` }
-  const where = short.map(row => row.verdict ? `${row.label} (${row.verdict.delivered} of ${required})` : `${row.label} (not computed)`).join(', ')
-  return { required, meets: false, message: `Short of ${required} full applications at ${where}. A larger gas volume or other limits are needed; the gas volume each temperature needs is shown beside it.` }
+  if (short.length === 0)
+    return {
+      required,
+      meets: true,
+      message: `Meets the requirement: at least ${required} full applications at every temperature of the envelope.`,
+    }
+  const where = short
+    .map(row =>
+      row.verdict ? `${row.label} (${row.verdict.delivered} of ${required})` : `${row.label} (not computed)`,
+    )
+    .join(', ')
+  return {
+    required,
+    meets: false,
+    message: `Short of ${required} full applications at ${where}. A larger gas volume or other limits are needed; the gas volume each temperature needs is shown beside it.`,
+  }
 }

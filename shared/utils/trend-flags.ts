@@ -28,17 +28,23 @@ const SIGNIFICANCE = 2
 export function assessUnitTrend(trend: Omit<PrechargeFit, 'normalised'>, settings: UnitTrendSettings): UnitTrendFlag {
   const loss = trend.lossRatePerDay === undefined ? null : -trend.lossRatePerDay
   const error = trend.lossRateStandardError ?? 0
-  const nextCheckAt = settings.lastServiceAt && settings.checkIntervalDays
-    ? new Date(Date.parse(settings.lastServiceAt) + settings.checkIntervalDays * 86_400_000).toISOString()
-    : null
+  const nextCheckAt
+    = settings.lastServiceAt && settings.checkIntervalDays
+      ? new Date(Date.parse(settings.lastServiceAt) + settings.checkIntervalDays * 86_400_000).toISOString()
+      : null
   const reasons: string[] = []
-  const clearLoss = loss !== null && loss > 0 && (trend.fit?.degreesOfFreedom ?? 0) > 0 ? loss - SIGNIFICANCE * error : null
+  const clearLoss
+    = loss !== null && loss > 0 && (trend.fit?.degreesOfFreedom ?? 0) > 0 ? loss - SIGNIFICANCE * error : null
   if (clearLoss !== null && clearLoss > 0) {
     if (settings.lossThresholdPerDay !== null && clearLoss > settings.lossThresholdPerDay) {
-      reasons.push(`Losing ${loss!.toFixed(2)} ± ${error.toFixed(2)} a day, above the alert threshold of ${settings.lossThresholdPerDay} a day.`)
+      reasons.push(
+        `Losing ${loss!.toFixed(2)} ± ${error.toFixed(2)} a day, above the alert threshold of ${settings.lossThresholdPerDay} a day.`,
+      )
     }
     if (trend.predictedOutOfLimitsAt && nextCheckAt && trend.predictedOutOfLimitsAt < nextCheckAt) {
-      reasons.push(`Predicted below the band on ${trend.predictedOutOfLimitsAt.slice(0, 10)}, before the next scheduled check (${nextCheckAt.slice(0, 10)}).`)
+      reasons.push(
+        `Predicted below the band on ${trend.predictedOutOfLimitsAt.slice(0, 10)}, before the next scheduled check (${nextCheckAt.slice(0, 10)}).`,
+      )
     }
   }
   return { flagged: reasons.length > 0, reasons, nextCheckAt, lossPerDay: loss }

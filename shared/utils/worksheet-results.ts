@@ -30,9 +30,19 @@ export function assessWorksheetReading(
 ): AssessmentSummary {
   const target = specificationChargeTarget(specification, gasTemperature, ambient)
   const gaugeAccuracy = gauge?.accuracy
-    ? { value: convertPressureDifference(gauge.accuracy.value, gauge.accuracy.unit, target.target.unit), unit: target.target.unit }
+    ? {
+        value: convertPressureDifference(gauge.accuracy.value, gauge.accuracy.unit, target.target.unit),
+        unit: target.target.unit,
+      }
     : undefined
-  const assessment = assessReading({ reading, target: target.target, low: target.low!, high: target.high!, gaugeAccuracy, ambient })
+  const assessment = assessReading({
+    reading,
+    target: target.target,
+    low: target.low!,
+    high: target.high!,
+    gaugeAccuracy,
+    ambient,
+  })
   return {
     gasTemperature,
     target: target.target,
@@ -40,7 +50,13 @@ export function assessWorksheetReading(
     high: target.high!,
     ambientPressure: target.ambientPressure,
     method: target.method,
-    assessment: { verdict: assessment.verdict, difference: assessment.difference, outsideBy: assessment.outsideBy, nearLimit: assessment.nearLimit, warnings: assessment.warnings },
+    assessment: {
+      verdict: assessment.verdict,
+      difference: assessment.difference,
+      outsideBy: assessment.outsideBy,
+      nearLimit: assessment.nearLimit,
+      warnings: assessment.warnings,
+    },
     engineVersion: target.engineVersion,
   }
 }

@@ -9,7 +9,39 @@ import { fillWorksheet, finishAndSign, unitAt } from '../support/worksheet-flow'
 
 const cookies = {} as Record<keyof typeof DEMO, string>
 // The smallest valid PNG signature and header are enough for recognition by content.
-const png = (marker: number) => new Uint8Array([0x89, 0x50, 0x4E, 0x47, 0x0D, 0x0A, 0x1A, 0x0A, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0, 1, 0, 0, 0, 1, 8, 2, 0, 0, 0, marker])
+const png = (marker: number) =>
+  new Uint8Array([
+    0x89,
+    0x50,
+    0x4e,
+    0x47,
+    0x0d,
+    0x0a,
+    0x1a,
+    0x0a,
+    0,
+    0,
+    0,
+    13,
+    0x49,
+    0x48,
+    0x44,
+    0x52,
+    0,
+    0,
+    0,
+    1,
+    0,
+    0,
+    0,
+    1,
+    8,
+    2,
+    0,
+    0,
+    0,
+    marker,
+  ])
 
 beforeAll(async () => {
   for (const [name, email] of Object.entries(DEMO)) cookies[name as keyof typeof DEMO] = await signIn(email)
@@ -22,25 +54,63 @@ describe('replacing and removing a photo', () => {
     const fields = { worksheetId: String(flow.id), kind: 'gauge-photo' }
     const first = await upload('/api/attachments', fields, { name: 'blurred.png', bytes: png(1) }, cookies.technician)
     expect(first.status).toBe(201)
-    const replaced = await upload('/api/attachments', { ...fields, replacesId: String(first.body.id) }, { name: 'sharp.png', bytes: png(2) }, cookies.technician)
+    const replaced = await upload(
+      '/api/attachments',
+      { ...fields, replacesId: String(first.body.id) },
+      { name: 'sharp.png', bytes: png(2) },
+      cookies.technician,
+    )
     expect(replaced.status).toBe(201)
     let worksheet = (await api(`/api/worksheets/${flow.id}`, { cookie: cookies.technician })).body
-    expect(worksheet.attachments.map((attachment: { originalName: string }) => attachment.originalName)).toEqual(['sharp.png'])
-    const served = new Uint8Array(await (await fetch(`${baseURL()}/api/attachments/${replaced.body.id}`, { headers: { cookie: cookies.engineer! } })).arrayBuffer())
+    expect(worksheet.attachments.map((attachment: { originalName: string }) => attachment.originalName)).toEqual([
+      'sharp.png',
+    ])
+    const served = new Uint8Array(
+      await (
+        await fetch(`${baseURL()}/api/attachments/${replaced.body.id}`, { headers: { cookie: cookies.engineer! } })
+      ).arrayBuffer(),
+    )
     expect(served.at(-1)).toBe(2)
     expect((await api(`/api/attachments/${first.body.id}`, { cookie: cookies.engineer })).status).toBe(404)
     // Not an attachment of this worksheet: refused on the field.
-    expect((await upload('/api/attachments', { ...fields, replacesId: '999999' }, { name: 'x.png', bytes: png(3) }, cookies.technician)).status).toBe(404)
+    expect(
+      (
+        await upload(
+          '/api/attachments',
+          { ...fields, replacesId: '999999' },
+          { name: 'x.png', bytes: png(3) },
+          cookies.technician,
+        )
+      ).status,
+    ).toBe(404)
 
-    const extra = await upload('/api/attachments', { ...fields, kind: 'certificate' }, { name: 'extra.png', bytes: png(4) }, cookies.technician)
-    expect((await api(`/api/attachments/${extra.body.id}`, { method: 'DELETE', cookie: cookies.lead })).status).toBe(403)
+    const extra = await upload(
+      '/api/attachments',
+      { ...fields, kind: 'certificate' },
+      { name: 'extra.png', bytes: png(4) },
+      cookies.technician,
+    )
+    expect((await api(`/api/attachments/${extra.body.id}`, { method: 'DELETE', cookie: cookies.lead })).status).toBe(
+      403,
+    )
     const removed = await api(`/api/attachments/${extra.body.id}`, { method: 'DELETE', cookie: cookies.technician })
     expect(removed.status).toBe(200)
     expect(removed.body.attachments).toHaveLength(1)
 
     expect((await finishAndSign(cookies.technician, flow)).status).toBe(200)
-    expect((await api(`/api/attachments/${replaced.body.id}`, { method: 'DELETE', cookie: cookies.technician })).status).toBe(409)
-    expect((await upload('/api/attachments', { ...fields, replacesId: String(replaced.body.id) }, { name: 'late.png', bytes: png(5) }, cookies.technician)).status).toBe(409)
+    expect(
+      (await api(`/api/attachments/${replaced.body.id}`, { method: 'DELETE', cookie: cookies.technician })).status,
+    ).toBe(409)
+    expect(
+      (
+        await upload(
+          '/api/attachments',
+          { ...fields, replacesId: String(replaced.body.id) },
+          { name: 'late.png', bytes: png(5) },
+          cookies.technician,
+        )
+      ).status,
+    ).toBe(409)
     worksheet = (await api(`/api/worksheets/${flow.id}`, { cookie: cookies.technician })).body
     expect(worksheet.attachments).toHaveLength(1)
     const verify = await api('/api/audit/verify', { cookie: cookies.admin })

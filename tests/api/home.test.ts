@@ -26,7 +26,11 @@ describe('what waits for each user', () => {
     expect(inspector.drafts).toBeUndefined()
     // The lead holds both roles: their own signed work is not in their countersign queue.
     const lead = (await api('/api/me/work', { cookie: cookies.lead })).body
-    expect(lead.toCountersign.items.every((item: { id: number }) => !lead.submitted.items.some((own: { id: number }) => own.id === item.id))).toBe(true)
+    expect(
+      lead.toCountersign.items.every(
+        (item: { id: number }) => !lead.submitted.items.some((own: { id: number }) => own.id === item.id),
+      ),
+    ).toBe(true)
   })
 
   it('an engineer sees the open trend alerts; an admin the tools out of calibration', async () => {
@@ -41,7 +45,8 @@ describe('what waits for each user', () => {
 
   it('installed units carry the open alerts a technician must be told about', async () => {
     const leaking = await unitAt(cookies.technician, 'QX-FMC', /Normal brake/)
-    const units = (await api('/api/accumulators?installed=true&pageSize=500', { cookie: cookies.technician })).body.items
+    const units = (await api('/api/accumulators?installed=true&pageSize=500', { cookie: cookies.technician })).body
+      .items
     expect(units.find((unit: { id: number }) => unit.id === leaking.id).alerts.join(' ')).toMatch(/QX-FMC/)
   })
 })
@@ -52,22 +57,64 @@ describe('discarding a draft', () => {
     const flow = await fillWorksheet(cookies.technician, unit.id)
     expect((await api(`/api/worksheets/${flow.id}/discard`, { cookie: cookies.lead, body: {} })).status).toBe(403)
     expect((await api(`/api/worksheets/${flow.id}/discard`, { cookie: cookies.inspector, body: {} })).status).toBe(403)
-    const discarded = await api(`/api/worksheets/${flow.id}/discard`, { cookie: cookies.technician, body: { reason: 'Started on the wrong unit.' } })
+    const discarded = await api(`/api/worksheets/${flow.id}/discard`, {
+      cookie: cookies.technician,
+      body: { reason: 'Started on the wrong unit.' },
+    })
     expect(discarded.status).toBe(200)
-    expect(discarded.body).toMatchObject({ state: 'voided', voidReason: 'Discarded by the performer before signing: Started on the wrong unit.' })
-    expect((await api(`/api/worksheets/${flow.id}`, { method: 'PATCH', cookie: cookies.technician, body: { step: 'action', kind: 'none' } })).status).toBe(409)
+    expect(discarded.body).toMatchObject({
+      state: 'voided',
+      voidReason: 'Discarded by the performer before signing: Started on the wrong unit.',
+    })
+    expect(
+      (
+        await api(`/api/worksheets/${flow.id}`, {
+          method: 'PATCH',
+          cookie: cookies.technician,
+          body: { step: 'action', kind: 'none' },
+        })
+      ).status,
+    ).toBe(409)
     expect((await api(`/api/worksheets/${flow.id}/discard`, { cookie: cookies.technician, body: {} })).status).toBe(409)
   })
 })
 
 describe('the audit view', () => {
   it('says in words who changed whose roles, and who disabled an account', async () => {
-    const users = (await api('/api/admin/users', { cookie: cookies.admin })).body as { id: number, email: string, roles: string[] }[]
+    const users = (await api('/api/admin/users', { cookie: cookies.admin })).body as {
+      id: number
+      email: string
+      roles: string[]
+    }[]
     const engineer = users.find(user => user.email === DEMO.engineer)!
-    expect((await api(`/api/admin/users/${engineer.id}`, { method: 'PATCH', cookie: cookies.admin, body: { roles: ['engineer', 'inspector'] } })).status).toBe(200)
-    const events = (await api('/api/audit/events?entity=user', { cookie: cookies.admin })).body.items as { actor: string, text: string, action: string }[]
-    expect(events[0]).toMatchObject({ actor: 'Nell Abara', action: 'roles-changed', text: 'changed the roles of Sol Varga from Engineer to Engineer, Inspector' })
-    expect((await api(`/api/admin/users/${engineer.id}`, { method: 'PATCH', cookie: cookies.admin, body: { roles: ['engineer'] } })).status).toBe(200)
+    expect(
+      (
+        await api(`/api/admin/users/${engineer.id}`, {
+          method: 'PATCH',
+          cookie: cookies.admin,
+          body: { roles: ['engineer', 'inspector'] },
+        })
+      ).status,
+    ).toBe(200)
+    const events = (await api('/api/audit/events?entity=user', { cookie: cookies.admin })).body.items as {
+      actor: string
+      text: string
+      action: string
+    }[]
+    expect(events[0]).toMatchObject({
+      actor: 'Nell Abara',
+      action: 'roles-changed',
+      text: 'changed the roles of Sol Varga from Engineer to Engineer, Inspector',
+    })
+    expect(
+      (
+        await api(`/api/admin/users/${engineer.id}`, {
+          method: 'PATCH',
+          cookie: cookies.admin,
+          body: { roles: ['engineer'] },
+        })
+      ).status,
+    ).toBe(200)
     // (Sol Varga's sessions ended with the role change.)
     expect((await api('/api/audit/events', { cookie: cookies.inspector })).status).toBe(403)
     expect((await api('/api/audit/events?entity=nothing', { cookie: cookies.admin })).status).toBe(400)
@@ -77,7 +124,10 @@ describe('the audit view', () => {
 describe('filter options come from the data', () => {
   it('lists the fleet\'s types and bases as the register holds them', async () => {
     const options = (await api('/api/aircraft/options', { cookie: cookies.technician })).body
-    const aircraft = (await api('/api/aircraft?pageSize=500', { cookie: cookies.technician })).body.items as { type: string, base: string }[]
+    const aircraft = (await api('/api/aircraft?pageSize=500', { cookie: cookies.technician })).body.items as {
+      type: string
+      base: string
+    }[]
     expect(options.types).toEqual([...new Set(aircraft.map(row => row.type))].sort())
     expect(options.bases).toEqual([...new Set(aircraft.map(row => row.base))].sort())
   })

@@ -50,7 +50,9 @@ describe('the sign-in lockout under parallel guessing', () => {
 
   it('a network address is stopped after 30 failures across accounts, even for a right password', async () => {
     // 5 failures (first test) + 8 (second) so far from this address; 17 more reach 30.
-    const spread = await Promise.all(Array.from({ length: 17 }, (_, index) => login(`spread-${index}@chargewell.test`, 'guess')))
+    const spread = await Promise.all(
+      Array.from({ length: 17 }, (_, index) => login(`spread-${index}@chargewell.test`, 'guess')),
+    )
     expect(statusCounts(spread)).toEqual({ 401: 17 })
     const right = await login(DEMO.technician, DEMO_PASSWORD)
     expect(right.status).toBe(429)
@@ -58,16 +60,23 @@ describe('the sign-in lockout under parallel guessing', () => {
   })
 })
 
-function rawPost(path: string, headers: Record<string, string>, write: (body: NodeJS.WritableStream) => void): Promise<{ status: number, text: string }> {
+function rawPost(
+  path: string,
+  headers: Record<string, string>,
+  write: (body: NodeJS.WritableStream) => void,
+): Promise<{ status: number, text: string }> {
   return new Promise((done, fail) => {
     const url = new URL(path, baseURL())
-    const outgoing = request({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers }, (incoming) => {
-      let text = ''
-      incoming.on('data', (chunk) => {
-        text += chunk
-      })
-      incoming.on('end', () => done({ status: incoming.statusCode ?? 0, text }))
-    })
+    const outgoing = request(
+      { host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers },
+      (incoming) => {
+        let text = ''
+        incoming.on('data', (chunk) => {
+          text += chunk
+        })
+        incoming.on('end', () => done({ status: incoming.statusCode ?? 0, text }))
+      },
+    )
     outgoing.on('error', fail)
     write(outgoing)
   })
@@ -76,32 +85,45 @@ function rawPost(path: string, headers: Record<string, string>, write: (body: No
 describe('body limits and numbers JSON should not carry', () => {
   it('refuses an anonymous 50 MB sign-in body with 413, unread', async () => {
     const started = performance.now()
-    const answer = await rawPost('/api/auth/login', { 'content-type': 'application/json', 'content-length': String(50 * 1024 * 1024) }, (body) => {
-      body.write('{"email":"')
-      // Only a little is sent: the server answers on the declared length alone.
-      setTimeout(() => body.end(), 200)
-    })
+    const answer = await rawPost(
+      '/api/auth/login',
+      { 'content-type': 'application/json', 'content-length': String(50 * 1024 * 1024) },
+      (body) => {
+        body.write('{"email":"')
+        // Only a little is sent: the server answers on the declared length alone.
+        setTimeout(() => body.end(), 200)
+      },
+    )
     expect(answer.status).toBe(413)
     expect(performance.now() - started).toBeLessThan(5000)
   })
 
   it('refuses a chunked body over the limit as it arrives', async () => {
-    const answer = await rawPost('/api/calc/charge-target', { 'content-type': 'application/json', 'transfer-encoding': 'chunked', 'cookie': await signIn(DEMO.inspector) }, (body) => {
-      const chunk = 'x'.repeat(64 * 1024)
-      for (let index = 0; index < 8; index++) body.write(chunk)
-      body.end()
-    })
+    const answer = await rawPost(
+      '/api/calc/charge-target',
+      { 'content-type': 'application/json', 'transfer-encoding': 'chunked', 'cookie': await signIn(DEMO.inspector) },
+      (body) => {
+        const chunk = 'x'.repeat(64 * 1024)
+        for (let index = 0; index < 8; index++) body.write(chunk)
+        body.end()
+      },
+    )
     expect(answer.status).toBe(413)
     expect(JSON.parse(answer.text).message).toMatch(/larger than this route accepts/)
   })
 
   it('refuses 1e999 as a gauge range with 400 naming the field, and a 999,999 psi as-found', async () => {
     const admin = await signIn(DEMO.admin)
-    const tools = (await api('/api/tools?kind=gauge', { cookie: admin })).body.items as { id: number, assetNumber: string }[]
+    const tools = (await api('/api/tools?kind=gauge', { cookie: admin })).body.items as {
+      id: number
+      assetNumber: string
+    }[]
     const gauge = tools.find(tool => tool.assetNumber === 'GA-0141')!
     const infinite = await api(`/api/tools/${gauge.id}`, { method: 'PATCH', cookie: admin, raw: '{"rangeMax":1e999}' })
     expect(infinite.status).toBe(400)
-    expect(infinite.body.data.issues).toEqual([expect.objectContaining({ field: 'rangeMax', message: 'Must be an ordinary finite number.' })])
+    expect(infinite.body.data.issues).toEqual([
+      expect.objectContaining({ field: 'rangeMax', message: 'Must be an ordinary finite number.' }),
+    ])
     const removed = await api(`/api/tools/${gauge.id}`, { method: 'PATCH', cookie: admin, body: { rangeMax: null } })
     expect(removed.status).toBe(400)
     expect(removed.body.message).toMatch(/A gauge needs its range/)
@@ -109,7 +131,11 @@ describe('body limits and numbers JSON should not carry', () => {
     const technician = await signIn(DEMO.technician)
     const unit = await unitAt(technician, 'QX-FMJ', /System 1/)
     const flow = await fillWorksheet(technician, unit.id)
-    const huge = await api(`/api/worksheets/${flow.id}`, { method: 'PATCH', cookie: technician, body: { step: 'asFound', reading: { value: 999_999, unit: 'psi', basis: 'gauge' } } })
+    const huge = await api(`/api/worksheets/${flow.id}`, {
+      method: 'PATCH',
+      cookie: technician,
+      body: { step: 'asFound', reading: { value: 999_999, unit: 'psi', basis: 'gauge' } },
+    })
     expect(huge.status).toBe(422)
     expect(huge.body.data.field).toBe('reading.value')
     expect(await toolId(technician, 'GA-0141')).toBe(gauge.id)
@@ -117,7 +143,15 @@ describe('body limits and numbers JSON should not carry', () => {
 
   it('refuses page numbers that would overflow, on every list', async () => {
     const cookie = await signIn(DEMO.admin)
-    for (const path of ['/api/worksheets', '/api/aircraft', '/api/accumulators', '/api/specifications', '/api/tools', '/api/cycle-checks', '/api/studies']) {
+    for (const path of [
+      '/api/worksheets',
+      '/api/aircraft',
+      '/api/accumulators',
+      '/api/specifications',
+      '/api/tools',
+      '/api/cycle-checks',
+      '/api/studies',
+    ]) {
       const answer = await api(`${path}?page=1e20`, { cookie })
       expect(answer.status, path).toBe(400)
       expect(answer.body.data.issues[0].field).toBe('page')
@@ -129,7 +163,7 @@ describe('body limits and numbers JSON should not carry', () => {
     for (const fields of [{}, { worksheetId: 'abc', kind: 'gauge-photo' }, { worksheetId: '1', kind: 'selfie' }]) {
       const form = new FormData()
       for (const [name, value] of Object.entries(fields)) form.append(name, value)
-      form.append('file', new Blob([new Uint8Array([0xFF, 0xD8, 0xFF, 0xE0])]), 'gauge.jpg')
+      form.append('file', new Blob([new Uint8Array([0xff, 0xd8, 0xff, 0xe0])]), 'gauge.jpg')
       const response = await fetch(`${baseURL()}/api/attachments`, { method: 'POST', body: form, headers: { cookie } })
       expect(response.status).toBe(400)
       const body = await response.json()

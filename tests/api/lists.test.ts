@@ -19,7 +19,8 @@ async function walk(query: string, toward: 'next' | 'previous', start?: string) 
   let pages = 0
   let last
   do {
-    last = (await api(`/api/worksheets?${query}${cursor ? `&cursor=${encodeURIComponent(cursor)}` : ''}`, { cookie })).body
+    last = (await api(`/api/worksheets?${query}${cursor ? `&cursor=${encodeURIComponent(cursor)}` : ''}`, { cookie }))
+      .body
     ids.push(...(toward === 'next' ? last.items : [...last.items].reverse()).map((item: { id: number }) => item.id))
     cursor = last[toward]
     pages++
@@ -29,7 +30,10 @@ async function walk(query: string, toward: 'next' | 'previous', start?: string) 
 
 describe('pages by cursor', () => {
   it.each([
-    ['createdAt', 'desc'], ['performedAt', 'asc'], ['workOrder', 'asc'], ['state', 'desc'],
+    ['createdAt', 'desc'],
+    ['performedAt', 'asc'],
+    ['workOrder', 'asc'],
+    ['state', 'desc'],
   ])('sorted by %s %s, every worksheet once, in order, and back again', async (sort, direction) => {
     const all = (await api(`/api/worksheets?sort=${sort}&direction=${direction}&pageSize=200`, { cookie })).body
     expect(all.total).toBeGreaterThan(120)
@@ -44,13 +48,32 @@ describe('pages by cursor', () => {
   it('reads only the list columns: no JSON content in a row', async () => {
     const page = (await api('/api/worksheets?pageSize=3', { cookie })).body
     expect(Object.keys(page.items[0]).sort()).toEqual([
-      'asFoundVerdict', 'asLeftVerdict', 'correctsId', 'createdAt', 'fleetNumber', 'id', 'partNumber', 'performedAt', 'performer', 'performerId',
-      'position', 'reason', 'registration', 'releasedAt', 'serialNumber', 'state', 'workOrder',
+      'asFoundVerdict',
+      'asLeftVerdict',
+      'correctsId',
+      'createdAt',
+      'fleetNumber',
+      'id',
+      'partNumber',
+      'performedAt',
+      'performer',
+      'performerId',
+      'position',
+      'reason',
+      'registration',
+      'releasedAt',
+      'serialNumber',
+      'state',
+      'workOrder',
     ])
   })
 
   it('refuses an unknown parameter, a page number and a tampered cursor, naming the field', async () => {
-    for (const [query, field] of [['page=2', 'page'], ['sort=workOrder&colour=red', 'colour'], ['cursor=bm90LWEtY3Vyc29y', 'cursor']]) {
+    for (const [query, field] of [
+      ['page=2', 'page'],
+      ['sort=workOrder&colour=red', 'colour'],
+      ['cursor=bm90LWEtY3Vyc29y', 'cursor'],
+    ]) {
       const answer = await api(`/api/worksheets?${query}`, { cookie })
       expect(answer.status, query).toBe(400)
       expect(answer.body.data.issues.map((issue: { field: string }) => issue.field)).toContain(field)
@@ -58,7 +81,13 @@ describe('pages by cursor', () => {
   })
 })
 
-interface Sample { id: number, workOrder: string, registration: string, serialNumber: string, partNumber: string }
+interface Sample {
+  id: number
+  workOrder: string
+  registration: string
+  serialNumber: string
+  partNumber: string
+}
 
 describe('search', () => {
   it.each([
@@ -73,7 +102,11 @@ describe('search', () => {
     expect(found.items.map((item: { id: number }) => item.id)).toContain(sample.id)
     const lower = q.toLowerCase()
     for (const item of found.items) {
-      expect([item.workOrder, item.registration, item.serialNumber, item.partNumber].some((value: string) => value.toLowerCase().startsWith(lower))).toBe(true)
+      expect(
+        [item.workOrder, item.registration, item.serialNumber, item.partNumber].some((value: string) =>
+          value.toLowerCase().startsWith(lower),
+        ),
+      ).toBe(true)
     }
   })
 
@@ -86,7 +119,9 @@ describe('search', () => {
 describe('the export', () => {
   it('streams every matching row, with no cap', async () => {
     const total = (await api('/api/worksheets?pageSize=1', { cookie })).body.total
-    const response = await fetch(`${baseURL()}/api/worksheets/export?sort=workOrder&direction=asc`, { headers: { cookie } })
+    const response = await fetch(`${baseURL()}/api/worksheets/export?sort=workOrder&direction=asc`, {
+      headers: { cookie },
+    })
     const rows = Papa.parse<string[]>(await response.text(), { skipEmptyLines: true }).data
     expect(rows[0]![0]).toBe('Worksheet')
     expect(rows).toHaveLength(total + 1)

@@ -7,7 +7,10 @@ import { baseURL } from '../support/file-server'
 import { api, DEMO, signIn } from '../support/api'
 
 const psia = (value: number) => ({ value, unit: 'psi', basis: 'absolute' })
-/** From memory: the fluid-power textbook example of the engine tests (1 L at 1000 psia, 3000→2000 psia; Boyle gives 1/6 L usable). */
+/**
+ * From memory: the fluid-power textbook example of the engine tests (1 L at 1000 psia, 3000→2000 psia; Boyle
+ * gives 1/6 L usable).
+ */
 const textbook = {
   name: 'Textbook check, ideal isothermal',
   accumulatorType: 'piston',
@@ -47,7 +50,7 @@ beforeAll(async () => {
 })
 
 describe('sizing studies', () => {
-  it('match the textbook values (Boyle: 1/6 L usable, 8 applications of 0.02 L, 2.4 L of gas for 12)', async () => {
+  it('match the textbook values (Boyle: 1/6 L usable, 8 applications of 0.02 L, 1.44 L of gas for 12)', async () => {
     const answer = await api('/api/calc/study', { cookie: technician, body: textbook })
     expect(answer.status).toBe(200)
     const row = answer.body.rows[0]
@@ -65,13 +68,21 @@ describe('sizing studies', () => {
     const [cold, standard, hot] = created.body.results.rows
     expect(cold.result.applications).toBeLessThan(standard.result.applications)
     expect(hot.result.applications).toBeGreaterThanOrEqual(standard.result.applications)
-    expect(created.body.results.rows.every((row: { result: { warnings: string[] } }) => Array.isArray(row.result.warnings))).toBe(true)
+    expect(
+      created.body.results.rows.every((row: { result: { warnings: string[] } }) => Array.isArray(row.result.warnings)),
+    ).toBe(true)
 
-    const list = await api('/api/studies?q=cold soak', { cookie: technician })
+    const list = await api('/api/studies?q=cold soak', { cookie: engineer })
     expect(list.body.items.map((item: { id: number }) => item.id)).toContain(created.body.id)
-    expect((await api(`/api/studies/${created.body.id}`, { cookie: technician })).body.inputs.name).toBe(brake.name)
+    expect((await api(`/api/studies/${created.body.id}`, { cookie: engineer })).body.inputs.name).toBe(brake.name)
+    // Sizing is engineering's work (shared/abilities.ts: study.read).
+    expect((await api(`/api/studies/${created.body.id}`, { cookie: technician })).status).toBe(403)
 
-    const edited = await api(`/api/studies/${created.body.id}`, { method: 'PATCH', cookie: engineer, body: { ...brake, perApplication: { value: 1, unit: 'in3' } } })
+    const edited = await api(`/api/studies/${created.body.id}`, {
+      method: 'PATCH',
+      cookie: engineer,
+      body: { ...brake, perApplication: { value: 1, unit: 'in3' } },
+    })
     expect(edited.body.results.rows[0].result.applications).toBeGreaterThan(cold.result.applications)
 
     const copy = await api(`/api/studies/${created.body.id}/duplicate`, { method: 'POST', cookie: engineer })
@@ -81,11 +92,11 @@ describe('sizing studies', () => {
 
   it('exports a study as CSV and as a PDF report', async () => {
     const created = await api('/api/studies', { cookie: engineer, body: brake })
-    const csv = await fetch(`${baseURL()}/api/studies/${created.body.id}/csv`, { headers: { cookie: technician } })
+    const csv = await fetch(`${baseURL()}/api/studies/${created.body.id}/csv`, { headers: { cookie: engineer } })
     const lines = (await csv.text()).trim().split(/\r?\n/)
     expect(lines[0]).toMatch(/^Condition,Temperature,Temperature unit,Pre-charge at temperature,Pressure unit/)
     expect(lines).toHaveLength(4)
-    const pdf = await fetch(`${baseURL()}/api/studies/${created.body.id}/pdf`, { headers: { cookie: technician } })
+    const pdf = await fetch(`${baseURL()}/api/studies/${created.body.id}/pdf`, { headers: { cookie: engineer } })
     const file = join(mkdtempSync(join(tmpdir(), 'chargewell-study-')), 'study.pdf')
     writeFileSync(file, Buffer.from(await pdf.arrayBuffer()))
     const text = execFileSync('pdftotext', [file, '-'], { encoding: 'utf8' })
@@ -98,7 +109,10 @@ describe('sizing studies', () => {
     const empty = await api('/api/studies', { cookie: engineer, body: {} })
     expect(empty.status).toBe(400)
     expect(empty.body.data.issues.map((issue: { field: string }) => issue.field)).toContain('gasVolume')
-    const impossible = await api('/api/studies', { cookie: engineer, body: { ...brake, minPressure: { value: 3500, unit: 'psi', basis: 'gauge' } } })
+    const impossible = await api('/api/studies', {
+      cookie: engineer,
+      body: { ...brake, minPressure: { value: 3500, unit: 'psi', basis: 'gauge' } },
+    })
     expect(impossible.status).toBe(422)
     expect(impossible.body.data.field).toBe('minPressure')
     const noSpec = await api('/api/studies', { cookie: engineer, body: { ...brake, specificationId: 9999 } })
@@ -106,7 +120,10 @@ describe('sizing studies', () => {
   })
 
   it('a temperature outside the model\'s range is reported on its row, not as a failure', async () => {
-    const answer = await api('/api/calc/study', { cookie: engineer, body: { ...brake, envelope: [...brake.envelope, { label: 'Too cold', temperature: { value: -90, unit: 'C' } }] } })
+    const answer = await api('/api/calc/study', {
+      cookie: engineer,
+      body: { ...brake, envelope: [...brake.envelope, { label: 'Too cold', temperature: { value: -90, unit: 'C' } }] },
+    })
     expect(answer.status).toBe(200)
     expect(answer.body.rows[3].error).toMatch(/outside the real-gas range/)
   })

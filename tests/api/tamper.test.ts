@@ -11,7 +11,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { auditHash } from '../../server/database/audit-chain'
 import { api, DEMO, signIn } from '../support/api'
 import { asText, sql } from '../support/database'
-import { baseURL, fileServer } from '../support/file-server'
+import { baseURL, fileDatabase } from '../support/file-server'
 
 const root = resolve(import.meta.dirname, '../..')
 const checker = join(root, 'scripts/check-audit-export.mjs')
@@ -24,8 +24,10 @@ const verify = async () => (await api('/api/audit/verify', { cookie: admin })).b
 
 /** Edits a row in the file, checks that verification names it, then puts the row back as it was. */
 async function tamperWith(table: string, column: string, id: number, change: (value: unknown) => unknown) {
-  const path = fileServer().database
-  const [before] = await sql<Record<string, unknown>>(path, `SELECT ${column} AS value FROM ${table} WHERE id = ?`, [id])
+  const path = fileDatabase()
+  const [before] = await sql<Record<string, unknown>>(path, `SELECT ${column} AS value FROM ${table} WHERE id = ?`, [
+    id,
+  ])
   await sql(path, `UPDATE ${table} SET ${column} = ? WHERE id = ?`, [change(before!.value), id])
   const report = await verify()
   await sql(path, `UPDATE ${table} SET ${column} = ? WHERE id = ?`, [before!.value, id])
@@ -33,21 +35,33 @@ async function tamperWith(table: string, column: string, id: number, change: (va
 }
 
 async function releasedWorksheet(): Promise<number> {
-  const [row] = await sql<{ id: number }>(fileServer().database, 'SELECT id FROM worksheets WHERE state = \'released\' ORDER BY id LIMIT 1 OFFSET 7')
+  const [row] = await sql<{ id: number }>(
+    fileDatabase(),
+    'SELECT id FROM worksheets WHERE state = \'released\' ORDER BY id LIMIT 1 OFFSET 7',
+  )
   return row!.id
 }
 
 describe('editing the database file is caught', () => {
   it('starts intact: every record vouched for, the head sealed', async () => {
     const report = await verify()
-    expect(report).toMatchObject({ ok: true, mismatches: 0, headProblems: [], head: { sealed: true, sealChecked: true } })
+    expect(report).toMatchObject({
+      ok: true,
+      mismatches: 0,
+      headProblems: [],
+      head: { sealed: true, sealChecked: true },
+    })
     expect(report.recordsChecked).toBeGreaterThan(150)
     expect(report.signingKey.fingerprint).toMatch(/^([0-9a-f]{4}:){7}[0-9a-f]{4}$/)
   })
 
   it('a released worksheet\'s results', async () => {
     const id = await releasedWorksheet()
-    const report = await tamperWith('worksheets', 'results', id, value => asText(value).replace(/"verdict":"[a-z-]+"/, '"verdict":"in-limits"').replace(/"difference":(-?[\d.]+)/, '"difference":0'))
+    const report = await tamperWith('worksheets', 'results', id, value =>
+      asText(value)
+        .replace(/"verdict":"[a-z-]+"/, '"verdict":"in-limits"')
+        .replace(/"difference":(-?[\d.]+)/, '"difference":0'),
+    )
     expect(report.ok).toBe(false)
     expect(report.firstMismatch).toMatchObject({ entity: 'worksheet', entityId: String(id) })
     expect(report.firstMismatch.reason).toMatch(/changed outside Chargewell/)
@@ -56,7 +70,12 @@ describe('editing the database file is caught', () => {
 
   it('a reading in a released worksheet\'s content', async () => {
     const id = await releasedWorksheet()
-    const report = await tamperWith('worksheets', 'content', id, value => asText(value).replace(/"asFound": ?\{"reading": ?\{"value": ?(\d+)/, (_, reading) => `"asFound":{"reading":{"value":${Number(reading) + 50}`))
+    const report = await tamperWith('worksheets', 'content', id, value =>
+      asText(value).replace(
+        /"asFound": ?\{"reading": ?\{"value": ?(\d+)/,
+        (_, reading) => `"asFound":{"reading":{"value":${Number(reading) + 50}`,
+      ),
+    )
     expect(report.firstMismatch).toMatchObject({ entity: 'worksheet', entityId: String(id) })
   })
 
@@ -68,26 +87,45 @@ describe('editing the database file is caught', () => {
 
   it('an inspector signature\'s name, naming the worksheet it belongs to', async () => {
     const id = await releasedWorksheet()
-    const [signature] = await sql<{ id: number }>(fileServer().database, 'SELECT id FROM signatures WHERE worksheet_id = ? AND capacity = \'inspector\'', [id])
+    const [signature] = await sql<{ id: number }>(
+      fileDatabase(),
+      'SELECT id FROM signatures WHERE worksheet_id = ? AND capacity = \'inspector\'',
+      [id],
+    )
     const report = await tamperWith('signatures', 'name', signature!.id, () => 'Somebody Else')
     expect(report.firstMismatch).toMatchObject({ entity: 'worksheet', entityId: String(id) })
   })
 
   it('a specification\'s reference pre-charge, and a user\'s roles', async () => {
-    expect((await tamperWith('specifications', 'reference_pressure', 1, value => Number(value) + 100)).firstMismatch).toMatchObject({ entity: 'specification', entityId: '1' })
-    expect((await tamperWith('users', 'roles', 1, () => '["technician","inspector","admin"]')).firstMismatch).toMatchObject({ entity: 'user', entityId: '1' })
+    expect(
+      (await tamperWith('specifications', 'reference_pressure', 1, value => Number(value) + 100)).firstMismatch,
+    ).toMatchObject({ entity: 'specification', entityId: '1' })
+    expect(
+      (await tamperWith('users', 'roles', 1, () => '["technician","inspector","admin"]')).firstMismatch,
+    ).toMatchObject({ entity: 'user', entityId: '1' })
   })
 
   it('a row inserted or deleted behind the application\'s back', async () => {
-    const path = fileServer().database
+    const path = fileDatabase()
     const id = await releasedWorksheet()
-    const [signature] = await sql<Record<string, unknown>>(path, 'SELECT * FROM signatures WHERE worksheet_id = ? AND capacity = \'inspector\'', [id])
+    const [signature] = await sql<Record<string, unknown>>(
+      path,
+      'SELECT * FROM signatures WHERE worksheet_id = ? AND capacity = \'inspector\'',
+      [id],
+    )
     await sql(path, 'DELETE FROM signatures WHERE id = ?', [signature!.id])
     expect((await verify()).firstMismatch).toMatchObject({ entity: 'worksheet', entityId: String(id) })
     const columns = Object.keys(signature!)
-    await sql(path, `INSERT INTO signatures (${columns.join(', ')}) VALUES (${columns.map(() => '?').join(', ')})`, columns.map(column => signature![column]))
+    await sql(
+      path,
+      `INSERT INTO signatures (${columns.join(', ')}) VALUES (${columns.map(() => '?').join(', ')})`,
+      columns.map(column => signature![column]),
+    )
     expect((await verify()).ok).toBe(true)
-    await sql(path, 'INSERT INTO tools (kind, asset_number, description, active, created_at, updated_at) VALUES (\'gauge\', \'GA-9999\', \'Smuggled in\', TRUE, \'2026-01-01\', \'2026-01-01\')')
+    await sql(
+      path,
+      'INSERT INTO tools (kind, asset_number, description, active, created_at, updated_at) VALUES (\'gauge\', \'GA-9999\', \'Smuggled in\', TRUE, \'2026-01-01\', \'2026-01-01\')',
+    )
     const report = await verify()
     expect(report.firstMismatch.reason).toMatch(/no audit entry vouching for its content/)
     await sql(path, 'DELETE FROM tools WHERE asset_number = \'GA-9999\'')
@@ -117,7 +155,9 @@ describe('the signed export, checked offline', () => {
     const edited = spawnSync(process.execPath, [checker, join(folder, 'edited.ndjson')], { encoding: 'utf8' })
     expect(edited.status).toBe(1)
     expect(edited.stderr).toMatch(/NOT INTACT[\s\S]*does not match its hash/)
-    const otherKey = spawnSync(process.execPath, [checker, file, '--key', '0000:0000:0000:0000:0000:0000:0000:0000'], { encoding: 'utf8' })
+    const otherKey = spawnSync(process.execPath, [checker, file, '--key', '0000:0000:0000:0000:0000:0000:0000:0000'], {
+      encoding: 'utf8',
+    })
     expect(otherKey.status).toBe(1)
     expect(otherKey.stderr).toMatch(/not the expected/)
     expect(readFileSync(file, 'utf8')).toBe(text)
@@ -126,8 +166,8 @@ describe('the signed export, checked offline', () => {
 
 describe('cutting or rebuilding the chain is caught (the chain stays broken after these)', () => {
   it('deleting the newest audit entries', async () => {
-    const path = fileServer().database
-    const [{ id }] = await sql<{ id: number }>(path, 'SELECT MAX(id) AS id FROM audit_events') as [{ id: number }]
+    const path = fileDatabase()
+    const [{ id }] = (await sql<{ id: number }>(path, 'SELECT MAX(id) AS id FROM audit_events')) as [{ id: number }]
     await sql(path, 'DELETE FROM audit_events WHERE id > ?', [id - 2])
     const report = await verify()
     expect(report.ok).toBe(false)
@@ -135,7 +175,7 @@ describe('cutting or rebuilding the chain is caught (the chain stays broken afte
   })
 
   it('a chain rebuilt without the secret: an edited record re-hashed, a vouching entry appended, the head moved', async () => {
-    const path = fileServer().database
+    const path = fileDatabase()
     const id = await releasedWorksheet()
     await sql(path, 'UPDATE worksheets SET serviceable = NOT serviceable WHERE id = ?', [id])
     // The forger has the file and the source code, so computes everything as the server would, but has no secret.
@@ -146,9 +186,24 @@ describe('cutting or rebuilding the chain is caught (the chain stays broken afte
     try {
       const hashOfRecord = await recordHash('worksheet', id)
       const last = (await AuditEvent.findOne({ order: [['id', 'DESC']] }))!
-      const entry = { at: new Date(Math.floor(Date.now())), actorId: 2, entity: 'worksheet', entityId: String(id), action: 'corrected', detail: {} }
-      const event = await AuditEvent.create({ ...entry, recordHash: hashOfRecord, hashVersion: 2, previousHash: last.hash, hash: auditHash({ ...entry, recordHash: hashOfRecord }, last.hash, 2) })
-      await sequelize.query('UPDATE audit_heads SET event_count = ?, last_event_id = ?, last_hash = ? WHERE id = 1', { replacements: [await AuditEvent.count(), event.id, event.hash] })
+      const entry = {
+        at: new Date(Math.floor(Date.now())),
+        actorId: 2,
+        entity: 'worksheet',
+        entityId: String(id),
+        action: 'corrected',
+        detail: {},
+      }
+      const event = await AuditEvent.create({
+        ...entry,
+        recordHash: hashOfRecord,
+        hashVersion: 2,
+        previousHash: last.hash,
+        hash: auditHash({ ...entry, recordHash: hashOfRecord }, last.hash, 2),
+      })
+      await sequelize.query('UPDATE audit_heads SET event_count = ?, last_event_id = ?, last_hash = ? WHERE id = 1', {
+        replacements: [await AuditEvent.count(), event.id, event.hash],
+      })
     }
     finally {
       await sequelize.close()
@@ -157,7 +212,12 @@ describe('cutting or rebuilding the chain is caught (the chain stays broken afte
     // Links, hashes, count and the edited record all agree now; only the seal gives it away.
     // (The entry deleted in the test before vouched for one record, which is still reported.)
     expect(report.firstBroken).toBeUndefined()
-    expect(report.records.filter((problem: { entity: string, entityId: string }) => problem.entity === 'worksheet' && problem.entityId === String(id))).toEqual([])
+    expect(
+      report.records.filter(
+        (problem: { entity: string, entityId: string }) =>
+          problem.entity === 'worksheet' && problem.entityId === String(id),
+      ),
+    ).toEqual([])
     expect(report.ok).toBe(false)
     expect(report.headProblems).toEqual([expect.stringMatching(/seal does not match/)])
   })

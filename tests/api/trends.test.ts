@@ -19,7 +19,9 @@ describe('pre-charge loss trends', () => {
     const losses = answer.body.items.map((item: { lossRate: number | null }) => item.lossRate ?? -Infinity)
     expect([...losses].sort((a: number, b: number) => b - a)).toEqual(losses)
     // Units whose specification other test files leave alone, with tight demo histories, are not flagged.
-    const untouched = answer.body.items.filter((item: { partNumber: string }) => ['FA-2260-02', 'FJ-3340-02'].includes(item.partNumber))
+    const untouched = answer.body.items.filter((item: { partNumber: string }) =>
+      ['FA-2260-02', 'FJ-3340-02'].includes(item.partNumber),
+    )
     expect(untouched.length).toBeGreaterThanOrEqual(6)
     expect(untouched.filter((item: { flagged: boolean }) => item.flagged)).toEqual([])
   })
@@ -27,7 +29,11 @@ describe('pre-charge loss trends', () => {
   it('filter by aircraft type, base, position and part number', async () => {
     const brakes = await api('/api/trends/precharge?partNumber=FA-2240-01&base=Skelby', { cookie: cookies.engineer })
     expect(brakes.body.items.map((item: { registration: string }) => item.registration)).toEqual(['QX-FMC'])
-    expect((await api('/api/trends/precharge?flagged=false&type=Tarnwing 72', { cookie: cookies.engineer })).body.items.every((item: { type: string, flagged: boolean }) => item.type === 'Tarnwing 72' && !item.flagged)).toBe(true)
+    expect(
+      (
+        await api('/api/trends/precharge?flagged=false&type=Tarnwing 72', { cookie: cookies.engineer })
+      ).body.items.every((item: { type: string, flagged: boolean }) => item.type === 'Tarnwing 72' && !item.flagged),
+    ).toBe(true)
   })
 
   it('give one unit\'s readings carried to the reference temperature, with the band and each service', async () => {
@@ -63,21 +69,36 @@ describe('pump cycle checks', () => {
   it('a technician logs a check; the server works out the leak rate (by hand, Boyle, for the ideal case)', async () => {
     const fleet = (await api('/api/aircraft?q=QX-FMA', { cookie: cookies.technician })).body.items[0]
     const body = {
-      aircraftId: fleet.id, system: 'Hydraulic system A', cutOut: { value: 3000, unit: 'psi', basis: 'gauge' }, cutIn: { value: 2600, unit: 'psi', basis: 'gauge' },
-      interval: { value: 7, unit: 'min' }, fluidTemperature: { value: 21, unit: 'C' }, checkedAt: '2026-11-30', ambient: { pressure: { value: 14.695949, unit: 'psi', basis: 'absolute' } },
+      aircraftId: fleet.id,
+      system: 'Hydraulic system A',
+      cutOut: { value: 3000, unit: 'psi', basis: 'gauge' },
+      cutIn: { value: 2600, unit: 'psi', basis: 'gauge' },
+      interval: { value: 7, unit: 'min' },
+      fluidTemperature: { value: 21, unit: 'C' },
+      checkedAt: '2026-11-30',
+      ambient: { pressure: { value: 14.695949, unit: 'psi', basis: 'absolute' } },
     }
     const created = await api('/api/cycle-checks', { cookie: cookies.technician, body })
     expect(created.status).toBe(201)
-    // Real gas, but a sanity bound from Boyle (ideal): 120 in³ × 1514.7 × (1/2614.7 − 1/3014.7) = 9.22 in³ over 7 min = 1.32 in³/min.
+    // Real gas, but a sanity bound from Boyle (ideal): 120 in³ × 1514.7 × (1/2614.7 − 1/3014.7) = 9.22 in³ over
+    // 7 min = 1.32 in³/min.
     expect(created.body.results.leakRate.unit).toBe('in3/min')
     expect(created.body.results.leakRate.value).toBeGreaterThan(1.0)
     expect(created.body.results.leakRate.value).toBeLessThan(1.5)
     expect((await api('/api/cycle-checks', { cookie: cookies.inspector, body })).status).toBe(403)
-    expect((await api('/api/cycle-checks', { cookie: cookies.engineer, body: { ...body, system: 'Hydraulic system Z' } })).status).toBe(422)
+    expect(
+      (await api('/api/cycle-checks', { cookie: cookies.engineer, body: { ...body, system: 'Hydraulic system Z' } }))
+        .status,
+    ).toBe(422)
     // Every problem at once, each on its own field: cut-in above cut-out, and a 99,999-minute interval.
-    const wrong = await api('/api/cycle-checks', { cookie: cookies.engineer, body: { ...body, cutIn: { value: 3100, unit: 'psi', basis: 'gauge' }, interval: { value: 99_999, unit: 'min' } } })
+    const wrong = await api('/api/cycle-checks', {
+      cookie: cookies.engineer,
+      body: { ...body, cutIn: { value: 3100, unit: 'psi', basis: 'gauge' }, interval: { value: 99_999, unit: 'min' } },
+    })
     expect(wrong.status).toBe(400)
-    const issues = Object.fromEntries(wrong.body.data.issues.map((issue: { field: string, message: string }) => [issue.field, issue.message]))
+    const issues = Object.fromEntries(
+      wrong.body.data.issues.map((issue: { field: string, message: string }) => [issue.field, issue.message]),
+    )
     expect(issues['cutIn.value']).toMatch(/cuts in below the pressure it cuts out at \(3000 psi\)/)
     expect(issues['interval.value']).toMatch(/between 0\.0833 and 1440 min/)
     const list = await api(`/api/cycle-checks?aircraftId=${fleet.id}`, { cookie: cookies.inspector })
@@ -88,19 +109,42 @@ describe('pump cycle checks', () => {
 describe('alerts are raised by the writes that change a trend', () => {
   it('two cycle checks at once that flag a system mail the engineers once; the next one mails nothing', async () => {
     const aircraft = (await api('/api/aircraft?q=QX-FMK', { cookie: cookies.technician })).body.items[0]
-    const check = (seconds: number) => api('/api/cycle-checks', { cookie: cookies.technician, body: {
-      aircraftId: aircraft.id, system: 'Hydraulic system 1', cutOut: { value: 3000, unit: 'psi', basis: 'gauge' }, cutIn: { value: 2600, unit: 'psi', basis: 'gauge' },
-      interval: { value: seconds, unit: 's' }, fluidTemperature: { value: 40, unit: 'C' }, checkedAt: '2026-12-01',
-    } })
+    const check = (seconds: number) =>
+      api('/api/cycle-checks', {
+        cookie: cookies.technician,
+        body: {
+          aircraftId: aircraft.id,
+          system: 'Hydraulic system 1',
+          cutOut: { value: 3000, unit: 'psi', basis: 'gauge' },
+          cutIn: { value: 2600, unit: 'psi', basis: 'gauge' },
+          interval: { value: seconds, unit: 's' },
+          fluidTemperature: { value: 40, unit: 'C' },
+          checkedAt: '2026-12-01',
+        },
+      })
     const answers = await Promise.all([check(150), check(140)])
     expect(answers.map(answer => answer.status)).toEqual([201, 201])
     expect((await check(145)).status).toBe(201)
-    const received = (await api('/api/admin/outbox', { cookie: cookies.admin })).body.received as { to: string[], subject: string, text: string }[]
-    const alerts = received.filter(message => message.to.includes(DEMO.engineer) && message.subject.startsWith('Trend alert') && message.subject.includes('QX-FMK Hydraulic system 1'))
+    const received = (await api('/api/admin/outbox', { cookie: cookies.admin })).body.received as {
+      to: string[]
+      subject: string
+      text: string
+    }[]
+    const alerts = received.filter(
+      message =>
+        message.to.includes(DEMO.engineer)
+        && message.subject.startsWith('Trend alert')
+        && message.subject.includes('QX-FMK Hydraulic system 1'),
+    )
     expect(alerts).toHaveLength(1)
     expect(alerts[0]!.text).toMatch(/shorter than its baseline/)
     const cycles = (await api('/api/trends/cycles', { cookie: cookies.engineer })).body.items
-    expect(cycles.find((item: { registration: string, system: string }) => item.registration === 'QX-FMK' && item.system === 'Hydraulic system 1').flagged).toBe(true)
+    expect(
+      cycles.find(
+        (item: { registration: string, system: string }) =>
+          item.registration === 'QX-FMK' && item.system === 'Hydraulic system 1',
+      ).flagged,
+    ).toBe(true)
   })
 
   it('a released as-found joins its unit\'s trend at once', async () => {
@@ -109,8 +153,17 @@ describe('alerts are raised by the writes that change a trend', () => {
     const before = (await api(`/api/trends/precharge/${unit.id}`, { cookie: cookies.engineer })).body.services.length
     const flow = await fillWorksheet(cookies.technician!, unit.id)
     expect((await finishAndSign(cookies.technician!, flow)).status).toBe(200)
-    expect((await api(`/api/trends/precharge/${unit.id}`, { cookie: cookies.engineer })).body.services.length).toBe(before)
-    expect((await api(`/api/worksheets/${flow.id}/countersign`, { cookie: cookies.inspector, body: { password: 'chargewell-demo', certify: true } })).status).toBe(200)
+    expect((await api(`/api/trends/precharge/${unit.id}`, { cookie: cookies.engineer })).body.services.length).toBe(
+      before,
+    )
+    expect(
+      (
+        await api(`/api/worksheets/${flow.id}/countersign`, {
+          cookie: cookies.inspector,
+          body: { password: 'chargewell-demo', certify: true },
+        })
+      ).status,
+    ).toBe(200)
     const after = (await api(`/api/trends/precharge/${unit.id}`, { cookie: cookies.engineer })).body
     expect(after.services.length).toBe(before + 1)
     expect(after.services.at(-1).worksheetId).toBe(flow.id)

@@ -18,12 +18,21 @@ let server: TestServer
 beforeAll(async () => {
   bucketFolder = mkdtempSync(join(tmpdir(), 'chargewell-s3-'))
   const port = await freePort()
-  fakeS3 = new S3rver({ address: '127.0.0.1', port, silent: true, directory: bucketFolder, configureBuckets: [{ name: BUCKET, configs: [] }] })
+  fakeS3 = new S3rver({
+    address: '127.0.0.1',
+    port,
+    silent: true,
+    directory: bucketFolder,
+    configureBuckets: [{ name: BUCKET, configs: [] }],
+  })
   await fakeS3.run()
   server = await startTestServer({
-    NUXT_UPLOADS_S3_BUCKET: BUCKET, NUXT_UPLOADS_S3_ENDPOINT: `http://127.0.0.1:${port}`, NUXT_UPLOADS_S3_REGION: 'us-east-1',
+    NUXT_UPLOADS_S3_BUCKET: BUCKET,
+    NUXT_UPLOADS_S3_ENDPOINT: `http://127.0.0.1:${port}`,
+    NUXT_UPLOADS_S3_REGION: 'us-east-1',
     // s3rver's fixed credentials.
-    NUXT_UPLOADS_S3_ACCESS_KEY_ID: 'S3RVER', NUXT_UPLOADS_S3_SECRET_ACCESS_KEY: 'S3RVER',
+    NUXT_UPLOADS_S3_ACCESS_KEY_ID: 'S3RVER',
+    NUXT_UPLOADS_S3_SECRET_ACCESS_KEY: 'S3RVER',
   })
 }, 60_000)
 
@@ -35,10 +44,29 @@ afterAll(async () => {
 
 describe('attachments in an S3-compatible bucket', () => {
   it('stores a gauge photo in the bucket and serves it back whole', async () => {
-    const login = await fetch(`${server.baseURL}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: DEMO.technician, password: DEMO_PASSWORD }) })
-    const cookie = login.headers.getSetCookie().map(line => line.split(';')[0]).join('; ')
-    const draft = (await (await fetch(`${server.baseURL}/api/worksheets?state=draft&pageSize=1`, { headers: { cookie } })).json()).items[0]
-    const png = new Uint8Array([0x89, 0x50, 0x4E, 0x47, 0x0D, 0x0A, 0x1A, 0x0A, ...Array.from({ length: 200 }, (_, index) => index % 256)])
+    const login = await fetch(`${server.baseURL}/api/auth/login`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify({ email: DEMO.technician, password: DEMO_PASSWORD }),
+    })
+    const cookie = login.headers
+      .getSetCookie()
+      .map(line => line.split(';')[0])
+      .join('; ')
+    const draft = (
+      await (await fetch(`${server.baseURL}/api/worksheets?state=draft&pageSize=1`, { headers: { cookie } })).json()
+    ).items[0]
+    const png = new Uint8Array([
+      0x89,
+      0x50,
+      0x4e,
+      0x47,
+      0x0d,
+      0x0a,
+      0x1a,
+      0x0a,
+      ...Array.from({ length: 200 }, (_, index) => index % 256),
+    ])
     const form = new FormData()
     form.append('worksheetId', String(draft.id))
     form.append('kind', 'gauge-photo')

@@ -30,11 +30,13 @@ function freePort(): Promise<number> {
   })
 }
 
-const percentile = (values: number[], share: number) => [...values].sort((a, b) => a - b)[Math.min(values.length - 1, Math.floor(values.length * share))]!
+const percentile = (values: number[], share: number) =>
+  [...values].sort((a, b) => a - b)[Math.min(values.length - 1, Math.floor(values.length * share))]!
 const rssOf = (pid: number) => Number(readFileSync(`/proc/${pid}/status`, 'utf8').match(/VmRSS:\s+(\d+)/)![1]) / 1024
 
 async function main() {
-  if (process.env.CHARGEWELL_SKIP_BUILD !== '1' || !existsSync(join(root, '.output/server/index.mjs'))) execFileSync('npx', ['nuxt', 'build'], { cwd: root, stdio: 'inherit' })
+  if (process.env.CHARGEWELL_SKIP_BUILD !== '1' || !existsSync(join(root, '.output/server/index.mjs')))
+    execFileSync('npx', ['nuxt', 'build'], { cwd: root, stdio: 'inherit' })
   const folder = mkdtempSync(join(tmpdir(), 'chargewell-scale-'))
   // SCALE_DATABASE=<file> keeps the built database (and its secret) to reuse on the next run.
   const kept = process.env.SCALE_DATABASE
@@ -53,19 +55,39 @@ async function main() {
   const port = await freePort()
   const base = `http://127.0.0.1:${port}`
   const server = spawn(process.execPath, [join(root, '.output/server/index.mjs')], {
-    env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), NUXT_DB_PATH: databasePath, NUXT_SESSION_PASSWORD: secret, NUXT_UPLOADS_DIR: join(folder, 'uploads'), NUXT_FAKE_SMTP: 'fake', NUXT_FAKE_SMTP_PORT: String(await freePort()) },
+    env: {
+      ...process.env,
+      NODE_ENV: 'production',
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      NUXT_DB_PATH: databasePath,
+      NUXT_SESSION_PASSWORD: secret,
+      NUXT_UPLOADS_DIR: join(folder, 'uploads'),
+      NUXT_FAKE_SMTP: 'fake',
+      NUXT_FAKE_SMTP_PORT: String(await freePort()),
+    },
     stdio: ['ignore', 'inherit', 'inherit'],
   })
   try {
     for (let tries = 0; ; tries++) {
-      const ok = await fetch(`${base}/api/health`).then(response => response.ok, () => false)
+      const ok = await fetch(`${base}/api/health`).then(
+        response => response.ok,
+        () => false,
+      )
       if (ok) break
       if (tries > 300) throw new Error('The server did not start.')
       await new Promise(wait => setTimeout(wait, 100))
     }
     const login = async (email: string) => {
-      const response = await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: 'chargewell-demo' }) })
-      return response.headers.getSetCookie().map(line => line.split(';')[0]).join('; ')
+      const response = await fetch(`${base}/api/auth/login`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json' },
+        body: JSON.stringify({ email, password: 'chargewell-demo' }),
+      })
+      return response.headers
+        .getSetCookie()
+        .map(line => line.split(';')[0])
+        .join('; ')
     }
     const inspector = await login('inspector@chargewell.test')
     const get = async (path: string) => {
@@ -77,12 +99,16 @@ async function main() {
     }
     const rows: [string, number, number][] = []
     const phases: [string, number][] = []
-    const loopNow = async () => (JSON.parse((await get('/api/health')).body).eventLoop?.windows ?? []) as { endedAt: string, maxMs: number }[]
+    const loopNow = async () =>
+      (JSON.parse((await get('/api/health')).body).eventLoop?.windows ?? []) as { endedAt: string, maxMs: number }[]
     const phase = async <T>(name: string, work: () => Promise<T>): Promise<T> => {
       const from = new Date().toISOString()
       const result = await work()
       await new Promise(wait => setTimeout(wait, 5500))
-      phases.push([name, Math.max(0, ...(await loopNow()).filter(window => window.endedAt > from).map(window => window.maxMs))])
+      phases.push([
+        name,
+        Math.max(0, ...(await loopNow()).filter(window => window.endedAt > from).map(window => window.maxMs)),
+      ])
       return result
     }
     const time = async (label: string, path: string | (() => string), repeats = REPEATS) => {
@@ -97,26 +123,41 @@ async function main() {
     const first = JSON.parse((await get('/api/worksheets?pageSize=25')).body)
     // A page deep in the list: 500 pages of 25 on, by the cursor the list hands out.
     let deepCursor = first.next as string | undefined
-    const deepPath = () => deepCursor ? `/api/worksheets?pageSize=25&cursor=${encodeURIComponent(deepCursor)}` : '/api/worksheets?pageSize=25&page=500'
+    const deepPath = () =>
+      deepCursor
+        ? `/api/worksheets?pageSize=25&cursor=${encodeURIComponent(deepCursor)}`
+        : '/api/worksheets?pageSize=25&page=500'
     if (deepCursor) {
-      for (let page = 0; page < 499; page++) deepCursor = JSON.parse((await get(`/api/worksheets?pageSize=25&cursor=${encodeURIComponent(deepCursor!)}`)).body).next
+      for (let page = 0; page < 499; page++)
+        deepCursor = JSON.parse(
+          (await get(`/api/worksheets?pageSize=25&cursor=${encodeURIComponent(deepCursor!)}`)).body,
+        ).next
     }
     const list = await phase('lists', async () => [
-      ...await time('list, first page', '/api/worksheets?pageSize=25'),
-      ...await time('list, page 500', deepPath),
-      ...await time('list, sorted by work order', '/api/worksheets?pageSize=25&sort=workOrder&direction=asc'),
-      ...await time('list, searched (one work order)', '/api/worksheets?pageSize=25&q=WO-H-012345'),
-      ...await time('list, searched (a registration)', '/api/worksheets?pageSize=25&q=qx-fmc'),
-      ...await time('list, filtered (released, one aircraft)', '/api/worksheets?pageSize=25&state=released&aircraftId=3'),
+      ...(await time('list, first page', '/api/worksheets?pageSize=25')),
+      ...(await time('list, page 500', deepPath)),
+      ...(await time('list, sorted by work order', '/api/worksheets?pageSize=25&sort=workOrder&direction=asc')),
+      ...(await time('list, searched (one work order)', '/api/worksheets?pageSize=25&q=WO-H-012345')),
+      ...(await time('list, searched (a registration)', '/api/worksheets?pageSize=25&q=qx-fmc')),
+      ...(await time(
+        'list, filtered (released, one aircraft)',
+        '/api/worksheets?pageSize=25&state=released&aircraftId=3',
+      )),
     ])
     const ids = Array.from({ length: REPEATS + 1 }, () => 1 + Math.floor(Math.random() * COUNT))
     let next = 0
     const record = await phase('records', async () => {
       const times = await time('one worksheet record', () => `/api/worksheets/${ids[next++ % ids.length]}`)
-      await time('countersign queue', '/api/worksheets?state=awaiting-countersign&sort=createdAt&direction=asc&pageSize=200')
+      await time(
+        'countersign queue',
+        '/api/worksheets?state=awaiting-countersign&sort=createdAt&direction=asc&pageSize=200',
+      )
       return times
     })
-    const trends = await phase('trends', async () => [...await time('trends, pre-charge', '/api/trends/precharge', Math.min(20, REPEATS)), ...await time('trends, pump cycles', '/api/trends/cycles', Math.min(20, REPEATS))])
+    const trends = await phase('trends', async () => [
+      ...(await time('trends, pre-charge', '/api/trends/precharge', Math.min(20, REPEATS))),
+      ...(await time('trends, pump cycles', '/api/trends/cycles', Math.min(20, REPEATS))),
+    ])
 
     const rssBefore = rssOf(server.pid!)
     let peak = rssBefore
@@ -128,25 +169,45 @@ async function main() {
     clearInterval(sampler)
     const exportedRows = exported.body.trimEnd().split('\n').length - 1
 
-    const cannon = (options: autocannon.Options) => new Promise<autocannon.Result>((done, fail) => autocannon(options, (error: Error | null, result: autocannon.Result) => error ? fail(error) : done(result)))
+    const cannon = (options: autocannon.Options) =>
+      new Promise<autocannon.Result>((done, fail) =>
+        autocannon(options, (error: Error | null, result: autocannon.Result) => (error ? fail(error) : done(result))),
+      )
     const healthLoad = await cannon({ url: `${base}/api/health`, connections: 10, duration: 5 })
     const calc = await cannon({
-      url: `${base}/api/calc/charge-target`, connections: 10, duration: 5, method: 'POST', headers: { 'content-type': 'application/json', 'cookie': inspector },
-      body: JSON.stringify({ reference: { pressure: { value: 1000, unit: 'psi', basis: 'gauge' }, temperature: { value: 21, unit: 'C' } }, gasTemperature: { value: -10, unit: 'C' }, tolerance: { minus: 50, plus: 50, unit: 'psi' } }),
+      url: `${base}/api/calc/charge-target`,
+      connections: 10,
+      duration: 5,
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'cookie': inspector },
+      body: JSON.stringify({
+        reference: { pressure: { value: 1000, unit: 'psi', basis: 'gauge' }, temperature: { value: 21, unit: 'C' } },
+        gasTemperature: { value: -10, unit: 'C' },
+        tolerance: { minus: 50, plus: 50, unit: 'psi' },
+      }),
     })
     // The worst event-loop delay in the windows that ended while the requests above ran.
     await new Promise(wait => setTimeout(wait, 5500))
-    const health = JSON.parse((await get('/api/health')).body).eventLoop as { windows: { endedAt: string, maxMs: number }[] } | undefined
+    const health = JSON.parse((await get('/api/health')).body).eventLoop as
+      { windows: { endedAt: string, maxMs: number }[] } | undefined
     const during = health?.windows.filter(window => window.endedAt > measuringFrom) ?? []
     const loop = during.length ? { maxDelayMs: Math.max(...during.map(window => window.maxMs)) } : undefined
 
     console.log(`\nChargewell at ${COUNT} worksheets (${REPEATS} sequential requests each; 2-core machine):\n`)
     console.log('| request | p50 ms | p95 ms |\n|---|---|---|')
     for (const [label, p50, p95] of rows) console.log(`| ${label} | ${p50.toFixed(1)} | ${p95.toFixed(1)} |`)
-    console.log(`\nexport: ${exportedRows} rows of ${COUNT} in ${exportSeconds.toFixed(2)} s; server RSS ${rssBefore.toFixed(0)} MB before, peak ${peak.toFixed(0)} MB (+${(peak - rssBefore).toFixed(0)} MB)`)
-    console.log(`throughput: /api/health ${healthLoad.requests.average.toFixed(0)} req/s, /api/calc/charge-target ${calc.requests.average.toFixed(0)} req/s (${(calc.requests.average / healthLoad.requests.average).toFixed(2)}×); non-2xx ${healthLoad.non2xx + calc.non2xx}`)
-    console.log(`event loop: longest delay while measuring ${loop ? `${loop.maxDelayMs.toFixed(0)} ms` : 'not reported'}; per phase: ${phases.map(([name, ms]) => `${name} ${ms} ms`).join(', ')}`)
-    console.log(`scale: list p95 ${percentile(list, 0.95).toFixed(0)} ms; record p95 ${percentile(record, 0.95).toFixed(0)} ms; trends p95 ${percentile(trends, 0.95).toFixed(0)} ms; export ${exportSeconds.toFixed(1)} s`)
+    console.log(
+      `\nexport: ${exportedRows} rows of ${COUNT} in ${exportSeconds.toFixed(2)} s; server RSS ${rssBefore.toFixed(0)} MB before, peak ${peak.toFixed(0)} MB (+${(peak - rssBefore).toFixed(0)} MB)`,
+    )
+    console.log(
+      `throughput: /api/health ${healthLoad.requests.average.toFixed(0)} req/s, /api/calc/charge-target ${calc.requests.average.toFixed(0)} req/s (${(calc.requests.average / healthLoad.requests.average).toFixed(2)}×); non-2xx ${healthLoad.non2xx + calc.non2xx}`,
+    )
+    console.log(
+      `event loop: longest delay while measuring ${loop ? `${loop.maxDelayMs.toFixed(0)} ms` : 'not reported'}; per phase: ${phases.map(([name, ms]) => `${name} ${ms} ms`).join(', ')}`,
+    )
+    console.log(
+      `scale: list p95 ${percentile(list, 0.95).toFixed(0)} ms; record p95 ${percentile(record, 0.95).toFixed(0)} ms; trends p95 ${percentile(trends, 0.95).toFixed(0)} ms; export ${exportSeconds.toFixed(1)} s`,
+    )
   }
   finally {
     server.kill('SIGTERM')

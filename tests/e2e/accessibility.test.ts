@@ -37,7 +37,10 @@ afterAll(async () => {
   await browser?.close()
 })
 
-async function signedIn(email: string, viewport: { width: number, height: number }): Promise<{ context: BrowserContext, page: Page }> {
+async function signedIn(
+  email: string,
+  viewport: { width: number, height: number },
+): Promise<{ context: BrowserContext, page: Page }> {
   const context = await browser.newContext({ baseURL: baseURL(), viewport })
   const answer = await context.request.post('/api/auth/login', { data: { email, password: 'chargewell-demo' } })
   expect(answer.status()).toBe(200)
@@ -61,25 +64,36 @@ async function rowsReachedByTab(page: Page, testid: string): Promise<{ rows: num
 }
 
 describe.each(Object.entries(SIZES))('on a %s', (_size, viewport) => {
-  it.each(ACCOUNTS)('%s: every page passes axe, fits the screen, and its table rows take the keyboard', { timeout: 300_000 }, async (email, roles) => {
-    const { context, page } = await signedIn(email, viewport)
-    const problems: string[] = []
-    for (const path of [...navigationFor(roles).map(item => item.to), ...detailPages(roles)]) {
-      const response = await page.goto(path, { waitUntil: 'networkidle' })
-      expect(response?.status(), path).toBeLessThan(400)
-      const results = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).analyze()
-      for (const violation of results.violations.filter(found => found.impact === 'serious' || found.impact === 'critical')) {
-        problems.push(`${path}: ${violation.impact} ${violation.id} at ${violation.nodes.slice(0, 3).map(node => node.target.join(' ')).join(', ')}`)
+  it.each(ACCOUNTS)(
+    '%s: every page passes axe, fits the screen, and its table rows take the keyboard',
+    { timeout: 300_000 },
+    async (email, roles) => {
+      const { context, page } = await signedIn(email, viewport)
+      const problems: string[] = []
+      for (const path of [...navigationFor(roles).map(item => item.to), ...detailPages(roles)]) {
+        const response = await page.goto(path, { waitUntil: 'networkidle' })
+        expect(response?.status(), path).toBeLessThan(400)
+        const results = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).analyze()
+        for (const violation of results.violations.filter(
+          found => found.impact === 'serious' || found.impact === 'critical',
+        )) {
+          problems.push(
+            `${path}: ${violation.impact} ${violation.id} at ${violation.nodes
+              .slice(0, 3)
+              .map(node => node.target.join(' '))
+              .join(', ')}`,
+          )
+        }
+        const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)
+        if (overflow > 0) problems.push(`${path}: ${overflow} px wider than the screen`)
+        for (const testid of ROW_TABLES) {
+          if ((await page.getByTestId(testid).count()) === 0) continue
+          const { rows, reached } = await rowsReachedByTab(page, testid)
+          if (reached < rows) problems.push(`${path}: ${testid} rows reached by Tab: ${reached} of ${rows}`)
+        }
       }
-      const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)
-      if (overflow > 0) problems.push(`${path}: ${overflow} px wider than the screen`)
-      for (const testid of ROW_TABLES) {
-        if (await page.getByTestId(testid).count() === 0) continue
-        const { rows, reached } = await rowsReachedByTab(page, testid)
-        if (reached < rows) problems.push(`${path}: ${testid} rows reached by Tab: ${reached} of ${rows}`)
-      }
-    }
-    expect(problems).toEqual([])
-    await context.close()
-  })
+      expect(problems).toEqual([])
+      await context.close()
+    },
+  )
 })

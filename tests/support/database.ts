@@ -7,15 +7,28 @@ import { isPostgresUrl } from './postgres'
  * with the database (and not the application) would have it: for tamper tests. Placeholders
  * are `?` for both.
  */
-export async function sql<Row = Record<string, unknown>>(database: string, statement: string, parameters: unknown[] = []): Promise<Row[]> {
+export async function sql<Row = Record<string, unknown>>(
+  database: string,
+  statement: string,
+  parameters: unknown[] = [],
+): Promise<Row[]> {
   if (isPostgresUrl(database)) {
     const client = new pg.Client({ connectionString: database })
     await client.connect()
     try {
       let index = 0
       // pg would send a JS array as a PostgreSQL array; the app's JSON columns want JSON.
-      const values = parameters.map(value => value && typeof value === 'object' && !(value instanceof Date) && !Buffer.isBuffer(value) ? JSON.stringify(value) : value)
-      return (await client.query(statement.replace(/\?/g, () => `$${++index}`), values)).rows as Row[]
+      const values = parameters.map(value =>
+        value && typeof value === 'object' && !(value instanceof Date) && !Buffer.isBuffer(value)
+          ? JSON.stringify(value)
+          : value,
+      )
+      return (
+        await client.query(
+          statement.replace(/\?/g, () => `$${++index}`),
+          values,
+        )
+      ).rows as Row[]
     }
     finally {
       await client.end()
@@ -23,8 +36,12 @@ export async function sql<Row = Record<string, unknown>>(database: string, state
   }
   const connection = new sqlite3.Database(database)
   try {
-    await new Promise<void>((done, fail) => connection.run('PRAGMA busy_timeout = 10000', error => error ? fail(error) : done()))
-    return await new Promise<Row[]>((done, fail) => connection.all(statement, parameters, (error, rows) => error ? fail(error) : done(rows as Row[])))
+    await new Promise<void>((done, fail) =>
+      connection.run('PRAGMA busy_timeout = 10000', error => (error ? fail(error) : done())),
+    )
+    return await new Promise<Row[]>((done, fail) =>
+      connection.all(statement, parameters, (error, rows) => (error ? fail(error) : done(rows as Row[]))),
+    )
   }
   finally {
     await new Promise<void>(done => connection.close(() => done()))

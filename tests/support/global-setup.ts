@@ -24,7 +24,13 @@ declare module 'vitest' {
   }
 }
 
-interface Prepared { outputDir: string, templateDatabase: string, sessionPassword: string, folder: string, users: number }
+interface Prepared {
+  outputDir: string
+  templateDatabase: string
+  sessionPassword: string
+  folder: string
+  users: number
+}
 
 const shared = globalThis as typeof globalThis & { __chargewellPrepared?: Promise<Prepared> }
 const root = resolve(import.meta.dirname, '../..')
@@ -39,14 +45,33 @@ async function prepare(): Promise<Prepared> {
   // The seed seals the audit chain with the secret the servers will have.
   const sessionPassword = randomBytes(32).toString('hex')
   const postgres = process.env.CHARGEWELL_TEST_DATABASE_URL
-  const templateDatabase = postgres ? await createPostgresDatabase(postgres, `chargewell_template_${process.pid}`) : join(folder, 'template.sqlite')
-  execFileSync('npx', ['tsx', 'server/database/seed.ts'], {
+  const templateDatabase = postgres
+    ? await createPostgresDatabase(postgres, `chargewell_template_${process.pid}`)
+    : join(folder, 'template.sqlite')
+  // Seeded by the built server's own task, run from the copy (so the copy is what is tested).
+  execFileSync(process.execPath, ['scripts/task.mjs', 'db:seed'], {
     cwd: root,
-    env: { ...process.env, NUXT_DB_PATH: postgres ? '' : templateDatabase, NUXT_DATABASE_URL: postgres ? templateDatabase : '', NUXT_SESSION_PASSWORD: sessionPassword, NUXT_AUDIT_SECRET: '' },
+    env: {
+      ...process.env,
+      CHARGEWELL_OUTPUT: outputDir,
+      NUXT_DB_PATH: postgres ? '' : templateDatabase,
+      NUXT_DATABASE_URL: postgres ? templateDatabase : '',
+      NUXT_SESSION_PASSWORD: sessionPassword,
+      NUXT_AUDIT_SECRET: '',
+      NUXT_UPLOADS_DIR: join(folder, 'seed-uploads'),
+    },
     stdio: 'inherit',
   })
   // A SQLite template is copied file by file: fold the write-ahead log into it first.
-  if (!postgres) execFileSync(process.execPath, ['-e', `const s=require('sqlite3');const d=new s.Database(${JSON.stringify(templateDatabase)});d.exec('PRAGMA wal_checkpoint(TRUNCATE)',e=>{if(e)throw e;d.close()})`], { cwd: root })
+  if (!postgres)
+    execFileSync(
+      process.execPath,
+      [
+        '-e',
+        `const s=require('sqlite3');const d=new s.Database(${JSON.stringify(templateDatabase)});d.exec('PRAGMA wal_checkpoint(TRUNCATE)',e=>{if(e)throw e;d.close()})`,
+      ],
+      { cwd: root },
+    )
   return { outputDir, templateDatabase, sessionPassword, folder, users: 0 }
 }
 

@@ -24,31 +24,66 @@ const gaugePsi = (min: number, max: number) => fc.double({ min, max, noNaN: true
 
 describe('charge target properties', () => {
   it('correcting T1 → T2 → T1 returns the start', () => {
-    fc.assert(fc.property(models, gaugePsi(50, 4000), celsius, celsius, (model, start, t1, t2) => {
-      const there = inRange(() => chargeTarget({ reference: { pressure: { value: start, unit: 'psi', basis: 'gauge' }, temperature: { value: t1, unit: 'C' } }, gasTemperature: { value: t2, unit: 'C' }, model }))
-      const back = chargeTarget({ reference: { pressure: there.target, temperature: { value: t2, unit: 'C' } }, gasTemperature: { value: t1, unit: 'C' }, model })
-      expect(back.target.value / start - 1).toBeCloseTo(0, 9)
-    }))
+    fc.assert(
+      fc.property(models, gaugePsi(50, 4000), celsius, celsius, (model, start, t1, t2) => {
+        const there = inRange(() =>
+          chargeTarget({
+            reference: {
+              pressure: { value: start, unit: 'psi', basis: 'gauge' },
+              temperature: { value: t1, unit: 'C' },
+            },
+            gasTemperature: { value: t2, unit: 'C' },
+            model,
+          }),
+        )
+        const back = chargeTarget({
+          reference: { pressure: there.target, temperature: { value: t2, unit: 'C' } },
+          gasTemperature: { value: t1, unit: 'C' },
+          model,
+        })
+        expect(back.target.value / start - 1).toBeCloseTo(0, 9)
+      }),
+    )
   })
 
   it('the target rises with the gas temperature', () => {
-    fc.assert(fc.property(models, gaugePsi(50, 4000), celsius, celsius, (model, start, a, b) => {
-      fc.pre(Math.abs(a - b) > 0.01)
-      const at = (t: number) => inRange(() => chargeTarget({ reference: { pressure: { value: start, unit: 'psi', basis: 'gauge' }, temperature: { value: 21, unit: 'C' } }, gasTemperature: { value: t, unit: 'C' }, model })).target.value
-      expect(Math.sign(at(a) - at(b))).toBe(Math.sign(a - b))
-    }))
+    fc.assert(
+      fc.property(models, gaugePsi(50, 4000), celsius, celsius, (model, start, a, b) => {
+        fc.pre(Math.abs(a - b) > 0.01)
+        const at = (t: number) =>
+          inRange(() =>
+            chargeTarget({
+              reference: {
+                pressure: { value: start, unit: 'psi', basis: 'gauge' },
+                temperature: { value: 21, unit: 'C' },
+              },
+              gasTemperature: { value: t, unit: 'C' },
+              model,
+            }),
+          ).target.value
+        expect(Math.sign(at(a) - at(b))).toBe(Math.sign(a - b))
+      }),
+    )
   })
 
   // Departure from the ideal gas is first order in pressure (the second virial coefficient), so the
   // two corrections agree within 3 % per MPa across −70…+120 °C: within 0.3 % at 0.1 MPa. (Z = 0.9998
   // for nitrogen at 0.1 MPa, 300 K: NIST Chemistry WebBook, from memory.)
   it('real and ideal agree below 1 MPa, closer as the pressure falls', () => {
-    fc.assert(fc.property(fc.double({ min: 0.05, max: 1, noNaN: true }), celsius, celsius, (megapascals, t1, t2) => {
-      const input = { reference: { pressure: { value: megapascals, unit: 'MPa' as const, basis: 'absolute' as const }, temperature: { value: t1, unit: 'C' as const } }, gasTemperature: { value: t2, unit: 'C' as const } }
-      const real = chargeTarget({ ...input, model: 'real' }).target.value
-      const ideal = chargeTarget({ ...input, model: 'ideal' }).target.value
-      expect(Math.abs(real / ideal - 1)).toBeLessThan(0.03 * megapascals)
-    }))
+    fc.assert(
+      fc.property(fc.double({ min: 0.05, max: 1, noNaN: true }), celsius, celsius, (megapascals, t1, t2) => {
+        const input = {
+          reference: {
+            pressure: { value: megapascals, unit: 'MPa' as const, basis: 'absolute' as const },
+            temperature: { value: t1, unit: 'C' as const },
+          },
+          gasTemperature: { value: t2, unit: 'C' as const },
+        }
+        const real = chargeTarget({ ...input, model: 'real' }).target.value
+        const ideal = chargeTarget({ ...input, model: 'ideal' }).target.value
+        expect(Math.abs(real / ideal - 1)).toBeLessThan(0.03 * megapascals)
+      }),
+    )
   })
 })
 
@@ -71,7 +106,11 @@ function sizingInput(case_: SizingCase, litres = 1) {
     prechargeTemperature: { value: case_.prechargeCelsius, unit: 'C' as const },
     operatingTemperature: { value: case_.operatingCelsius, unit: 'C' as const },
     maxPressure: { value: case_.max, unit: 'psi' as const, basis: 'gauge' as const },
-    minPressure: { value: Math.max(case_.precharge * 0.8, case_.max * case_.minShare), unit: 'psi' as const, basis: 'gauge' as const },
+    minPressure: {
+      value: Math.max(case_.precharge * 0.8, case_.max * case_.minShare),
+      unit: 'psi' as const,
+      basis: 'gauge' as const,
+    },
     discharge: case_.discharge,
     model: case_.model,
   }
@@ -79,35 +118,60 @@ function sizingInput(case_: SizingCase, litres = 1) {
 
 describe('sizing properties', () => {
   it('usable volume scales linearly with the gas volume', () => {
-    fc.assert(fc.property(sizingArbitrary, fc.double({ min: 0.1, max: 50, noNaN: true }), (case_, litres) => {
-      fc.pre(case_.max * case_.minShare < case_.max * 0.999 && case_.precharge * 0.8 < case_.max * 0.95)
-      const one = usableVolume(sizingInput(case_, 1)).usableVolume.value
-      const many = usableVolume(sizingInput(case_, litres)).usableVolume.value
-      expect(many / litres).toBeCloseTo(one, 9)
-    }), { numRuns: 60 })
+    fc.assert(
+      fc.property(sizingArbitrary, fc.double({ min: 0.1, max: 50, noNaN: true }), (case_, litres) => {
+        fc.pre(case_.max * case_.minShare < case_.max * 0.999 && case_.precharge * 0.8 < case_.max * 0.95)
+        const one = usableVolume(sizingInput(case_, 1)).usableVolume.value
+        const many = usableVolume(sizingInput(case_, litres)).usableVolume.value
+        expect(many / litres).toBeCloseTo(one, 9)
+      }),
+      { numRuns: 60 },
+    )
   })
 
   it('required-volume inverts usable-volume', () => {
-    fc.assert(fc.property(sizingArbitrary, fc.double({ min: 0.01, max: 5, noNaN: true }), (case_, litres) => {
-      fc.pre(case_.precharge * 0.8 < case_.max * 0.95)
-      const { gasVolume: _gasVolume, ...conditions } = sizingInput(case_)
-      const forward = usableVolume({ ...conditions, gasVolume: { value: litres, unit: 'L' } })
-      fc.pre(forward.usableVolume.value > 1e-3 * litres) // a usable share of at least 0.1 % (near zero the inverse is ill-conditioned)
-      const back = requiredVolume({ ...conditions, usable: forward.usableVolume })
-      expect(back.gasVolume.value).toBeCloseTo(litres, 8)
-    }), { numRuns: 60 })
+    fc.assert(
+      fc.property(sizingArbitrary, fc.double({ min: 0.01, max: 5, noNaN: true }), (case_, litres) => {
+        fc.pre(case_.precharge * 0.8 < case_.max * 0.95)
+        const { gasVolume: _gasVolume, ...conditions } = sizingInput(case_)
+        const forward = usableVolume({ ...conditions, gasVolume: { value: litres, unit: 'L' } })
+        // a usable share of at least 0.1 % (near zero the inverse is ill-conditioned)
+        fc.pre(forward.usableVolume.value > 1e-3 * litres)
+        const back = requiredVolume({ ...conditions, usable: forward.usableVolume })
+        expect(back.gasVolume.value).toBeCloseTo(litres, 8)
+      }),
+      { numRuns: 60 },
+    )
   })
 
   it('every input in range returns finite numbers', () => {
-    fc.assert(fc.property(sizingArbitrary, (case_) => {
-      fc.pre(case_.precharge * 0.8 < case_.max * 0.95)
-      const result = usableVolume({ ...sizingInput(case_), perApplication: { value: 0.01, unit: 'L' } })
-      for (const value of [result.usableVolume.value, result.gasVolumeAtMax.value, result.gasVolumeAtMin.value, result.residualPressure!.value, result.temperatureAtMin.value]) {
-        expect(Number.isFinite(value)).toBe(true)
-      }
-      expect(result.gasVolumeAtMin.value).toBeLessThanOrEqual(1 + 1e-12)
-      const leak = leakRate({ gasVolume: { value: 1, unit: 'L' }, precharge: sizingInput(case_).precharge, prechargeTemperature: { value: case_.prechargeCelsius, unit: 'C' }, temperature: { value: case_.operatingCelsius, unit: 'C' }, cutOut: sizingInput(case_).maxPressure, cutIn: sizingInput(case_).minPressure, interval: { value: 3, unit: 'min' }, model: case_.model })
-      expect(Number.isFinite(leak.leakRate.value)).toBe(true)
-    }), { numRuns: 80 })
+    fc.assert(
+      fc.property(sizingArbitrary, (case_) => {
+        fc.pre(case_.precharge * 0.8 < case_.max * 0.95)
+        const result = usableVolume({ ...sizingInput(case_), perApplication: { value: 0.01, unit: 'L' } })
+        for (const value of [
+          result.usableVolume.value,
+          result.gasVolumeAtMax.value,
+          result.gasVolumeAtMin.value,
+          result.residualPressure!.value,
+          result.temperatureAtMin.value,
+        ]) {
+          expect(Number.isFinite(value)).toBe(true)
+        }
+        expect(result.gasVolumeAtMin.value).toBeLessThanOrEqual(1 + 1e-12)
+        const leak = leakRate({
+          gasVolume: { value: 1, unit: 'L' },
+          precharge: sizingInput(case_).precharge,
+          prechargeTemperature: { value: case_.prechargeCelsius, unit: 'C' },
+          temperature: { value: case_.operatingCelsius, unit: 'C' },
+          cutOut: sizingInput(case_).maxPressure,
+          cutIn: sizingInput(case_).minPressure,
+          interval: { value: 3, unit: 'min' },
+          model: case_.model,
+        })
+        expect(Number.isFinite(leak.leakRate.value)).toBe(true)
+      }),
+      { numRuns: 80 },
+    )
   })
 })

@@ -13,9 +13,11 @@ describe('conversion factors', () => {
     expect(convertPressure({ value: 3000, unit: 'psi', basis: 'gauge' }, 'bar').value).toBeCloseTo(206.843, 3)
   })
 
-  it('volumes, from convert-units', () => {
-    // Source: NIST SP 811 (2008) App. B.9 — 1 in³ = 1.638 706 4 E−05 m³ (exact); 1 L = 1.0 E−03 m³.
-    expect(volumeToCubicMetres({ value: 1, unit: 'in3' })).toBeCloseTo(1.6387064e-5, 12)
+  it('volumes: the cubic inch from the inch, litres and cubic centimetres', () => {
+    // Source: the international inch is 2.54 cm exactly (NIST SP 811 (2008) App. B.9), so 1 in³ = 2.54³ cm³;
+    // 1 L = 1.0 E−03 m³, 1 cm³ = 1.0 E−06 m³ (exact).
+    expect(volumeToCubicMetres({ value: 1, unit: 'in3' })).toBeCloseTo(2.54 ** 3 * 1e-6, 15)
+    expect(volumeToCubicMetres({ value: 231, unit: 'in3' })).toBeCloseTo(3.785411784e-3, 12) // 1 US gallon = 231 in³ (NIST SP 811 App. B.9)
     expect(volumeToCubicMetres({ value: 1, unit: 'L' })).toBeCloseTo(1e-3, 12)
     expect(volumeToCubicMetres({ value: 1, unit: 'cm3' })).toBeCloseTo(1e-6, 14)
   })

@@ -6,12 +6,19 @@ const psig = (value: number) => ({ value, unit: 'psi' as const, basis: 'gauge' a
 const room = { value: 20, unit: 'C' as const }
 
 /**
- * From memory: the usual fluid-power textbook sizing example — 1 gallon of gas pre-charged to
- * 1000 psia, working between 3000 and 2000 psia. Boyle's law gives V₃₀₀₀ = 1/3, V₂₀₀₀ = 1/2 and
- * 1/6 gal usable (isothermal); with p·V^1.4 = const on discharge, V₂₀₀₀ = (1/3)·1.5^(1/1.4) and
- * 0.1120 gal usable.
+ * From memory: the usual fluid-power textbook sizing example — one volume of gas (the book says a
+ * gallon; here 1 L, the ratios are the same) pre-charged to 1000 psia, working between 3000 and
+ * 2000 psia. Boyle's law gives V₃₀₀₀ = 1/3, V₂₀₀₀ = 1/2 and 1/6 of the gas volume usable
+ * (isothermal); with p·V^1.4 = const on discharge, V₂₀₀₀ = (1/3)·1.5^(1/1.4) and 0.1120 usable.
  */
-const textbook = { gasVolume: { value: 1, unit: 'L' as const }, precharge: psia(1000), prechargeTemperature: room, maxPressure: psia(3000), minPressure: psia(2000), model: 'ideal' as const }
+const textbook = {
+  gasVolume: { value: 1, unit: 'L' as const },
+  precharge: psia(1000),
+  prechargeTemperature: room,
+  maxPressure: psia(3000),
+  minPressure: psia(2000),
+  model: 'ideal' as const,
+}
 
 describe('usable volume, ideal gas', () => {
   it('isothermal both ways: 1/6 of the gas volume', () => {
@@ -51,7 +58,7 @@ describe('usable volume, ideal gas', () => {
 
   it('warms the pre-charge to the operating temperature at constant volume first', () => {
     const hot = usableVolume({ ...textbook, discharge: 'isothermal', operatingTemperature: { value: 50, unit: 'C' } })
-    expect(hot.prechargeAtOperatingTemperature.value).toBeCloseTo(1000 * 323.15 / 293.15, 6)
+    expect(hot.prechargeAtOperatingTemperature.value).toBeCloseTo((1000 * 323.15) / 293.15, 6)
   })
 
   it('refuses impossible limits', () => {
@@ -69,9 +76,23 @@ describe('real gas sizing', () => {
   })
 
   it('a brake accumulator on a cold-soaked day gives fewer applications', () => {
-    const brake = { gasVolume: { value: 60, unit: 'in3' as const }, precharge: psig(1000), prechargeTemperature: { value: 21, unit: 'C' as const }, maxPressure: psig(3000), minPressure: psig(1500), perApplication: { value: 2.5, unit: 'in3' as const } }
-    const envelope = usableVolumeEnvelope({ ...brake, temperatures: [{ label: 'Cold soak', temperature: { value: -40, unit: 'C' } }, { label: 'Standard day', temperature: { value: 15, unit: 'C' } }, { label: 'Hot day', temperature: { value: 50, unit: 'C' } }] })
-    const applications = envelope.rows.map(row => 'result' in row ? row.result.applications! : -1)
+    const brake = {
+      gasVolume: { value: 60, unit: 'in3' as const },
+      precharge: psig(1000),
+      prechargeTemperature: { value: 21, unit: 'C' as const },
+      maxPressure: psig(3000),
+      minPressure: psig(1500),
+      perApplication: { value: 2.5, unit: 'in3' as const },
+    }
+    const envelope = usableVolumeEnvelope({
+      ...brake,
+      temperatures: [
+        { label: 'Cold soak', temperature: { value: -40, unit: 'C' } },
+        { label: 'Standard day', temperature: { value: 15, unit: 'C' } },
+        { label: 'Hot day', temperature: { value: 50, unit: 'C' } },
+      ],
+    })
+    const applications = envelope.rows.map(row => ('result' in row ? row.result.applications! : -1))
     expect(applications[0]).toBeLessThan(applications[1]!)
     expect(applications.every(count => count > 0)).toBe(true)
   })
@@ -79,7 +100,12 @@ describe('real gas sizing', () => {
 
 describe('inverse and optimum', () => {
   it('required volume gives back the demanded applications exactly', () => {
-    const result = requiredVolume({ ...textbook, model: 'real', applications: 12, perApplication: { value: 10, unit: 'in3' } })
+    const result = requiredVolume({
+      ...textbook,
+      model: 'real',
+      applications: 12,
+      perApplication: { value: 10, unit: 'in3' },
+    })
     expect(result.gasVolume.unit).toBe('in3')
     expect(result.check.applications).toBe(12)
     expect(result.check.usableVolume.value).toBeCloseTo(120, 6)
@@ -101,7 +127,12 @@ describe('inverse and optimum', () => {
 describe('curves for the sizing plots', () => {
   it('the discharge curve runs from the maximum to the minimum pressure, with applications as steps on it', async () => {
     const { dischargeCurve } = await import('../../shared/gas/usable-volume')
-    const curve = dischargeCurve({ ...textbook, discharge: 'isothermal', perApplication: { value: 0.02, unit: 'L' }, points: 11 })
+    const curve = dischargeCurve({
+      ...textbook,
+      discharge: 'isothermal',
+      perApplication: { value: 0.02, unit: 'L' },
+      points: 11,
+    })
     expect(curve.pressure[0]).toBeCloseTo(3000, 6)
     expect(curve.pressure.at(-1)).toBeCloseTo(2000, 6)
     expect(curve.delivered.at(-1)).toBeCloseTo(1 / 6, 10)

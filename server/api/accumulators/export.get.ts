@@ -1,10 +1,9 @@
-import { Accumulator, Aircraft } from '../../models'
+import { noQuerySchema } from '#shared/schemas/common'
+import { exportRegister } from '../../services/exports'
 
 /** Accumulators as CSV, in the import format. */
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
-  const rows = await Accumulator.findAll({ include: [{ model: Aircraft, as: 'aircraft' }], order: [['partNumber', 'ASC'], ['serialNumber', 'ASC']] })
-  return sendCsv(event, 'accumulators', rows.map(row => ({
-    partNumber: row.partNumber, serialNumber: row.serialNumber, system: row.system, registration: row.aircraft?.registration, position: row.position, installedAt: row.installedAt,
-  })), ['partNumber', 'serialNumber', 'system', 'registration', 'position', 'installedAt'])
+  await requireAbility(event, 'register.read')
+  await getValidatedQuery(event, validateWith(noQuerySchema))
+  return exportRegister(event, 'accumulators')
 })

@@ -1,12 +1,9 @@
-import { Notification } from '../../models'
+import { noQuerySchema } from '#shared/schemas/common'
+import { outbox } from '../../services/notifications'
 
 /** E-mails Chargewell sent (or failed to send), and, with the local fake SMTP server, what it received. */
 export default defineEventHandler(async (event) => {
-  await requireRole(event, 'admin')
-  const notifications = await Notification.findAll({ order: [['id', 'DESC']], limit: 200 })
-  return {
-    fakeSmtp: useRuntimeConfig().fakeSmtp === 'fake',
-    notifications: notifications.map(notification => notification.get({ plain: true })),
-    received: fakeInbox(),
-  }
+  await requireAbility(event, 'outbox.read')
+  await getValidatedQuery(event, validateWith(noQuerySchema))
+  return outbox()
 })

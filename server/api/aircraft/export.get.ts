@@ -1,10 +1,9 @@
-import { Aircraft } from '../../models'
-
-const AIRCRAFT_COLUMNS = ['registration', 'fleetNumber', 'type', 'base', 'active']
+import { noQuerySchema } from '#shared/schemas/common'
+import { exportRegister } from '../../services/exports'
 
 /** The fleet as CSV, in the import format. */
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
-  const rows = await Aircraft.findAll({ order: [['registration', 'ASC']] })
-  return sendCsv(event, 'aircraft', rows.map(row => row.get({ plain: true })), AIRCRAFT_COLUMNS)
+  await requireAbility(event, 'register.read')
+  await getValidatedQuery(event, validateWith(noQuerySchema))
+  return exportRegister(event, 'aircraft')
 })

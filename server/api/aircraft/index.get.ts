@@ -1,20 +1,9 @@
-import { aircraftQuerySchema } from '../../../shared/schemas/registers'
-import { Aircraft } from '../../models'
+import { aircraftQuerySchema } from '#shared/schemas/aircraft'
+import { listAircraft } from '../../services/aircraft'
 
-/** The fleet: search, filter by type, base and active, sort, pages. Every signed-in role. */
+/** The fleet: search, filter by type, base and active, sort, pages. */
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireAbility(event, 'register.read')
   const query = await getValidatedQuery(event, validateWith(aircraftQuerySchema))
-  const { total, rows } = await pageOf(Aircraft, {
-    where: {
-      ...searchWhere(query.q, ['registration', 'fleetNumber', 'type', 'base']),
-      ...(query.type ? { type: query.type } : {}),
-      ...(query.base ? { base: query.base } : {}),
-      ...(query.active !== undefined ? { active: query.active } : {}),
-    },
-    order: [[query.sort, query.direction.toUpperCase()]],
-    page: query.page,
-    pageSize: query.pageSize,
-  })
-  return { total, items: rows.map(row => row.get({ plain: true })) }
+  return listAircraft(query)
 })

@@ -1,10 +1,10 @@
-import { idParamsSchema } from '../../../shared/schemas/auth'
+import { idParamsSchema } from '#shared/schemas/common'
 import { removeAttachment } from '../../services/attachments'
+import { versioned } from '../../services/worksheets'
 
 /** Removes a photo or certificate from a worksheet the performer is still filling; answers the worksheet. */
 export default defineEventHandler(async (event) => {
   const user = await requireAbility(event, 'worksheet.perform')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  const worksheetId = await removeAttachment(user, id)
-  return worksheetAnswer(event, worksheetId)
+  return versioned(event, await removeAttachment(user, id))
 })

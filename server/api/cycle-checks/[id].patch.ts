@@ -1,5 +1,5 @@
-import { idParamsSchema } from '../../../shared/schemas/auth'
-import { cycleCheckCorrectionSchema } from '../../../shared/schemas/cycle-check'
+import { idParamsSchema } from '#shared/schemas/common'
+import { cycleCheckCorrectionSchema } from '#shared/schemas/cycle-check'
 import { correctCycleCheck } from '../../services/cycle-checks'
 
 /** Corrects a check's figures (by the one who recorded it, or an engineer); the leak rate is recomputed. */

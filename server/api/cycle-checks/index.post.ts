@@ -1,4 +1,4 @@
-import { cycleCheckSchema } from '../../../shared/schemas/cycle-check'
+import { cycleCheckSchema } from '#shared/schemas/cycle-check'
 import { recordCycleCheck } from '../../services/cycle-checks'
 
 /** Logs a pump cycle check; the server works out the implied leak rate from the system accumulator. */

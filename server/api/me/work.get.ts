@@ -1,4 +1,4 @@
-import { noQuerySchema } from '../../../shared/schemas/cycle-check'
+import { noQuerySchema } from '#shared/schemas/common'
 import { homeWork } from '../../services/home'
 
 /** What waits for the signed-in user: their drafts and returned work, the countersign queue, alerts, tools due. */

@@ -1,11 +1,9 @@
-import { idParamsSchema } from '../../../shared/schemas/auth'
-import { Specification, SpecificationTablePoint } from '../../models'
-import { toSpecificationDto } from '../../utils/registers'
+import { idParamsSchema } from '#shared/schemas/common'
+import { specificationById } from '../../services/specifications'
 
+/** One specification revision with its approved-data table. */
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireAbility(event, 'register.read')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  const specification = await Specification.findByPk(id, { include: [{ model: SpecificationTablePoint, as: 'tablePoints' }] })
-  if (!specification) throw createError({ status: 404, message: 'Specification not found.' })
-  return toSpecificationDto(specification)
+  return specificationById(id)
 })

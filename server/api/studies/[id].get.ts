@@ -1,7 +1,9 @@
-import { idParamsSchema } from '../../../shared/schemas/auth'
+import { idParamsSchema } from '#shared/schemas/common'
+import { studyById } from '../../services/studies'
 
+/** One study with its inputs and frozen results. */
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireAbility(event, 'study.read')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  return toStudyDto(await findStudy(id))
+  return studyById(id)
 })

@@ -1,10 +1,9 @@
-import { idParamsSchema } from '../../../shared/schemas/auth'
-import { Tool } from '../../models'
+import { idParamsSchema } from '#shared/schemas/common'
+import { toolById } from '../../services/tools'
 
+/** One gauge or cart with its calibration state. */
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireAbility(event, 'register.read')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  const tool = await Tool.findByPk(id)
-  if (!tool) throw createError({ status: 404, statusMessage: 'Not Found', message: 'Tool not found.' })
-  return toToolDto(tool)
+  return toolById(id)
 })

@@ -1,7 +1,9 @@
-import { Tool } from '../../models'
+import { noQuerySchema } from '#shared/schemas/common'
+import { exportRegister } from '../../services/exports'
 
+/** The tool register as CSV, in the import format. */
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
-  const rows = await Tool.findAll({ order: [['kind', 'DESC'], ['assetNumber', 'ASC']] })
-  return sendCsv(event, 'tools', rows.map(row => row.get({ plain: true })), ['kind', 'assetNumber', 'description', 'rangeMax', 'rangeUnit', 'resolution', 'accuracy', 'accuracyUnit', 'calibrationDue', 'active'])
+  await requireAbility(event, 'register.read')
+  await getValidatedQuery(event, validateWith(noQuerySchema))
+  return exportRegister(event, 'tools')
 })

@@ -1,22 +1,9 @@
-import { Op } from 'sequelize'
-import { toolQuerySchema } from '../../../shared/schemas/registers'
-import { Tool } from '../../models'
+import { toolQuerySchema } from '#shared/schemas/tools'
+import { listTools } from '../../services/tools'
 
-/** Gauges and nitrogen carts with their calibration state: search, filter, sort, pages. Every signed-in role. */
+/** Gauges and nitrogen carts with their calibration state: search, filter, sort, pages. */
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireAbility(event, 'register.read')
   const query = await getValidatedQuery(event, validateWith(toolQuerySchema))
-  const today = stationToday()
-  const { total, rows } = await pageOf(Tool, {
-    where: {
-      ...searchWhere(query.q, ['assetNumber', 'description']),
-      ...(query.kind ? { kind: query.kind } : {}),
-      ...(query.active !== undefined ? { active: query.active } : {}),
-      ...(query.calibration === 'expired' ? { calibrationDue: { [Op.lt]: today } } : query.calibration === 'valid' ? { calibrationDue: { [Op.gte]: today } } : {}),
-    },
-    order: [[query.sort, query.direction.toUpperCase()]],
-    page: query.page,
-    pageSize: query.pageSize,
-  })
-  return { total, items: rows.map(toToolDto) }
+  return listTools(query)
 })

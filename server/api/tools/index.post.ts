@@ -1,15 +1,10 @@
-import { toolSchema } from '../../../shared/schemas/registers'
-import { appendAudit } from '../../database/audit-chain'
-import { Tool } from '../../models'
+import { toolSchema } from '#shared/schemas/tools'
+import { createTool } from '../../services/tools'
 
+/** Adds a gauge or nitrogen cart to the register. */
 export default defineEventHandler(async (event) => {
-  const user = await requireRole(event, 'admin')
+  const user = await requireAbility(event, 'tool.manage')
   const body = await readValidatedBody(event, validateWith(toolSchema))
-  const tool = await uniqueOr409(() => writeTransaction(async (transaction) => {
-    const created = await Tool.create(body, { transaction })
-    await appendAudit({ actorId: user.id, entity: 'tool', entityId: String(created.id), action: 'created', detail: body }, transaction)
-    return created
-  }), 'A tool with that asset number is already registered.')
   setResponseStatus(event, 201)
-  return toToolDto(tool)
+  return createTool(user, body)
 })

@@ -1,7 +1,9 @@
-import { idParamsSchema } from '../../../shared/schemas/auth'
+import { idParamsSchema } from '#shared/schemas/common'
+import { versioned, worksheetById } from '../../services/worksheets'
 
+/** One worksheet: content, results, signatures, attachments; its version as the ETag. */
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireAbility(event, 'worksheet.read')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  return worksheetAnswer(event, id)
+  return versioned(event, await worksheetById(id))
 })

@@ -1,9 +1,9 @@
-import { worksheetListQuerySchema } from '../../../shared/schemas/worksheet'
+import { worksheetListQuerySchema } from '#shared/schemas/worksheet'
 import { listWorksheets } from '../../services/worksheet-list'
 
-/** Worksheets with filters, prefix search, sort and cursor pages; every signed-in role may read them. */
+/** Worksheets with filters, prefix search, sort and cursor pages. */
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireAbility(event, 'worksheet.read')
   const query = await getValidatedQuery(event, validateWith(worksheetListQuerySchema))
   return listWorksheets(query)
 })

@@ -1,4 +1,5 @@
-import { idParamsSchema, userUpdateSchema } from '../../../../shared/schemas/auth'
+import { userUpdateSchema } from '#shared/schemas/auth'
+import { idParamsSchema } from '#shared/schemas/common'
 import { updateUser } from '../../../services/users'
 
 /** Name, roles, authorisation number, enable/disable. An admin cannot lock themselves out. */

@@ -1,7 +1,9 @@
-import { User } from '../../../models'
+import { noQuerySchema } from '#shared/schemas/common'
+import { listUsers } from '../../../services/users'
 
+/** Every user with roles and authorisation number (never a password hash). */
 export default defineEventHandler(async (event) => {
-  await requireRole(event, 'admin')
-  const users = await User.findAll({ order: [['name', 'ASC']] })
-  return users.map(user => user.toPublic())
+  await requireAbility(event, 'user.manage')
+  await getValidatedQuery(event, validateWith(noQuerySchema))
+  return listUsers()
 })

@@ -1,4 +1,4 @@
-import { userCreateSchema } from '../../../../shared/schemas/auth'
+import { userCreateSchema } from '#shared/schemas/auth'
 import { createUser } from '../../../services/users'
 
 /** A new user with roles and a first password (the admin hands it over). */

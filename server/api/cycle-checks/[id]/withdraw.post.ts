@@ -1,5 +1,5 @@
-import { idParamsSchema } from '../../../../shared/schemas/auth'
-import { cycleCheckWithdrawSchema } from '../../../../shared/schemas/cycle-check'
+import { idParamsSchema } from '#shared/schemas/common'
+import { cycleCheckWithdrawSchema } from '#shared/schemas/cycle-check'
 import { withdrawCycleCheck } from '../../../services/cycle-checks'
 
 /** Withdraws a check with a reason: kept, and left out of the system's trend. */

@@ -1,14 +1,10 @@
-import { idParamsSchema } from '../../../../shared/schemas/auth'
-import { UserSession } from '../../../models'
-import { endSession } from '../../../services/sessions'
+import { idParamsSchema } from '#shared/schemas/common'
+import { endOwnSession } from '../../../services/sessions'
 
-/** Ends one of the user's own sessions (a device left signed in). */
+/** Ends one of the user's own sessions (a device left signed in); ending this one signs out here. */
 export default defineEventHandler(async (event) => {
-  const user = await requireRole(event)
+  const user = await requireAbility(event, 'account.own')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  const session = await UserSession.findOne({ where: { id, userId: user.id } })
-  if (!session) throw createError({ status: 404, statusMessage: 'Not Found', message: 'No such session of yours.' })
-  await endSession(session.id, id === event.context.sessionId ? 'signed-out' : 'ended-by-user')
-  if (id === event.context.sessionId) await clearUserSession(event)
+  await endOwnSession(event, user, id)
   return { ended: true }
 })

@@ -1,10 +1,8 @@
-import { UserSession } from '../../../models'
-import { endAllSessions } from '../../../services/sessions'
+import { endOtherSessions } from '../../../services/sessions'
 
 /** "Sign out everywhere else": every session of the user but this one ends. */
 export default defineEventHandler(async (event) => {
-  const user = await requireRole(event)
-  const current = await UserSession.findByPk(event.context.sessionId)
-  await writeTransaction(transaction => endAllSessions(user, 'signed-out-everywhere', transaction, current ?? undefined))
+  const user = await requireAbility(event, 'account.own')
+  await endOtherSessions(user, event.context.sessionId)
   return { ended: true }
 })

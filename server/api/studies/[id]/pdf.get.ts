@@ -1,11 +1,9 @@
-import { idParamsSchema } from '../../../../shared/schemas/auth'
+import { idParamsSchema } from '#shared/schemas/common'
+import { studyPdf } from '../../../services/studies'
 
 /** The study as a PDF report: inputs, results per temperature, warnings, method and engine version. */
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireAbility(event, 'study.read')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  const study = await findStudy(id)
-  setResponseHeader(event, 'content-type', 'application/pdf')
-  setResponseHeader(event, 'content-disposition', `attachment; filename="chargewell-study-${study.id}.pdf"`)
-  return Buffer.from(await studyPdf(toStudyDto(study)))
+  return sendPdf(event, `study-${id}`, await studyPdf(id))
 })

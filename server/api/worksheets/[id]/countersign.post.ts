@@ -1,12 +1,11 @@
-import { idParamsSchema } from '../../../../shared/schemas/auth'
-import { signatureSchema } from '../../../../shared/schemas/worksheet'
-import { countersignWorksheet } from '../../../services/worksheets'
+import { idParamsSchema } from '#shared/schemas/common'
+import { signatureSchema } from '#shared/schemas/worksheet'
+import { countersignWorksheet, versioned } from '../../../services/worksheets'
 
-/** Independent inspection: an inspector who did not do the work countersigns, and the record is released. */
+/** Independent inspection: an inspector who did not do the work countersigns; the record is released. */
 export default defineEventHandler(async (event) => {
-  const user = await requireRole(event, 'inspector')
+  const user = await requireAbility(event, 'worksheet.inspect')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
   const { password } = await readValidatedBody(event, validateWith(signatureSchema))
-  await countersignWorksheet(user, id, password, expectedVersion(event))
-  return worksheetAnswer(event, id)
+  return versioned(event, await countersignWorksheet(user, id, password, expectedVersion(event)))
 })

@@ -1,12 +1,11 @@
-import { idParamsSchema } from '../../../../shared/schemas/auth'
-import { reasonSchema } from '../../../../shared/schemas/worksheet'
-import { voidWorksheet } from '../../../services/worksheets'
+import { idParamsSchema } from '#shared/schemas/common'
+import { reasonSchema } from '#shared/schemas/worksheet'
+import { voidWorksheet, versioned } from '../../../services/worksheets'
 
-/** Voids a worksheet with a reason (inspector or admin). The record stays, readable, marked voided. */
+/** Voids a worksheet with a reason. The record stays, readable, marked voided. */
 export default defineEventHandler(async (event) => {
-  const user = await requireRole(event, 'inspector', 'admin')
+  const user = await requireAbility(event, 'worksheet.void')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
   const { reason } = await readValidatedBody(event, validateWith(reasonSchema))
-  await voidWorksheet(user, id, reason, expectedVersion(event))
-  return worksheetAnswer(event, id)
+  return versioned(event, await voidWorksheet(user, id, reason, expectedVersion(event)))
 })

@@ -1,4 +1,5 @@
-import { idParamsSchema, passwordResetSchema } from '../../../../../shared/schemas/auth'
+import { passwordResetSchema } from '#shared/schemas/auth'
+import { idParamsSchema } from '#shared/schemas/common'
 import { resetPassword } from '../../../../services/users'
 
 /** Sets a new password for a user (the admin hands it over; the user should change it); their sessions end. */

@@ -1,0 +1,86 @@
+import { Op } from 'sequelize'
+import type { WorksheetContent } from '#shared/types/worksheet'
+import { can } from '#shared/abilities'
+import type { AlertChange } from '../database/trend-store'
+import { Notification, User, type Worksheet } from '../models'
+
+/**
+ * Every e-mail Chargewell sends, worded once: the countersign request, the return to the
+ * performer, trend alerts. Sent after the write that caused them committed; each is kept in
+ * the outbox (sent or failed) by sendMail.
+ */
+
+const GOVERNS = 'The approved maintenance data and local regulations govern.'
+const link = (path: string) => `${useRuntimeConfig().publicUrl}${path}`
+const activeUsers = (except?: number) =>
+  User.findAll({ where: { disabled: false, ...(except ? { id: { [Op.ne]: except } } : {}) } })
+
+function unitOf(worksheet: Worksheet): string {
+  const content = worksheet.content as WorksheetContent
+  return `${content.aircraft.registration}, ${content.accumulator.position}`
+}
+
+/** The performer signed: every other inspector is asked to countersign. */
+export async function askForCountersign(worksheet: Worksheet, performer: Pick<User, 'id' | 'name'>): Promise<void> {
+  const content = worksheet.content as WorksheetContent
+  const inspectors = (await activeUsers(performer.id)).filter(user => can(user.roles, 'worksheet.inspect'))
+  await Promise.all(
+    inspectors.map(inspector =>
+      sendMail({
+        to: inspector.email,
+        kind: 'awaiting-countersign',
+        worksheetId: worksheet.id,
+        subject: `Worksheet ${worksheet.id} awaits countersign — ${unitOf(worksheet)}`,
+        text:
+          `${performer.name} signed worksheet ${worksheet.id} (work order ${worksheet.workOrder}) for ${unitOf(worksheet)}, `
+          + `P/N ${content.accumulator.partNumber} S/N ${content.accumulator.serialNumber}.\n\n`
+          + `It awaits independent inspection: ${link(`/worksheets/${worksheet.id}`)}\n\n${GOVERNS}`,
+      }),
+    ),
+  )
+}
+
+/** The inspector returned the work: the performer is told why. */
+export async function tellReturned(worksheet: Worksheet, inspector: Pick<User, 'name'>, reason: string): Promise<void> {
+  const performer = await User.findByPk(worksheet.performerId)
+  if (!performer) return
+  await sendMail({
+    to: performer.email,
+    kind: 'returned',
+    worksheetId: worksheet.id,
+    subject: `Worksheet ${worksheet.id} returned — ${unitOf(worksheet)}`,
+    text:
+      `${inspector.name} returned worksheet ${worksheet.id} (work order ${worksheet.workOrder}) to you.\n\nReason: ${reason}\n\n`
+      + `Correct it and sign again: ${link(`/worksheets/${worksheet.id}`)}`,
+  })
+}
+
+/** One e-mail to every engineer per newly raised trend alert. */
+export async function mailAlerts(changes: AlertChange[]): Promise<void> {
+  if (changes.length === 0) return
+  const engineers = (await activeUsers()).filter(user => can(user.roles, 'specification.manage'))
+  for (const { kind, message } of changes) {
+    await Promise.all(
+      engineers.map(engineer =>
+        sendMail({
+          to: engineer.email,
+          kind: `trend-${kind}`,
+          subject: `Trend alert: ${message.slice(0, 90)}`,
+          text: `${message}\n\nSee ${link('/trends')}\n\n${GOVERNS}`,
+        }),
+      ),
+    )
+  }
+}
+
+/** The outbox: what Chargewell sent (or failed to send), and what the local fake SMTP server received. */
+export async function outbox(): Promise<OutboxDto> {
+  const notifications = await Notification.findAll({ order: [['id', 'DESC']], limit: 200 })
+  return {
+    fakeSmtp: useRuntimeConfig().fakeSmtp === 'fake',
+    notifications: notifications.map(({ id, recipient, subject, body, kind, status, error, createdAt }) => ({
+      id, recipient, subject, body, kind, status, error, createdAt: createdAt.toISOString(),
+    })),
+    received: fakeInbox(),
+  }
+}

@@ -1,0 +1,69 @@
+import { UniqueConstraintError, type Transaction } from 'sequelize'
+import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT } from '#shared/types/worksheet'
+import { Signature, User } from '../models'
+
+/**
+ * Signatures on a worksheet: the signer as the database holds them now (never a cached name or
+ * authorisation), the password re-entered, and one performer and one inspector signature per
+ * round — the database's unique index refuses a second whatever the interleaving.
+ */
+
+export type Capacity = 'performer' | 'inspector'
+const STATEMENT: Record<Capacity, string> = { performer: PERFORMER_STATEMENT, inspector: INSPECTOR_STATEMENT }
+
+/** The signer as stored now; a disabled account cannot sign. */
+export async function currentSigner(id: number): Promise<User> {
+  const fresh = await User.findByPk(id)
+  if (!fresh || fresh.disabled) {
+    throw createError({
+      status: 401,
+      statusMessage: 'Unauthorized',
+      message: 'Your account is no longer active; the signature was not made.',
+    })
+  }
+  return fresh
+}
+
+/** The password re-entered to sign (checked outside any write: it takes tens of milliseconds on purpose). */
+export async function confirmPassword(user: Pick<User, 'passwordHash'>, password: string): Promise<void> {
+  if (await verifyPassword(user.passwordHash, password)) return
+  throw createError({
+    status: 401,
+    statusMessage: 'Unauthorized',
+    message: 'That password is not right; the signature was not made.',
+    data: { issues: [{ path: ['password'], field: 'password', message: 'Not your password.' }] },
+  })
+}
+
+/** Writes one signature of a round, in the caller's transaction; a second for the same round and capacity is 409. */
+export async function createSignature(
+  worksheet: { id: number, round: number },
+  signer: Pick<User, 'id' | 'name' | 'authorisationNumber'>,
+  capacity: Capacity,
+  signedAt: Date,
+  transaction: Transaction,
+): Promise<void> {
+  try {
+    await Signature.create(
+      {
+        worksheetId: worksheet.id,
+        userId: signer.id,
+        capacity,
+        name: signer.name,
+        authorisationNumber: signer.authorisationNumber,
+        statement: STATEMENT[capacity],
+        signedAt,
+        round: worksheet.round,
+      },
+      { transaction },
+    )
+  }
+  catch (error) {
+    if (!(error instanceof UniqueConstraintError)) throw error
+    throw createError({
+      status: 409,
+      statusMessage: 'Conflict',
+      message: 'This worksheet already carries that signature for this round; it was not signed twice.',
+    })
+  }
+}

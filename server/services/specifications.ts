@@ -1,0 +1,184 @@
+import type { H3Event } from 'h3'
+import type { Transaction } from 'sequelize'
+import type { z } from 'zod'
+import type {
+  SpecificationBody,
+  specificationQuerySchema,
+  specificationUpdateSchema,
+} from '#shared/schemas/specifications'
+import { specificationCsvRow } from '#shared/schemas/csv'
+import { SPECIFICATION_LOCAL_FIELDS, specificationSchema } from '#shared/schemas/specifications'
+import type { SpecificationDto } from '#shared/types/registers'
+import { appendAudit } from '../database/audit-chain'
+import { Specification, SpecificationTablePoint, type User } from '../models'
+import { findOr404, unprocessable } from './records'
+import { trendAfterSpecificationChange } from './trends'
+
+/**
+ * Servicing specifications: one current revision per part number. A change to the approved-data
+ * figures is a new revision that supersedes the old (worksheets keep the revision they froze);
+ * title, check interval and loss threshold change in place.
+ */
+
+const WITH_POINTS = { include: [{ model: SpecificationTablePoint, as: 'tablePoints' }] }
+
+export function toSpecificationDto(specification: Specification): SpecificationDto {
+  const {
+    createdAt: _created,
+    updatedAt: _updated,
+    supersedesId: _supersedes,
+    tablePoints,
+    ...fields
+  } = specification.get({ plain: true }) as Specification
+  const points = (tablePoints ?? []).map(point => ({
+    temperature: point.temperature,
+    temperatureUnit: point.temperatureUnit,
+    pressure: point.pressure,
+  }))
+  return { ...fields, tablePoints: points.sort((a, b) => a.temperature - b.temperature) }
+}
+
+/** The revision in force for a part number (with its approved-data table), or null when engineering has none. */
+export function currentSpecification(partNumber: string, transaction?: Transaction): Promise<Specification | null> {
+  return Specification.findOne({ where: { partNumber, status: 'current' }, ...WITH_POINTS, transaction })
+}
+
+export async function listSpecifications(query: z.infer<typeof specificationQuerySchema>) {
+  const { total, rows } = await pageOf(Specification, {
+    where: {
+      ...searchWhere(query.q, ['partNumber', 'title', 'dataReference']),
+      ...(query.status === 'all' ? {} : { status: query.status }),
+      ...(query.accumulatorType ? { accumulatorType: query.accumulatorType } : {}),
+    },
+    ...WITH_POINTS,
+    order: [
+      [query.sort, query.direction.toUpperCase()],
+      ['revision', 'DESC'],
+    ],
+    page: query.page,
+    pageSize: query.pageSize,
+  })
+  return { total, items: rows.map(toSpecificationDto) }
+}
+
+export async function specificationById(id: number): Promise<SpecificationDto> {
+  return toSpecificationDto(await findOr404(Specification, id, 'Specification', WITH_POINTS))
+}
+
+/**
+ * Writes a revision with its table points (inside the caller's transaction), marks the revision
+ * it supersedes, and audits both.
+ */
+export async function createRevision(
+  body: SpecificationBody,
+  supersedesId: number | null,
+  actorId: number | null,
+  transaction: Transaction,
+) {
+  const { tablePoints, ...fields } = body
+  const audit = (id: number, action: string, detail: object) =>
+    appendAudit({ actorId, entity: 'specification', entityId: String(id), action, detail: { ...detail } }, transaction)
+  if (supersedesId) {
+    await Specification.update({ status: 'superseded' }, { where: { id: supersedesId }, transaction })
+    await audit(supersedesId, 'superseded', { by: fields.revision })
+  }
+  const created = await Specification.create({ ...fields, status: 'current', supersedesId }, { transaction })
+  for (const point of tablePoints)
+    await SpecificationTablePoint.create({ ...point, specificationId: created.id }, { transaction })
+  await audit(created.id, supersedesId ? 'revised' : 'created', {
+    partNumber: fields.partNumber,
+    revision: fields.revision,
+    supersedesId,
+  })
+  return toSpecificationDto((await Specification.findByPk(created.id, { ...WITH_POINTS, transaction }))!)
+}
+
+/** A specification for a part number not yet in the register. */
+export async function createSpecification(actor: User, body: SpecificationBody): Promise<SpecificationDto> {
+  const current = await currentSpecification(body.partNumber)
+  if (current) {
+    throw createError({
+      status: 409,
+      statusMessage: 'Conflict',
+      data: { field: 'partNumber' },
+      message: `P/N ${body.partNumber} already has a current specification (rev ${current.revision}); issue a new revision of it instead.`,
+    })
+  }
+  const conflict = 'That part number and revision already exist.'
+  const created = await uniqueOr409(
+    () => writeTransaction(transaction => createRevision(body, null, actor.id, transaction)),
+    conflict,
+  )
+  await trendAfterSpecificationChange(body.partNumber)
+  return created
+}
+
+/** A change in place (title, check interval, loss threshold), or a new revision; `revised` says which. */
+export async function changeSpecification(actor: User, id: number, changes: z.infer<typeof specificationUpdateSchema>) {
+  const specification = await findOr404(Specification, id, 'Specification', WITH_POINTS)
+  if (specification.status !== 'current') {
+    throw createError({
+      status: 409,
+      statusMessage: 'Conflict',
+      message: `Rev ${specification.revision} is superseded; change the current revision instead.`,
+    })
+  }
+  const local = Object.keys(changes).every(key => (SPECIFICATION_LOCAL_FIELDS as readonly string[]).includes(key))
+  if (local) {
+    await writeTransaction(async (transaction) => {
+      await specification.update(changes, { transaction })
+      await appendAudit(
+        { actorId: actor.id, entity: 'specification', entityId: String(id), action: 'updated', detail: changes },
+        transaction,
+      )
+    })
+    // A new threshold or check interval changes which units are flagged.
+    await trendAfterSpecificationChange(specification.partNumber)
+    return { revised: false, specification: toSpecificationDto(specification) }
+  }
+  if (!changes.revision || changes.revision === specification.revision) {
+    unprocessable(
+      'A change to the approved-data figures is a new revision: give the new revision letter or number.',
+      'revision',
+    )
+  }
+  const { id: _id, status: _status, ...currentFields } = toSpecificationDto(specification)
+  const next = parseInput(specificationSchema, { ...currentFields, ...changes })
+  const created = await uniqueOr409(
+    () => writeTransaction(transaction => createRevision(next, specification.id, actor.id, transaction)),
+    'That revision already exists for this part number.',
+  )
+  await trendAfterSpecificationChange(specification.partNumber)
+  return { revised: true, specification: created }
+}
+
+/**
+ * From CSV: a new part number is added; a new revision supersedes its current one. Every row valid, or nothing
+ * imported.
+ */
+export async function importSpecifications(event: H3Event, actor: User) {
+  const partNumbers = new Set<string>()
+  const report = await importCsv(
+    event,
+    specificationCsvRow,
+    async (row, transaction) => {
+      partNumbers.add(row.partNumber)
+      const current = await currentSpecification(row.partNumber, transaction)
+      await createRevision(row, current?.id ?? null, actor.id, transaction)
+    },
+    async (row, line) => {
+      const same = await Specification.findOne({ where: { partNumber: row.partNumber, revision: row.revision } })
+      return same
+        ? [
+            {
+              line,
+              field: 'revision',
+              message: `P/N ${row.partNumber} rev ${row.revision} is already in the register.`,
+            },
+          ]
+        : []
+    },
+  )
+  for (const partNumber of partNumbers) await trendAfterSpecificationChange(partNumber)
+  return report
+}

@@ -1,0 +1,17 @@
+/** The outbox an administrator reads (`GET /api/admin/outbox`). */
+export interface OutboxDto {
+  /** The local fake SMTP server is catching mail (development, tests, demo). */
+  fakeSmtp: boolean
+  notifications: {
+    id: number
+    recipient: string
+    subject: string
+    body: string
+    kind: string
+    status: 'sent' | 'failed'
+    error: string | null
+    createdAt: string
+  }[]
+  /** What the fake SMTP server received. */
+  received: { receivedAt: string, to: string[], subject: string, text: string }[]
+}
