@@ -1,7 +1,6 @@
 import { Op, UniqueConstraintError, type Transaction } from 'sequelize'
 import { isEngineInputError } from '../../shared/gas/errors'
 import { fitPrechargeTrend, normalisePrechargeReading, type PrechargeFit } from '../../shared/gas/leakage'
-import type { WorksheetContent } from '../../shared/types/worksheet'
 import { specificationPressure } from '../../shared/utils/specification-target'
 import { assessUnitTrend, type UnitTrendFlag } from '../../shared/utils/trend-flags'
 import { Accumulator, Aircraft, PrechargeReading, Specification, TrendAlert, UnitTrend, Worksheet } from '../models'
@@ -41,7 +40,7 @@ export function currentSpecification(partNumber: string, transaction?: Transacti
 
 /** A released worksheet's readings: its as-found, and its as-left when a charge or vent started a new segment. */
 function readingsOf(worksheet: Worksheet) {
-  const content = worksheet.content as unknown as WorksheetContent
+  const content = worksheet.content
   if (!content.asFound || !content.conditions) return []
   const action = content.action?.kind ?? 'none'
   const found = {
@@ -84,7 +83,7 @@ function readingRows(worksheet: Worksheet, specification: Specification | null) 
 
 /** Stores a just-released worksheet's readings, normalised against its unit's current specification. */
 export async function storeReleasedReadings(worksheet: Worksheet, transaction: Transaction): Promise<void> {
-  const partNumber = (worksheet.content as unknown as WorksheetContent).accumulator.partNumber
+  const partNumber = (worksheet.content).accumulator.partNumber
   const rows = readingRows(worksheet, await currentSpecification(partNumber, transaction))
   if (rows.length) await PrechargeReading.bulkCreate(rows, { transaction })
 }

@@ -1,3 +1,5 @@
+import type { CycleCheckBody } from '../../shared/schemas/cycle-check'
+import type { CycleCheckResults } from '../../shared/types/trends'
 import {
   DataTypes,
   Model,
@@ -18,8 +20,8 @@ export class CycleCheck extends Model<InferAttributes<CycleCheck>, InferCreation
   declare accumulatorId: ForeignKey<number>
   declare system: string
   declare checkedAt: Date
-  declare inputs: Record<string, unknown>
-  declare results: Record<string, unknown>
+  declare inputs: CycleCheckBody
+  declare results: CycleCheckResults
   declare intervalSeconds: number
   declare engineVersion: string
   declare recordedById: ForeignKey<number>

@@ -18,7 +18,7 @@ export interface NewAttachment {
   worksheetId: number
   kind: string
   replacesId?: number
-  file: { name: string, data: Buffer }
+  file?: { name: string, data: Buffer }
 }
 
 function tooLarge(bytes: number): never {
@@ -32,6 +32,12 @@ function tooLarge(bytes: number): never {
 
 export async function attachFile(actor: User, upload: NewAttachment) {
   const { file } = upload
+  if (!file) {
+    throw createError({
+      status: 400, statusMessage: 'Bad Request', message: 'Attach the file in the field "file".',
+      data: { issues: [{ path: ['file'], field: 'file', message: 'No file.' }] },
+    })
+  }
   if (file.data.length > Number(useRuntimeConfig().uploadMaxBytes)) tooLarge(file.data.length)
   const mimeType = detectFileType(file.data)
   if (!mimeType)

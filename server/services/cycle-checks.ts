@@ -40,7 +40,7 @@ async function evaluate(body: CycleCheckBody) {
     accumulatorId: accumulator.id,
     system: body.system,
     checkedAt: body.checkedAt ? new Date(`${body.checkedAt}T12:00:00Z`) : new Date(),
-    inputs: body as unknown as Record<string, unknown>,
+    inputs: body,
     results: {
       fluidReleased: result.fluidReleased,
       leakRate: result.leakRate,
@@ -63,7 +63,7 @@ export function toCycleCheckDto(check: CycleCheck & { aircraft?: Aircraft }): Cy
     accumulatorId: plain.accumulatorId,
     checkedAt: plain.checkedAt.toISOString(),
     intervalSeconds: plain.intervalSeconds,
-    inputs: plain.inputs as unknown as CycleCheckBody,
+    inputs: plain.inputs,
     results: plain.results as CycleCheckDto['results'],
     engineVersion: plain.engineVersion,
     recordedById: plain.recordedById,

@@ -69,3 +69,11 @@ export interface CycleCheckDto {
   withdrawnAt: string | null
   withdrawnReason: string | null
 }
+
+/** What the engine found for a cycle check, as stored with it. */
+export interface CycleCheckResults {
+  fluidReleased: { value: number, unit: string }
+  leakRate: { value: number, unit: string }
+  warnings: string[]
+  method: string
+}

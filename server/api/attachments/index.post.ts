@@ -20,8 +20,6 @@ export default defineEventHandler(async (event) => {
   const text = (name: string) => parts.find(part => part.name === name && !part.filename)?.data.toString('utf8')
   const fields = parseInput(fieldsSchema, { worksheetId: text('worksheetId'), kind: text('kind'), replacesId: text('replacesId') || undefined })
   const file = parts.find(part => part.name === 'file' && part.filename)
-  if (!file) throw createError({ status: 400, statusMessage: 'Bad Request', message: 'Attach the file in the field "file".', data: { issues: [{ path: ['file'], field: 'file', message: 'No file.' }] } })
-  const attachment = await attachFile(user, { ...fields, file: { name: file.filename ?? 'file', data: file.data } })
   setResponseStatus(event, 201)
-  return attachment
+  return attachFile(user, { ...fields, file: file ? { name: file.filename ?? 'file', data: file.data } : undefined })
 })
