@@ -4,7 +4,7 @@ const packageFolder = (path: string) => fileURLToPath(new URL(`./node_modules/${
 
 // https://nuxt.com/docs/api/configuration/nuxt-config
 export default defineNuxtConfig({
-  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', '@vueuse/nuxt', 'nuxt-auth-utils', 'nuxt-security', '@nuxt/eslint'],
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', '@vueuse/nuxt', 'nuxt-auth-utils', 'nuxt-security', '@vite-pwa/nuxt', '@nuxt/eslint'],
   devtools: { enabled: false },
   app: {
     head: {
@@ -63,6 +63,9 @@ export default defineNuxtConfig({
   },
   // The repo root is the source root (no app/ folder); see DEVELOPERS.md.
   srcDir: '.',
+  // The app shell: a page rendered in the browser only, which the service worker serves for any page
+  // it cannot fetch (no signal on the ramp), so the app still opens and runs from what the device keeps.
+  routeRules: { '/app-shell': { ssr: false } },
   // Pages' code is fetched when a link is touched or focused, not when every link of the menu
   // scrolls into view: a page loads its own code (and chart code only where a chart is shown).
   experimental: { defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } } },
@@ -81,6 +84,46 @@ export default defineNuxtConfig({
   typescript: { strict: true },
   telemetry: false,
   eslint: { config: { stylistic: true } },
+  // Installable, and usable with no network once used: the built files are precached; pages are fetched
+  // from the network first and fall back to the app shell; the session is kept for an offline start. The
+  // data a technician needs offline is kept by the app itself in IndexedDB (stores/field-reference.ts).
+  pwa: {
+    registerType: 'autoUpdate',
+    strategies: 'generateSW',
+    manifest: {
+      name: 'Chargewell',
+      short_name: 'Chargewell',
+      description: 'Nitrogen pre-charge targets, servicing worksheets and accumulator sizing.',
+      theme_color: '#0f3b46',
+      background_color: '#f7f5f0',
+      display: 'standalone',
+      start_url: '/',
+      icons: [
+        { src: '/icon-192.png', sizes: '192x192', type: 'image/png' },
+        { src: '/icon-512.png', sizes: '512x512', type: 'image/png' },
+        { src: '/icon-maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+      ],
+    },
+    workbox: {
+      globPatterns: ['**/*.{js,css,woff,woff2,svg,png,ico}'],
+      navigateFallback: null,
+      additionalManifestEntries: [{ url: '/app-shell', revision: String(Date.now()) }],
+      runtimeCaching: [
+        {
+          urlPattern: ({ request }) => request.mode === 'navigate',
+          handler: 'NetworkFirst',
+          options: { cacheName: 'chargewell-pages', networkTimeoutSeconds: 6, expiration: { maxEntries: 40 }, precacheFallback: { fallbackURL: '/app-shell' } },
+        },
+        {
+          urlPattern: ({ url }) => url.pathname === '/api/_auth/session' || url.pathname === '/api/me',
+          handler: 'NetworkFirst',
+          options: { cacheName: 'chargewell-session', networkTimeoutSeconds: 6 },
+        },
+      ],
+    },
+    client: { installPrompt: false, periodicSyncForUpdates: 3600 },
+    devOptions: { enabled: false },
+  },
   // Headers on every answer: pages, API answers and errors alike. Scripts run only with the
   // per-request nonce (no inline script without it); nothing may frame the app. HSTS is sent by
   // server/middleware/2.hsts.ts, only over TLS. Size limits and sign-in throttling are our own.

@@ -2,8 +2,8 @@ import { toTypedSchema } from '@vee-validate/zod'
 import { useForm } from 'vee-validate'
 import type { ZodType, ZodTypeDef } from 'zod'
 import type { WorksheetStepBody } from '#shared/schemas/worksheet'
-import type { WorksheetDto } from '#shared/types/worksheet'
-import { useWorksheetDraftsStore } from '~~/stores/worksheet-drafts'
+import type { WorksheetView } from '#shared/types/worksheet'
+import { useFieldWorkStore } from '~~/stores/field-work'
 
 export type StepSaveStatus = 'idle' | 'saving' | 'saved' | 'queued' | 'error'
 
@@ -12,12 +12,12 @@ export type StepSaveStatus = 'idle' | 'saving' | 'saved' | 'queued' | 'error'
  * the draft store (so a reload restores it), saved to the server on submit or queued offline.
  */
 export function useWorksheetStepForm<Body extends WorksheetStepBody>(
-  worksheetId: number,
+  worksheetId: number | string,
   schema: ZodType<Body, ZodTypeDef, unknown>,
   initialValues: () => Partial<Body>,
-  onSaved: (worksheet: WorksheetDto) => void,
+  onSaved: (worksheet: WorksheetView) => void,
 ) {
-  const drafts = useWorksheetDraftsStore()
+  const drafts = useFieldWorkStore()
   const step = (initialValues() as { step: Body['step'] }).step
   const form = useForm({
     validationSchema: toTypedSchema(schema),

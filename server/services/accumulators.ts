@@ -1,3 +1,4 @@
+import QRCode from 'qrcode'
 import type { H3Event } from 'h3'
 import { Op, type Transaction } from 'sequelize'
 import type { z } from 'zod'
@@ -234,5 +235,18 @@ export async function importUnits(event: H3Event, actor: User) {
       { actorId: actor.id, entity: 'accumulator', entityId: String(created.id), action: 'imported', detail: row },
       transaction,
     )
+  })
+}
+
+/**
+ * The QR code of a unit's label: it opens the unit's page, where its worksheets start. An SVG, crisp at any
+ * print size.
+ */
+export async function unitLabelCode(id: number): Promise<string> {
+  await findOr404(Accumulator, id, 'Accumulator')
+  return QRCode.toString(`${useRuntimeConfig().publicUrl}/fleet/units/${id}`, {
+    type: 'svg',
+    errorCorrectionLevel: 'M',
+    margin: 2,
   })
 }

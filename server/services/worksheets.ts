@@ -25,8 +25,8 @@ import {
   StepRefusal,
   type StepTool,
 } from '#shared/utils/worksheet-steps'
+import { stationDate } from '#shared/utils/station-time'
 import { appendAudit } from '../database/audit-chain'
-import type { SpecificationDto } from '#shared/types/registers'
 import { Accumulator, Aircraft, Attachment, Signature, Tool, User, Worksheet, listColumns } from '../models'
 import { askForCountersign, mailAlerts, tellReturned } from './notifications'
 import { notFound, unprocessable } from './records'
@@ -196,31 +196,10 @@ const audit = (
   )
 
 /** What a worksheet freezes of its unit: the aircraft, the unit, and the specification in force. */
-export function frozenContent(
-  accumulator: Accumulator,
-  aircraft: Aircraft,
-  specification: SpecificationDto,
-): WorksheetContent {
-  const { status: _status, ...frozen } = specification
-  return {
-    specification: frozen,
-    aircraft: {
-      id: aircraft.id,
-      registration: aircraft.registration,
-      fleetNumber: aircraft.fleetNumber,
-      type: aircraft.type,
-    },
-    accumulator: {
-      id: accumulator.id,
-      partNumber: accumulator.partNumber,
-      serialNumber: accumulator.serialNumber,
-      position: accumulator.position ?? '',
-    },
-  }
-}
+export const frozenContent = freezeWorksheetContent
 
 /** The unit, its aircraft and its specification in force, or 422 naming what is missing. */
-async function unitToService(accumulatorId: number) {
+export async function unitToService(accumulatorId: number) {
   const accumulator = await Accumulator.findByPk(accumulatorId, { include: [{ model: Aircraft, as: 'aircraft' }] })
   if (!accumulator?.aircraft) unprocessable('That accumulator is not installed on an aircraft.', 'accumulatorId')
   const specification = await currentSpecification(accumulator.partNumber)
@@ -232,37 +211,52 @@ async function unitToService(accumulatorId: number) {
   return { accumulator, aircraft: accumulator.aircraft, specification }
 }
 
+/** A correction may be started by whom the rules allow, of a released worksheet, for the same unit. */
+export async function checkCorrection(actor: Actor, correctsId: number | undefined, accumulatorId: number) {
+  if (!correctsId) return
+  const corrected = (await Worksheet.findByPk(correctsId)) ?? notFound('The worksheet to correct')
+  enforce(canCorrect(actor, corrected))
+  if (corrected.accumulatorId !== accumulatorId)
+    unprocessable('A correction must be for the same accumulator as the worksheet it corrects.', 'accumulatorId')
+}
+
+/** A new draft's row: the unit, its aircraft and specification frozen, nothing signed. */
+export function draftAttributes(
+  actor: Actor,
+  { accumulator, aircraft, specification }: Awaited<ReturnType<typeof unitToService>>,
+  body: WorksheetCreateBody,
+  state: { content: WorksheetContent, results: WorksheetResults, performedAt: Date, clientId?: string },
+) {
+  return {
+    state: 'draft' as const,
+    accumulatorId: accumulator.id,
+    aircraftId: aircraft.id,
+    specificationId: specification.id,
+    performerId: actor.id,
+    correctsId: body.correctsId ?? null,
+    workOrder: body.workOrder,
+    reason: body.reason,
+    engineVersion: ENGINE_VERSION,
+    serviceable: null,
+    returnReason: null,
+    voidReason: null,
+    voidedById: null,
+    submittedAt: null,
+    releasedAt: null,
+    clientId: null,
+    ...state,
+  }
+}
+
 /** Starts a worksheet for an installed unit, freezing its specification; a correction points at a released one. */
 export async function startWorksheet(actor: Actor, body: WorksheetCreateBody): Promise<WorksheetDto> {
-  const { accumulator, aircraft, specification } = await unitToService(body.accumulatorId)
-  if (body.correctsId) {
-    const corrected = (await Worksheet.findByPk(body.correctsId)) ?? notFound('The worksheet to correct')
-    enforce(canCorrect(actor, corrected))
-    if (corrected.accumulatorId !== accumulator.id)
-      unprocessable('A correction must be for the same accumulator as the worksheet it corrects.', 'accumulatorId')
-  }
+  const unit = await unitToService(body.accumulatorId)
+  const { accumulator, aircraft, specification } = unit
+  await checkCorrection(actor, body.correctsId, accumulator.id)
   const id = await writeTransaction(async (transaction) => {
+    const content = frozenContent(accumulator, aircraft, toSpecificationDto(specification))
     const created = await Worksheet.create(
-      {
-        state: 'draft',
-        accumulatorId: accumulator.id,
-        aircraftId: aircraft.id,
-        specificationId: specification.id,
-        performerId: actor.id,
-        correctsId: body.correctsId ?? null,
-        workOrder: body.workOrder,
-        reason: body.reason,
-        content: frozenContent(accumulator, aircraft, toSpecificationDto(specification)),
-        results: {},
-        engineVersion: ENGINE_VERSION,
-        serviceable: null,
-        returnReason: null,
-        voidReason: null,
-        voidedById: null,
-        performedAt: new Date(),
-        submittedAt: null,
-        releasedAt: null,
-      },
+      draftAttributes(actor, unit, body, { content, results: {}, performedAt: new Date() }),
       { transaction },
     )
     const label = `${specification.partNumber} rev ${specification.revision}`
@@ -285,20 +279,48 @@ async function toolsFor(content: WorksheetContent, step: WorksheetStepBody): Pro
   return new Map(tools.map(tool => [tool.id, tool.get({ plain: true })]))
 }
 
-/** Runs the shared step rules with the server's clock, the station's date and the tool register. */
-export async function applyStepOnServer(
+/**
+ * Runs the shared step rules with the tool register and the station's date at `takenAt`: the
+ * server's clock, or — for a step taken on a device without signal — the device's, checked first
+ * (`stepTime`). A refusal is thrown as the shared rules' StepRefusal.
+ */
+export async function runStep(
   worksheet: Pick<Worksheet, 'content' | 'results'>,
   step: WorksheetStepBody,
-  now = new Date().toISOString(),
+  takenAt: string,
 ) {
   const tools = await toolsFor(worksheet.content, step)
-  try {
-    return applyStep(worksheet, step, { now, today: stationToday(), tool: id => tools.get(id) })
-  }
-  catch (error) {
-    if (error instanceof StepRefusal) throw asHttpError(error)
-    throw error
-  }
+  const today = stationDate(String(useRuntimeConfig().public.stationTimeZone), takenAt)
+  return applyStep(worksheet, step, { now: takenAt, today, tool: id => tools.get(id) })
+}
+
+/** Latest time a step already in the worksheet carries, for checking a device's step times. */
+function lastStepTime(content: WorksheetContent): number {
+  const times = [
+    ...Object.values(content.preparation ?? {}),
+    content.asFound?.recordedAt,
+    content.action?.recordedAt,
+    content.asLeft?.recordedAt,
+    content.finish?.recordedAt,
+    content.offline?.startedAt,
+  ].filter((time): time is string => !!time)
+  return Math.max(0, ...times.map(time => Date.parse(time)))
+}
+
+/**
+ * When a step was taken. Online, now. A step a device kept while it had no signal carries the
+ * device's time: accepted if it is not in the future (two minutes' grace for clocks) and not
+ * before the steps already recorded, so the settle time is judged by when the readings were taken.
+ */
+export function stepTime(content: WorksheetContent, takenAt: string | undefined, field = 'x-taken-at'): string {
+  const now = Date.now()
+  if (!takenAt) return new Date(now).toISOString()
+  const time = Date.parse(takenAt)
+  if (Number.isNaN(time)) unprocessable('The time the step was taken is not a date.', field)
+  if (time > now + 120_000) unprocessable('The step is dated in the future: check the device\'s clock.', field)
+  if (time < lastStepTime(content) - 60_000)
+    unprocessable('The step is dated before the steps already recorded: check the device\'s clock.', field)
+  return new Date(time).toISOString()
 }
 
 /** Saves one completed step: the server recomputes every figure from the frozen specification. */
@@ -307,14 +329,28 @@ export async function saveStep(
   id: number,
   step: WorksheetStepBody,
   expectedVersion?: number,
+  takenAt?: string,
 ): Promise<WorksheetDto> {
   await writeTransaction(async (transaction) => {
     const worksheet = await lockedWorksheet(id, transaction)
     enforce(canEdit(actor, worksheet))
     checkVersion(worksheet, expectedVersion)
-    const { content, results } = await applyStepOnServer(worksheet, step)
-    await compareAndSet(worksheet, EDITABLE_STATES, { content, results, engineVersion: ENGINE_VERSION }, transaction)
-    await audit(actor, worksheet, 'step-saved', { step: step.step }, transaction)
+    const at = stepTime(worksheet.content, takenAt)
+    let next
+    try {
+      next = await runStep(worksheet, step, at)
+    }
+    catch (error) {
+      if (error instanceof StepRefusal) throw asHttpError(error)
+      throw error
+    }
+    await compareAndSet(
+      worksheet,
+      EDITABLE_STATES,
+      { content: next.content, results: next.results, engineVersion: ENGINE_VERSION },
+      transaction,
+    )
+    await audit(actor, worksheet, 'step-saved', { step: step.step, ...(takenAt ? { takenAt: at } : {}) }, transaction)
   })
   return worksheetById(id)
 }

@@ -140,3 +140,15 @@ export const assessReadingSchema = calculationBody({
   gaugeAccuracy: z.object({ value: numberField('an accuracy').nonnegative(), unit: pressureUnitSchema }).optional(),
   ambient: ambientSchema.optional(),
 })
+
+/** Readings while the gas settles after a charge or vent, for the settled-pressure forecast. */
+export const settleForecastSchema = calculationBody({
+  readings: z.array(z.object({
+    minutesAfter: numberField('the minutes after the charge or vent').min(0, 'Minutes after the action cannot be negative.').max(1440),
+    pressure: pressureSchema,
+  }).strict(), { required_error: 'Give the readings taken while the gas settles.' }).min(2, 'Two readings at least.').max(60),
+  timeConstantMinutes: numberField('a time constant in minutes').positive().max(1440).optional(),
+  readingUncertainty: numberField('the reading uncertainty').nonnegative().optional(),
+  band: z.object({ low: pressureSchema, high: pressureSchema }).strict().optional(),
+})
+export type SettleForecastBody = z.infer<typeof settleForecastSchema>

@@ -117,6 +117,14 @@ export const finishStepSchema = z
   })
   .strict()
 
+/** The technician has read what changed when a worksheet filled offline reached the server. */
+export const reviewSyncStepSchema = z
+  .object({
+    step: z.literal('reviewSync'),
+    reviewed: z.literal(true, { errorMap: () => ({ message: 'Confirm you have read what changed when the worksheet was sent.' }) }),
+  })
+  .strict()
+
 /** One step of the worksheet, saved as it is completed. */
 export const worksheetStepSchema = z.discriminatedUnion(
   'step',
@@ -128,11 +136,12 @@ export const worksheetStepSchema = z.discriminatedUnion(
     actionStepSchema,
     asLeftStepSchema,
     finishStepSchema,
+    reviewSyncStepSchema,
   ],
   {
     errorMap: (issue, context) =>
       issue.code === 'invalid_union_discriminator'
-        ? { message: 'Say which step: preparation, tools, conditions, asFound, action, asLeft or finish.' }
+        ? { message: 'Say which step: preparation, tools, conditions, asFound, action, asLeft, finish or reviewSync.' }
         : { message: context.defaultError },
   },
 )
@@ -188,3 +197,19 @@ export const discardSchema = z
     reason: z.string().trim().max(500).default(''),
   })
   .strict()
+
+/**
+ * A worksheet started and filled on a device with no signal, sent whole when the connection
+ * returns: the server starts it (once, by `clientId`), replays every step at the time the device
+ * took it, and reports what it could not accept. `specificationId` is the revision the device used.
+ */
+export const offlineWorksheetSchema = worksheetCreateSchema.extend({
+  clientId: z.string().uuid('The device\'s worksheet id is not a UUID.'),
+  specificationId: z.number().int().positive().max(2_147_483_647, 'Not a known id.'),
+  startedAt: z.string().datetime({ offset: true, message: 'Give the start time as ISO 8601.' }),
+  steps: z.array(z.object({
+    at: z.string().datetime({ offset: true, message: 'Give each step\'s time as ISO 8601.' }),
+    body: worksheetStepSchema,
+  }).strict()).max(60, 'At most 60 steps.'),
+}).strict()
+export type OfflineWorksheetBody = z.infer<typeof offlineWorksheetSchema>

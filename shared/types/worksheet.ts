@@ -47,6 +47,11 @@ export interface WorksheetContent {
     recordedAt: string
     /** Confirmed by the technician: moved with no action recorded. */ confirmedUnchanged?: boolean
   }
+  /**
+   * Filled on a device with no signal and sent later: what the server could not accept, and the technician's
+   * review of it.
+   */
+  offline?: { clientId: string, startedAt: string, syncedAt: string, conflicts: string[], reviewedAt?: string }
   finish?: {
     valveLeakCheck: boolean
     capFitted: boolean
@@ -158,4 +163,12 @@ export interface WorksheetListPage {
   totalCapped: boolean
   next: string | null
   previous: string | null
+}
+
+/**
+ * A worksheet as the step forms see it: from the server (its numeric id), or kept on this device
+ * while there is no signal (its client id, a UUID).
+ */
+export interface WorksheetView extends Omit<WorksheetDto, 'id'> {
+  id: number | string
 }

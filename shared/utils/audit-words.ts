@@ -55,6 +55,11 @@ export function describeAuditEvent(
     }
     case 'worksheet:started':
       return `started ${what}`
+    case 'worksheet:synced-from-device': {
+      const conflicts = Array.isArray(detail.conflicts) ? detail.conflicts.length : 0
+      return `sent ${what} from a device with no signal (started ${String(detail.startedAt)}, ${String(detail.steps)} step(s)`
+        + `${conflicts ? `, ${conflicts} change(s) to review` : ''})`
+    }
     case 'worksheet:correction-started':
       return `started ${what} as a correction of worksheet ${String(detail.correctsId)}`
     case 'worksheet:step-saved':

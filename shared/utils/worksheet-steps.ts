@@ -2,7 +2,7 @@ import { isEngineInputError } from '../gas/errors'
 import type { Pressure } from '../gas/types'
 import { convertPressureDifference } from '../gas/units'
 import type { WorksheetStepBody } from '../schemas/worksheet'
-import type { ToolDto } from '../types/registers'
+import type { SpecificationDto, ToolDto } from '../types/registers'
 import { PREPARATION_CHECKS, type ToolSnapshot, type WorksheetContent, type WorksheetResults } from '../types/worksheet'
 import { gaugeAccuracy } from './tool-accuracy'
 import { assessWorksheetReading } from './worksheet-results'
@@ -13,6 +13,18 @@ import { assessWorksheetReading } from './worksheet-results'
  * refusals offline — which the server then checks again when the worksheet syncs. Pure: the
  * time, the station's date and the tool register are handed in.
  */
+
+/** Each step's name as the technician sees it: the step navigator, the device's queue, the sync report. */
+export const STEP_NAMES: Record<WorksheetStepBody['step'], string> = {
+  preparation: 'Preparation',
+  tools: 'Tools',
+  conditions: 'Conditions',
+  asFound: 'As-found',
+  action: 'Action',
+  asLeft: 'Settle and as-left',
+  finish: 'Finish',
+  reviewSync: 'Review',
+}
 
 export interface StepContext {
   /** When the step was taken (ISO): the server's clock, or the device's for a worksheet filled offline. */
@@ -249,6 +261,11 @@ export function applyStep(
       content.finish = { ...finish, recordedAt: now }
       break
     }
+    case 'reviewSync': {
+      if (!content.offline) refuse('This worksheet was not filled offline: there is nothing to review.', 'step', 409)
+      content.offline = { ...content.offline, reviewedAt: now }
+      break
+    }
   }
   return { content, results }
 }
@@ -262,6 +279,9 @@ export function missingForSignature(content: WorksheetContent, results: Workshee
   if (!results.asFound) missing.push('the as-found reading')
   if (!content.action) missing.push('the action')
   if (!results.asLeft) missing.push('the as-left reading')
+  if (content.offline?.conflicts.length && !content.offline.reviewedAt) {
+    missing.push('your review of what changed when the worksheet was sent from the device')
+  }
   if (!content.finish) missing.push('the finishing checks')
   else {
     if (!content.finish.valveLeakCheck) missing.push('a charging valve leak check')
@@ -283,4 +303,28 @@ export function recomputeResults(content: WorksheetContent): WorksheetResults {
   if (content.asLeft && content.conditions)
     results.asLeft = assess(content, content.asLeft.reading, content.asLeft.gasTemperature, 'gasTemperature')
   return results
+}
+
+/** The unit, its aircraft and the specification in force, as a worksheet freezes them (server and device alike). */
+export function freezeWorksheetContent(
+  accumulator: { id: number, partNumber: string, serialNumber: string, position: string | null },
+  aircraft: { id: number, registration: string, fleetNumber: string, type: string },
+  specification: SpecificationDto | Omit<SpecificationDto, 'status'>,
+): WorksheetContent {
+  const { status: _status, ...frozen } = specification as SpecificationDto
+  return {
+    specification: frozen,
+    aircraft: {
+      id: aircraft.id,
+      registration: aircraft.registration,
+      fleetNumber: aircraft.fleetNumber,
+      type: aircraft.type,
+    },
+    accumulator: {
+      id: accumulator.id,
+      partNumber: accumulator.partNumber,
+      serialNumber: accumulator.serialNumber,
+      position: accumulator.position ?? '',
+    },
+  }
 }

@@ -236,3 +236,25 @@ describe('registers the Charge target page reads', () => {
     expect((await api('/api/specifications/abc', { cookie })).status).toBe(400)
   })
 })
+
+describe('the settled-pressure forecast', () => {
+  it('forecasts from three readings (the worked example: 1100, 1060, 1040 psig settle at 1020) and names bad input', async () => {
+    const psig = (value: number) => ({ value, unit: 'psi', basis: 'gauge' })
+    const readings = [
+      { minutesAfter: 0, pressure: psig(1100) },
+      { minutesAfter: 10, pressure: psig(1060) },
+      { minutesAfter: 20, pressure: psig(1040) },
+    ]
+    const answer = await api('/api/calc/settle-forecast', { cookie, body: { readings, readingUncertainty: 2 } })
+    expect(answer.status).toBe(200)
+    // By hand (Aitken's Δ²): (1100·1040 − 1060²)/(1100 + 1040 − 2·1060) = 1020.
+    expect(answer.body.settled.value).toBeCloseTo(1020, 2)
+    expect(answer.body.engineVersion).toBeTruthy()
+    const one = await api('/api/calc/settle-forecast', { cookie, body: { readings: readings.slice(0, 1) } })
+    expect(one.status).toBe(400)
+    expect(one.body.data.issues[0].field).toBe('readings')
+    expect((await api('/api/calc/settle-forecast', { cookie, body: { readings: readings.slice(0, 2) } })).status).toBe(
+      422,
+    )
+  })
+})

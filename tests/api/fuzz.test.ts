@@ -76,6 +76,15 @@ const SAMPLES: Record<string, unknown> = {
     cutIn: psig(2600),
     interval: { value: 7, unit: 'min' },
   },
+  'POST /api/calc/settle-forecast': {
+    readings: [
+      { minutesAfter: 0, pressure: psig(1100) },
+      { minutesAfter: 5, pressure: psig(1070) },
+      { minutesAfter: 10, pressure: psig(1055) },
+    ],
+    readingUncertainty: 2,
+    band: { low: psig(975), high: psig(1075) },
+  },
   'POST /api/calc/study': study,
   'POST /api/studies': study,
   'PATCH /api/studies/[id]': study,

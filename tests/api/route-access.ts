@@ -9,6 +9,7 @@ export type Access = 'public' | Ability
 
 export const ROUTE_ACCESS: Record<string, Access> = {
   'GET /api/accumulators/[id]': 'register.read',
+  'GET /api/accumulators/[id]/label': 'register.read',
   'PATCH /api/accumulators/[id]': 'fleet.manage',
   'GET /api/accumulators/export': 'register.read',
   'POST /api/accumulators/import': 'fleet.manage',
@@ -39,6 +40,7 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'POST /api/calc/correction-curve': 'calculation.run',
   'POST /api/calc/envelope': 'calculation.run',
   'POST /api/calc/leak-interval': 'calculation.run',
+  'POST /api/calc/settle-forecast': 'calculation.run',
   'POST /api/calc/leak-rate': 'calculation.run',
   'POST /api/calc/optimum-precharge': 'calculation.run',
   'POST /api/calc/required-volume': 'calculation.run',
@@ -90,4 +92,6 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'GET /api/worksheets/export': 'worksheet.read',
   'GET /api/worksheets': 'worksheet.read',
   'POST /api/worksheets': 'worksheet.perform',
+  'POST /api/worksheets/sync': 'worksheet.perform',
+  'GET /api/field/reference': 'worksheet.perform',
 }

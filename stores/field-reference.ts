@@ -1,0 +1,54 @@
+import { useIDBKeyval } from '@vueuse/integrations/useIDBKeyval'
+import { defineStore, skipHydrate } from 'pinia'
+import { can } from '#shared/abilities'
+import type { FieldReference } from '#shared/types/field'
+
+const plain = <T>(value: T): T => JSON.parse(JSON.stringify(value))
+
+/**
+ * What a technician's device keeps to work with no signal — their station's aircraft and units,
+ * the current specifications, the tools with their calibration dates — in IndexedDB, refreshed
+ * whenever the connection is there. Kept per user: a shared tablet never offers one technician's
+ * station to another.
+ */
+export const useFieldReferenceStore = defineStore('field-reference', () => {
+  const stored = import.meta.client
+    ? useIDBKeyval<{ userId: number, reference: FieldReference } | null>('chargewell:field-reference', null, {
+        serializer: { read: raw => raw as never, write: plain },
+      })
+    : { data: ref(null), isFinished: shallowRef(true) }
+  const { user } = useUserSession()
+  const online = useOnline()
+  const refreshing = ref(false)
+  const error = ref<string | null>(null)
+  const reference = computed(() =>
+    stored.data.value && stored.data.value.userId === user.value?.id ? stored.data.value.reference : null,
+  )
+
+  async function refresh(): Promise<void> {
+    if (!online.value || refreshing.value || !can(user.value?.roles, 'worksheet.perform')) return
+    refreshing.value = true
+    error.value = null
+    try {
+      const fresh = await $fetch<FieldReference>('/api/field/reference')
+      stored.data.value = { userId: user.value!.id, reference: fresh }
+    }
+    catch (failure) {
+      error.value = errorMessage(failure)
+    }
+    finally {
+      refreshing.value = false
+    }
+  }
+
+  if (import.meta.client) {
+    watch(
+      [online, () => user.value?.id, stored.isFinished],
+      ([isOnline, id, loaded]) => {
+        if (isOnline && id && loaded) refresh()
+      },
+      { immediate: true },
+    )
+  }
+  return { reference: skipHydrate(reference), loaded: skipHydrate(stored.isFinished), refreshing, error, refresh }
+})

@@ -1,0 +1,148 @@
+/**
+ * On the ramp with no signal, in real Chromium: the app opens from its service worker, a worksheet
+ * is started and completed on the device, waits "ready to sign", and syncs when the connection
+ * returns — recomputed by the server. A conflict (a gauge whose calibration lapsed before it was
+ * used) is shown to the technician, never resolved silently. Labels and the settle forecast too.
+ */
+import type { Browser, BrowserContext, Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { api, DEMO, signIn } from '../support/api'
+import { launchBrowser, signedInPage } from '../support/browser'
+
+let browser: Browser
+beforeAll(async () => {
+  browser = await launchBrowser()
+})
+afterAll(async () => {
+  await browser?.close()
+})
+
+/** Signed in, the service worker in control and the device's reference data kept: ready to go offline. */
+async function readyForTheRamp(email = 'technician@chargewell.test'): Promise<Page> {
+  const page = await signedInPage(browser, email)
+  await page.waitForFunction(() => navigator.serviceWorker?.controller, null, { timeout: 30_000 })
+  // Visited once online, as a technician does at the start of a shift.
+  await page.goto('/worksheets/new')
+  await expect.poll(() => page.evaluate(() => new Promise<boolean>((resolve) => {
+    const request = indexedDB.open('keyval-store')
+    request.onsuccess = () => {
+      const read = request.result.transaction('keyval').objectStore('keyval').get('chargewell:field-reference')
+      read.onsuccess = () => resolve(!!read.result?.reference?.units?.length)
+    }
+  })), { timeout: 15_000 }).toBe(true)
+  return page
+}
+
+async function fillOffline(page: Page, registration: RegExp, position: RegExp, workOrder: string, gauge = /GA-0141(?!B)/) {
+  const context: BrowserContext = page.context()
+  await context.setOffline(true)
+  await page.goto('/worksheets/new')
+  await expect.poll(() => page.getByTestId('offline-start').innerText()).toMatch(/No connection/)
+  await expect.poll(() => page.getByTestId('connection').innerText()).toMatch(/Offline/)
+  await page.getByRole('button', { name: registration }).click()
+  await page.getByRole('button', { name: position }).click()
+  await page.getByLabel('Work order').fill(workOrder)
+  await page.getByRole('button', { name: 'Start worksheet' }).click()
+  await page.waitForURL(url => url.pathname.startsWith('/worksheets/local/'))
+  for (const check of ['systemDepressurised', 'aircraftSafe', 'eyeProtection']) {
+    await page.getByTestId(`confirm-${check}`).click()
+    await expect.poll(() => page.getByTestId(`confirm-${check}`).getAttribute('aria-pressed')).toBe('true')
+  }
+  // The last confirmation completes the step and moves on to the tools.
+  await page.getByTestId('confirm-nitrogenOnly').click()
+  await expect.poll(() => page.getByRole('heading', { name: '2 · Tools' }).isVisible()).toBe(true)
+  await page.getByRole('button', { name: gauge }).click()
+  await page.getByRole('button', { name: /NC-07/ }).click()
+  await page.getByRole('button', { name: 'Save and continue' }).click()
+}
+
+describe('a worksheet with no signal', () => {
+  it('starts, fills and completes on the device, waits to be signed, then syncs and is recomputed by the server', { timeout: 180_000 }, async () => {
+    const page = await readyForTheRamp()
+    await fillOffline(page, /QX-FMJ/, /System 1/, 'WO-RAMP-0001')
+    await page.getByLabel(/Gas temperature/).fill('12')
+    await page.getByLabel(/Minutes since/).fill('60')
+    await page.getByRole('button', { name: 'Save and continue' }).click()
+    await page.getByLabel(/As-found reading/).fill('1420')
+    await page.getByRole('button', { name: 'Record as-found' }).click()
+    // The verdict is worked out on the device by the shared engine.
+    await expect.poll(() => page.getByTestId('result-as-found').innerText()).toMatch(/Target/)
+    await page.getByRole('button', { name: 'Next: Action' }).click()
+    await page.getByRole('button', { name: /No action/ }).click()
+    await page.getByRole('dialog').getByTestId('confirm-yes').click()
+    await page.getByRole('button', { name: 'Record as-left' }).click()
+    await expect.poll(() => page.getByTestId('result-as-left').isVisible()).toBe(true)
+    await page.getByRole('button', { name: 'Next: Finish' }).click()
+    await page.getByRole('button', { name: /Charging valve leak-checked/ }).click()
+    await page.getByRole('button', { name: /Valve cap refitted/ }).click()
+    await page.getByRole('button', { name: 'Save and continue' }).click()
+    await expect.poll(() => page.getByTestId('local-banner').innerText()).toMatch(/Ready to sign[\s\S]*needs the connection/)
+    await expect.poll(() => page.getByTestId('connection').innerText()).toMatch(/Offline[\s·]*1 worksheet waiting to send/)
+    await page.goto('/device')
+    await expect.poll(() => page.getByTestId('queue').innerText()).toMatch(/QX-FMJ · System 1, aft equipment bay · WO-RAMP-0001/)
+
+    // The connection returns: the worksheet is sent, replayed and recomputed; the device opens the server's.
+    await page.context().setOffline(false)
+    await page.goto('/device')
+    await expect.poll(async () => (await page.getByTestId('queue').innerText()), { timeout: 20_000 }).toMatch(/Nothing waits/)
+    const list = await api('/api/worksheets?q=WO-RAMP-0001', { cookie: await signIn(DEMO.technician) })
+    const id = list.body.items[0].id as number
+    const record = (await api(`/api/worksheets/${id}`, { cookie: await signIn(DEMO.technician) })).body
+    expect(record.content.offline.conflicts).toEqual([])
+    expect(record.results.asFound.engineVersion).toBeTruthy()
+    expect(record.results.asLeft.assessment.verdict).toBeTruthy()
+    await page.goto(`/worksheets/${id}`)
+    await page.getByRole('navigation', { name: 'Worksheet steps' }).getByRole('button', { name: /Sign/ }).click()
+    await page.getByTestId('certify').click()
+    await page.getByLabel('Your password, to sign').fill('chargewell-demo')
+    await page.getByRole('button', { name: 'Sign worksheet' }).click()
+    await expect.poll(() => page.getByTestId('state-badge').first().innerText()).toMatch(/Awaiting countersign/)
+    await page.context().close()
+  })
+
+  it('shows a conflict: the gauge\'s calibration lapsed before it was used — the later steps must be done again', { timeout: 180_000 }, async () => {
+    const page = await readyForTheRamp()
+    // The register changes while the device is out: GA-0152's calibration is now recorded as due last week.
+    const admin = await signIn(DEMO.admin)
+    const tools = (await api('/api/tools?pageSize=500', { cookie: admin })).body.items as { id: number, assetNumber: string }[]
+    const gauge = tools.find(tool => tool.assetNumber === 'GA-0152')!
+    const lastWeek = new Date(Date.now() - 7 * 86_400_000).toISOString().slice(0, 10)
+    await fillOffline(page, /QX-FMJ/, /System 2/, 'WO-RAMP-0002', /GA-0152/)
+    expect((await api(`/api/tools/${gauge.id}`, { method: 'PATCH', cookie: admin, body: { calibrationDue: lastWeek } })).status).toBe(200)
+    await page.getByLabel(/Gas temperature/).fill('10')
+    await page.getByLabel(/Minutes since/).fill('45')
+    await page.getByRole('button', { name: 'Save and continue' }).click()
+    await expect.poll(() => page.getByRole('heading', { name: /^4 · As-found/ }).isVisible()).toBe(true)
+    await page.context().setOffline(false)
+    await page.goto('/device')
+    await expect.poll(async () => page.getByText(/change\(s\) to review/).count(), { timeout: 20_000 }).toBeGreaterThan(0)
+    await page.getByRole('link', { name: /Worksheet \d+/ }).first().click()
+    await page.waitForURL(url => /\/worksheets\/\d+$/.test(url.pathname))
+    await expect.poll(() => page.getByTestId('sync-review').innerText()).toMatch(/Tools was not accepted: Gauge GA-0152: calibration expired[\s\S]*The 1 step\(s\) after it were not taken either: do them again/)
+    // Nothing after the refused step was taken: the tools step is open again.
+    const id = Number(new URL(page.url()).pathname.split('/').pop())
+    const record = (await api(`/api/worksheets/${id}`, { cookie: await signIn(DEMO.technician) })).body
+    expect(record.content.tools).toBeUndefined()
+    expect(record.content.conditions).toBeUndefined()
+    await page.getByRole('button', { name: /I have read this/ }).click()
+    await expect.poll(() => page.getByTestId('sync-review').count()).toBe(0)
+    await page.context().close()
+  })
+})
+
+describe('the unit in front of you', () => {
+  it('prints a label whose QR code opens the unit\'s page, and the start page finds a unit by its typed serial', async () => {
+    const page = await signedInPage(browser, 'technician@chargewell.test')
+    const units = (await api('/api/accumulators?installed=true&pageSize=500', { cookie: await signIn(DEMO.technician) })).body.items as { id: number, serialNumber: string, aircraft: { registration: string }, position: string }[]
+    const unit = units[3]!
+    await page.goto(`/fleet/units/${unit.id}/label`)
+    await expect.poll(() => page.getByTestId('unit-label').innerText()).toMatch(new RegExp(`S/N ${unit.serialNumber}`))
+    const svg = await page.evaluate(url => fetch(url).then(response => response.text()), `/api/accumulators/${unit.id}/label`)
+    expect(svg).toMatch(/^<svg/)
+    await page.goto('/worksheets/new')
+    await page.getByLabel('Serial number on the unit').fill(unit.serialNumber.toLowerCase())
+    await page.getByRole('button', { name: 'Find' }).click()
+    await expect.poll(() => page.getByRole('button', { name: new RegExp(unit.position.split(',')[0]!) }).getAttribute('aria-pressed')).toBe('true')
+    await page.context().close()
+  })
+})
