@@ -1,5 +1,5 @@
 import { AsyncLocalStorage } from 'node:async_hooks'
-import { Transaction, type Sequelize } from 'sequelize'
+import { Sequelize, Transaction } from 'sequelize'
 
 /**
  * One writer at a time. SQLite allows a single writer; when two deferred transactions both
@@ -9,7 +9,12 @@ import { Transaction, type Sequelize } from 'sequelize'
  * timeout for any other process, such as a seed run). Reads stay outside the queue and run
  * in parallel with it (WAL). On PostgreSQL the queue is not needed: rows are locked instead.
  *
- * A write started inside another joins it (same transaction), so services can compose.
+ * A write started inside another joins it (same transaction), so services can compose. And every
+ * query made while a write runs — a read of the tool register in the middle of a step save, say —
+ * runs in that write's transaction even where the call forgets `{ transaction }`: Sequelize's own
+ * continuation-local mechanism (`Sequelize.useCLS`), given Node's AsyncLocalStorage as its
+ * namespace. Without it, on PostgreSQL such a read takes a second pooled connection while the
+ * first is held, and enough parallel writers exhaust the pool and wait on each other for ever.
  */
 export interface WriteQueue {
   <T>(work: (transaction: Transaction) => Promise<T>): Promise<T>
@@ -17,19 +22,29 @@ export interface WriteQueue {
   readonly waiting: number
 }
 
+const context = new AsyncLocalStorage<Map<string, unknown>>()
+/** The namespace interface Sequelize asks of `useCLS` (that of cls-hooked), on AsyncLocalStorage. */
+const namespace = {
+  run: (work: (values: Map<string, unknown>) => void) => {
+    const values = new Map<string, unknown>()
+    context.run(values, () => work(values))
+  },
+  bind: <F>(work: F) => work,
+  get: (key: string) => context.getStore()?.get(key),
+  set: (key: string, value: unknown) => context.getStore()?.set(key, value),
+}
+
 export function createWriteQueue(sequelize: Sequelize): WriteQueue {
-  const current = new AsyncLocalStorage<Transaction>()
+  Sequelize.useCLS(namespace)
   const serialise = sequelize.getDialect() === 'sqlite'
   let tail: Promise<unknown> = Promise.resolve()
   let waiting = 0
 
   const run = <T>(work: (transaction: Transaction) => Promise<T>): Promise<T> => {
-    const joined = current.getStore()
+    // Set while a transaction is open in this async context, cleared when it ends.
+    const joined = namespace.get('transaction') as Transaction | null | undefined
     if (joined) return work(joined)
-    const start = () => sequelize.transaction(
-      serialise ? { type: Transaction.TYPES.IMMEDIATE } : {},
-      transaction => current.run(transaction, () => work(transaction)),
-    )
+    const start = () => sequelize.transaction(serialise ? { type: Transaction.TYPES.IMMEDIATE } : {}, work)
     if (!serialise) return start()
     waiting++
     const turn = tail.then(() => {
