@@ -11,24 +11,15 @@
 import { execFileSync, spawn } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
-import { createServer } from 'node:net'
 import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
 import autocannon from 'autocannon'
+import { freePort } from '../support/ports'
 import { buildScaleDatabase } from './scale-database'
 
 const root = resolve(import.meta.dirname, '../..')
 const COUNT = Number(process.env.SCALE_WORKSHEETS ?? 100_000)
 const REPEATS = Number(process.env.SCALE_REPEATS ?? 40)
-
-function freePort(): Promise<number> {
-  return new Promise((done) => {
-    const probe = createServer().listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as { port: number }
-      probe.close(() => done(port))
-    })
-  })
-}
 
 const percentile = (values: number[], share: number) =>
   [...values].sort((a, b) => a - b)[Math.min(values.length - 1, Math.floor(values.length * share))]!

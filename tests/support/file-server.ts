@@ -44,6 +44,8 @@ await setup({
   server: true,
   port,
   setupTimeout: 60_000,
+  // Shorter than the hook's timeout, so a server that never answers fails with its own log, not a bare timeout.
+  serverStartTimeout: 45_000,
   nuxtConfig: { nitro: { output: { dir: inject('outputDir') } } },
   env: {
     NODE_ENV: 'production',

@@ -5,11 +5,13 @@
  */
 import { spawn, type ChildProcess } from 'node:child_process'
 import { copyFileSync, mkdtempSync, rmSync } from 'node:fs'
-import { createServer } from 'node:net'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { inject } from 'vitest'
+import { freePort } from './ports'
 import { copyPostgresDatabase, dropPostgresDatabase, isPostgresUrl } from './postgres'
+
+export { freePort }
 
 export interface TestServer {
   baseURL: string
@@ -23,17 +25,6 @@ export interface TestServer {
   stop: (options?: { kill?: boolean }) => Promise<void>
   /** Stops it and removes its folder. */
   dispose: () => Promise<void>
-}
-
-export function freePort(): Promise<number> {
-  return new Promise((done, fail) => {
-    const probe = createServer()
-    probe.once('error', fail)
-    probe.listen(0, '127.0.0.1', () => {
-      const address = probe.address()
-      probe.close(() => typeof address === 'object' && address ? done(address.port) : fail(new Error('no port')))
-    })
-  })
 }
 
 async function waitForHealth(baseURL: string, child: ChildProcess, log: string[]): Promise<void> {
