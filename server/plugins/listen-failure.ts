@@ -4,9 +4,9 @@
  * Nitro logs the error as an uncaught exception and the process lives on, serving nothing.
  */
 export default defineNitroPlugin(() => {
-  process.on('uncaughtException', (error: NodeJS.ErrnoException) => {
+  process.on('uncaughtException', (error: NodeJS.ErrnoException & { port?: number }) => {
     if (error.syscall !== 'listen') return
-    console.error(`Chargewell cannot listen on port ${process.env.NITRO_PORT || process.env.PORT || 3000}: ${error.code}. `
+    console.error(`Chargewell cannot listen on port ${error.port}: ${error.code}. `
       + 'Stop whatever holds the port, or set PORT to another one.')
     process.exit(1)
   })

@@ -8,7 +8,8 @@ import { join } from 'node:path'
 import S3rver from 's3rver'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO, DEMO_PASSWORD } from '../support/api'
-import { freePort, startTestServer, type TestServer } from '../support/test-server'
+import { freePort } from '../support/ports'
+import { startTestServer, type TestServer } from '../support/test-server'
 
 const BUCKET = 'chargewell-uploads'
 let bucketFolder: string

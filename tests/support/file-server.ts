@@ -10,7 +10,7 @@ import { join } from 'node:path'
 import { setup, useTestContext } from '@nuxt/test-utils/e2e'
 import { afterAll, beforeAll, inject } from 'vitest'
 import { copyPostgresDatabase, dropPostgresDatabase, isPostgresUrl } from './postgres'
-import { freePort } from './test-server'
+import { freePort } from './ports'
 
 const folder = mkdtempSync(join(tmpdir(), 'chargewell-file-'))
 const template = inject('templateDatabase')

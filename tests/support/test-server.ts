@@ -11,8 +11,6 @@ import { inject } from 'vitest'
 import { freePort } from './ports'
 import { copyPostgresDatabase, dropPostgresDatabase, isPostgresUrl } from './postgres'
 
-export { freePort }
-
 export interface TestServer {
   baseURL: string
   /** The SQLite file, or the postgres:// URL, this server uses. */
