@@ -1,3 +1,4 @@
+import type { InjectionKey } from 'vue'
 import { toTypedSchema } from '@vee-validate/zod'
 import { useForm } from 'vee-validate'
 import type { ZodType, ZodTypeDef } from 'zod'
@@ -7,6 +8,21 @@ import { useFieldWorkStore } from '~~/stores/field-work'
 
 export type StepSaveStatus = 'idle' | 'saving' | 'saved' | 'queued' | 'error'
 
+/** Takes a step's saved worksheet: which step was saved, and the worksheet as the server now has it. */
+export type StepSaved = (step: WorksheetStepBody['step'], worksheet: WorksheetView) => void
+export const worksheetStepSavedKey: InjectionKey<StepSaved> = Symbol('worksheet-step-saved')
+
+/**
+ * Where a step hands its saved worksheet, provided by the steps view (WorksheetSteps). Not an
+ * emitted event: a save can land after the technician has moved to another step, when the
+ * step's component is gone and Vue drops its events, and the record on screen would miss it.
+ */
+export function useWorksheetStepSaved(): StepSaved {
+  const saved = inject(worksheetStepSavedKey, null)
+  if (!saved) throw new Error('A worksheet step is shown outside WorksheetSteps.')
+  return saved
+}
+
 /**
  * One worksheet step's form: validated with the step's shared schema, every keystroke kept in
  * the draft store (so a reload restores it), saved to the server on submit or queued offline.
@@ -15,9 +31,9 @@ export function useWorksheetStepForm<Body extends WorksheetStepBody>(
   worksheetId: number | string,
   schema: ZodType<Body, ZodTypeDef, unknown>,
   initialValues: () => Partial<Body>,
-  onSaved: (worksheet: WorksheetView) => void,
 ) {
   const drafts = useFieldWorkStore()
+  const stepSaved = useWorksheetStepSaved()
   const step = (initialValues() as { step: Body['step'] }).step
   const form = useForm({
     validationSchema: toTypedSchema(schema),
@@ -41,7 +57,7 @@ export function useWorksheetStepForm<Body extends WorksheetStepBody>(
         return
       }
       status.value = 'saved'
-      onSaved(worksheet!)
+      stepSaved(step, worksheet!)
     }
     catch (failure) {
       status.value = 'error'

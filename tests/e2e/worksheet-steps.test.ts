@@ -80,6 +80,38 @@ describe('per-step refusals', () => {
     await page.context().close()
   })
 
+  it('a step save that lands after the technician has moved to another step still reaches the record', async () => {
+    const page = await signedInPage(browser, 'technician@chargewell.test')
+    await openNewWorksheet(page, /QX-FML/, /System 2/)
+    await page.getByLabel(/Gas temperature/).fill('12')
+    await page.getByLabel(/Minutes since/).fill('60')
+    await page.getByRole('button', { name: 'Save and continue' }).click()
+    await page.getByLabel(/As-found reading/).fill('1420')
+    await page.getByRole('button', { name: 'Record as-found' }).click()
+    await expect.poll(() => page.getByTestId('result-as-found').isVisible()).toBe(true)
+    // The action's save is held back (a slow connection), and the technician goes on to Finish meanwhile.
+    let release!: () => void
+    const held = new Promise<void>(done => (release = done))
+    await page.route(/\/api\/worksheets\/\d+$/, async (route) => {
+      if (route.request().method() === 'PATCH' && route.request().postDataJSON()?.step === 'action') await held
+      await route.continue()
+    })
+    const answered = page.waitForResponse(response => response.request().method() === 'PATCH' && response.ok())
+    await page.getByRole('button', { name: 'Next: Action' }).click()
+    await page.getByRole('button', { name: /No action/ }).click()
+    await page.getByRole('dialog').getByTestId('confirm-yes').click()
+    await goTo(page, /Finish/)
+    release()
+    await answered
+    const steps = page.getByRole('navigation', { name: 'Worksheet steps' })
+    await expect.poll(() => steps.getByRole('button', { name: /Action/ }).innerText()).toMatch(/✓/)
+    // Still on Finish (the save did not move the technician), and the as-left starts from the as-found.
+    expect(await page.getByRole('heading', { name: '7 · Finish' }).isVisible()).toBe(true)
+    await goTo(page, /as-left/i)
+    expect(await page.getByLabel(/As-left reading/).inputValue()).toBe('1420')
+    await page.context().close()
+  })
+
   it('asks before recording an as-left that moved with no charge or vent, and records it once confirmed', async () => {
     const page = await signedInPage(browser, 'technician@chargewell.test')
     await openNewWorksheet(page, /QX-FML/, /System 1/)
