@@ -8,19 +8,40 @@ import { useFieldWorkStore } from '~~/stores/field-work'
 
 export type StepSaveStatus = 'idle' | 'saving' | 'saved' | 'queued' | 'error'
 
-/** Takes a step's saved worksheet: which step was saved, and the worksheet as the server now has it. */
-export type StepSaved = (step: WorksheetStepBody['step'], worksheet: WorksheetView) => void
-export const worksheetStepSavedKey: InjectionKey<StepSaved> = Symbol('worksheet-step-saved')
+/**
+ * How the steps hand the worksheet back to the steps view (WorksheetSteps), which provides it.
+ * Not emitted events: a save or an upload can land after the technician has moved to another
+ * step, when the step's component is gone and Vue drops its events, and the record on screen
+ * would miss it.
+ */
+export interface WorksheetStepsContext {
+  /** A step was saved: the record on screen takes it, and the view moves on if that step is still open. */
+  stepSaved: (step: WorksheetStepBody['step'], worksheet: WorksheetView) => void
+  /** The worksheet changed without a step being saved (a photo added, replaced or removed). */
+  changed: (worksheet: WorksheetView) => void
+}
+export const worksheetStepsKey: InjectionKey<WorksheetStepsContext> = Symbol('worksheet-steps')
+
+export function useWorksheetSteps(): WorksheetStepsContext {
+  const context = inject(worksheetStepsKey, null)
+  if (!context) throw new Error('A worksheet step is shown outside WorksheetSteps.')
+  return context
+}
 
 /**
- * Where a step hands its saved worksheet, provided by the steps view (WorksheetSteps). Not an
- * emitted event: a save can land after the technician has moved to another step, when the
- * step's component is gone and Vue drops its events, and the record on screen would miss it.
+ * Saves one step to the server, or keeps it on the device with no connection, and hands the
+ * saved worksheet to the steps view. Answers what to tell the technician: the queued notice, or
+ * null once the server has it.
  */
-export function useWorksheetStepSaved(): StepSaved {
-  const saved = inject(worksheetStepSavedKey, null)
-  if (!saved) throw new Error('A worksheet step is shown outside WorksheetSteps.')
-  return saved
+export function useWorksheetStepSave(worksheetId: number | string) {
+  const drafts = useFieldWorkStore()
+  const steps = useWorksheetSteps()
+  return async (body: WorksheetStepBody): Promise<string | null> => {
+    const { worksheet, queued } = await drafts.saveStep(worksheetId, body)
+    if (queued) return 'No connection: saved on this device, and sent as soon as the connection returns.'
+    steps.stepSaved(body.step, worksheet!)
+    return null
+  }
 }
 
 /**
@@ -33,7 +54,7 @@ export function useWorksheetStepForm<Body extends WorksheetStepBody>(
   initialValues: () => Partial<Body>,
 ) {
   const drafts = useFieldWorkStore()
-  const stepSaved = useWorksheetStepSaved()
+  const saveStep = useWorksheetStepSave(worksheetId)
   const step = (initialValues() as { step: Body['step'] }).step
   const form = useForm({
     validationSchema: toTypedSchema(schema),
@@ -50,14 +71,8 @@ export function useWorksheetStepForm<Body extends WorksheetStepBody>(
     message.value = null
     confirmation.value = null
     try {
-      const { worksheet, queued } = await drafts.saveStep(worksheetId, body as WorksheetStepBody)
-      if (queued) {
-        status.value = 'queued'
-        message.value = 'No connection: saved on this device, and sent as soon as the connection returns.'
-        return
-      }
-      status.value = 'saved'
-      stepSaved(step, worksheet!)
+      message.value = await saveStep(body as WorksheetStepBody)
+      status.value = message.value ? 'queued' : 'saved'
     }
     catch (failure) {
       status.value = 'error'

@@ -2,7 +2,7 @@
  * Each worksheet step refuses its own bad input, on its own field, in the trade's words and in
  * the unit the technician used; and asks before recording an as-left that moved with no action.
  */
-import type { Browser, Page } from 'playwright-core'
+import type { Browser, Page, Request } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { launchBrowser, signedInPage } from '../support/browser'
 
@@ -36,6 +36,37 @@ async function openNewWorksheet(page: Page, registration: RegExp, position: RegE
 
 const goTo = (page: Page, label: RegExp) => page.getByRole('navigation', { name: 'Worksheet steps' }).getByRole('button', { name: label }).click()
 
+/** A PNG signature and header length: enough for the server to know it by its content. */
+const PNG = Buffer.from([0x89, 0x50, 0x4E, 0x47, 0x0D, 0x0A, 0x1A, 0x0A, 0, 0, 0, 13])
+
+/** Conditions (12 °C, an hour since operated) and an as-found of 1420 psi. */
+async function recordAsFound(page: Page) {
+  await page.getByLabel(/Gas temperature/).fill('12')
+  await page.getByLabel(/Minutes since/).fill('60')
+  await page.getByRole('button', { name: 'Save and continue' }).click()
+  await page.getByLabel(/As-found reading/).fill('1420')
+  await page.getByRole('button', { name: 'Record as-found' }).click()
+  await expect.poll(() => page.getByTestId('result-as-found').isVisible()).toBe(true)
+}
+
+/** The action step: "No action", confirmed. */
+async function recordNoAction(page: Page) {
+  await page.getByRole('button', { name: 'Next: Action' }).click()
+  await page.getByRole('button', { name: /No action/ }).click()
+  await page.getByRole('dialog').getByTestId('confirm-yes').click()
+}
+
+/** Holds the matching requests back (a slow connection) until the answered function is called. */
+async function holdBack(page: Page, url: string | RegExp, which: (request: Request) => boolean = () => true) {
+  let release!: () => void
+  const held = new Promise<void>(done => (release = done))
+  await page.route(url, async (route) => {
+    if (which(route.request())) await held
+    await route.continue()
+  })
+  return release
+}
+
 describe('per-step refusals', () => {
   it('Conditions refuses an impossible gas temperature and minutes on their own fields, in the user\'s unit', async () => {
     const page = await signedInPage(browser, 'technician@chargewell.test')
@@ -58,15 +89,8 @@ describe('per-step refusals', () => {
   it('Finish is refused without the leak check and the cap, on each box; ticks made before the as-left are kept', async () => {
     const page = await signedInPage(browser, 'technician@chargewell.test')
     await openNewWorksheet(page, /QX-FMK/, /System 2/)
-    await page.getByLabel(/Gas temperature/).fill('12')
-    await page.getByLabel(/Minutes since/).fill('60')
-    await page.getByRole('button', { name: 'Save and continue' }).click()
-    await page.getByLabel(/As-found reading/).fill('1420')
-    await page.getByRole('button', { name: 'Record as-found' }).click()
-    await expect.poll(() => page.getByTestId('result-as-found').isVisible()).toBe(true)
-    await page.getByRole('button', { name: 'Next: Action' }).click()
-    await page.getByRole('button', { name: /No action/ }).click()
-    await page.getByRole('dialog').getByTestId('confirm-yes').click()
+    await recordAsFound(page)
+    await recordNoAction(page)
     // Ahead to Finish, tick one box, back to the as-left, then Finish again.
     await goTo(page, /Finish/)
     await page.getByRole('button', { name: /Charging valve leak-checked/ }).click()
@@ -83,23 +107,12 @@ describe('per-step refusals', () => {
   it('a step save that lands after the technician has moved to another step still reaches the record', async () => {
     const page = await signedInPage(browser, 'technician@chargewell.test')
     await openNewWorksheet(page, /QX-FML/, /System 2/)
-    await page.getByLabel(/Gas temperature/).fill('12')
-    await page.getByLabel(/Minutes since/).fill('60')
-    await page.getByRole('button', { name: 'Save and continue' }).click()
-    await page.getByLabel(/As-found reading/).fill('1420')
-    await page.getByRole('button', { name: 'Record as-found' }).click()
-    await expect.poll(() => page.getByTestId('result-as-found').isVisible()).toBe(true)
+    await recordAsFound(page)
     // The action's save is held back (a slow connection), and the technician goes on to Finish meanwhile.
-    let release!: () => void
-    const held = new Promise<void>(done => (release = done))
-    await page.route(/\/api\/worksheets\/\d+$/, async (route) => {
-      if (route.request().method() === 'PATCH' && route.request().postDataJSON()?.step === 'action') await held
-      await route.continue()
-    })
+    const release = await holdBack(page, /\/api\/worksheets\/\d+$/, request =>
+      request.method() === 'PATCH' && request.postDataJSON()?.step === 'action')
     const answered = page.waitForResponse(response => response.request().method() === 'PATCH' && response.ok())
-    await page.getByRole('button', { name: 'Next: Action' }).click()
-    await page.getByRole('button', { name: /No action/ }).click()
-    await page.getByRole('dialog').getByTestId('confirm-yes').click()
+    await recordNoAction(page)
     await goTo(page, /Finish/)
     release()
     await answered
@@ -112,18 +125,31 @@ describe('per-step refusals', () => {
     await page.context().close()
   })
 
+  it('a photo that finishes uploading after the technician has left Finish still reaches the record', async () => {
+    const page = await signedInPage(browser, 'technician@chargewell.test')
+    await openNewWorksheet(page, /QX-FMJ/, /System 1/)
+    await recordAsFound(page)
+    await recordNoAction(page)
+    await goTo(page, /Finish/)
+    // The upload is held back (a slow connection), and the technician goes back to the as-left meanwhile.
+    const release = await holdBack(page, '**/api/attachments')
+    const reloaded = page.waitForResponse(response =>
+      response.request().method() === 'GET' && /\/api\/worksheets\/\d+$/.test(response.url()) && response.ok())
+    await page.getByLabel(/Gauge photo/).setInputFiles({ name: 'gauge.png', mimeType: 'image/png', buffer: PNG })
+    await goTo(page, /as-left/i)
+    release()
+    await reloaded
+    await goTo(page, /Finish/)
+    await expect.poll(() => page.getByTestId('attachments').isVisible()).toBe(true)
+    expect(await page.getByTestId('attachments').innerText()).toMatch(/gauge\.png/)
+    await page.context().close()
+  })
+
   it('asks before recording an as-left that moved with no charge or vent, and records it once confirmed', async () => {
     const page = await signedInPage(browser, 'technician@chargewell.test')
     await openNewWorksheet(page, /QX-FML/, /System 1/)
-    await page.getByLabel(/Gas temperature/).fill('12')
-    await page.getByLabel(/Minutes since/).fill('60')
-    await page.getByRole('button', { name: 'Save and continue' }).click()
-    await page.getByLabel(/As-found reading/).fill('1420')
-    await page.getByRole('button', { name: 'Record as-found' }).click()
-    await expect.poll(() => page.getByTestId('result-as-found').isVisible()).toBe(true)
-    await page.getByRole('button', { name: 'Next: Action' }).click()
-    await page.getByRole('button', { name: /No action/ }).click()
-    await page.getByRole('dialog').getByTestId('confirm-yes').click()
+    await recordAsFound(page)
+    await recordNoAction(page)
     await page.getByLabel(/As-left reading/).fill('1490')
     await page.getByRole('button', { name: 'Record as-left' }).click()
     await expect.poll(() => page.getByTestId('step-message').innerText()).toMatch(/70\.0 psi away from the as-found[\s\S]*no charge or vent was recorded/)
