@@ -2,6 +2,7 @@ import { useIDBKeyval } from '@vueuse/integrations/useIDBKeyval'
 import { defineStore, skipHydrate } from 'pinia'
 import { can } from '#shared/abilities'
 import type { FieldReference } from '#shared/types/field'
+import { useConnectionStore } from './connection'
 
 const plain = <T>(value: T): T => JSON.parse(JSON.stringify(value))
 
@@ -18,7 +19,7 @@ export const useFieldReferenceStore = defineStore('field-reference', () => {
       })
     : { data: ref(null), isFinished: shallowRef(true) }
   const { user } = useUserSession()
-  const online = useOnline()
+  const online = toRef(useConnectionStore(), 'online')
   const refreshing = ref(false)
   const error = ref<string | null>(null)
   const reference = computed(() =>

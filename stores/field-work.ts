@@ -8,6 +8,7 @@ import type { SpecificationDto } from '#shared/types/registers'
 import type { WorksheetContent, WorksheetDto, WorksheetResults, WorksheetView } from '#shared/types/worksheet'
 import { stationDate } from '#shared/utils/station-time'
 import { applyStep, freezeWorksheetContent, settleUntil, StepRefusal } from '#shared/utils/worksheet-steps'
+import { useConnectionStore } from './connection'
 import { useFieldReferenceStore } from './field-reference'
 
 type StepName = WorksheetStepBody['step']
@@ -57,9 +58,9 @@ const without = <T>(record: Record<string, T>, key: string | number): Record<str
 const EMPTY: FieldWork = { values: {}, pending: [], local: {}, sent: [], settle: {} }
 const plain = <T>(value: T): T => JSON.parse(JSON.stringify(value))
 
+/** No answer at all (the browser's own flag is not consulted: it says "online" on Wi-Fi with no internet). */
 function isOffline(failure: unknown): boolean {
-  const status = (failure as { statusCode?: number })?.statusCode
-  return status === undefined || (import.meta.client && !navigator.onLine)
+  return (failure as { statusCode?: number })?.statusCode === undefined
 }
 
 /** A refusal of the shared step rules, shaped like the server's answer so forms show it the same way. */
@@ -90,7 +91,7 @@ export const useFieldWorkStore = defineStore('field-work', () => {
     : { data: ref(plain(EMPTY)), isFinished: shallowRef(true) }
   const state = stored.data
   const loaded = stored.isFinished
-  const online = useOnline()
+  const online = toRef(useConnectionStore(), 'online')
   const syncing = ref(false)
   const lastError = ref<string | null>(null)
   const { user } = useUserSession()

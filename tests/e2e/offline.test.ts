@@ -17,9 +17,22 @@ afterAll(async () => {
   await browser?.close()
 })
 
+/**
+ * The browser's own flag is not to be trusted: Chromium 150 keeps `navigator.onLine` true after the
+ * network is cut and a page comes from the service worker, and Wi-Fi with no internet says the same.
+ * Every offline test runs with a flag that always says "online" and never fires online/offline, so
+ * the app must find out by reaching the server.
+ */
+function lyingConnectionFlag() {
+  Object.defineProperty(Navigator.prototype, 'onLine', { configurable: true, get: () => true })
+  for (const type of ['online', 'offline'])
+    window.addEventListener(type, event => event.stopImmediatePropagation(), true)
+}
+
 /** Signed in, the service worker in control and the device's reference data kept: ready to go offline. */
 async function readyForTheRamp(email = 'technician@chargewell.test'): Promise<Page> {
   const page = await signedInPage(browser, email)
+  await page.context().addInitScript(lyingConnectionFlag)
   await page.waitForFunction(() => navigator.serviceWorker?.controller, null, { timeout: 30_000 })
   // Visited once online, as a technician does at the start of a shift.
   await page.goto('/worksheets/new')
