@@ -8,10 +8,12 @@ import {
   timingSafeEqual,
   type KeyObject,
 } from 'node:crypto'
-import { Op, QueryTypes, type Transaction } from 'sequelize'
+import { createError } from 'h3'
+import { Op, QueryTypes, Transaction } from 'sequelize'
 import type { ChainReport, RecordProblem } from '../../shared/types/audit'
 import { AuditEvent, AuditHead } from '../models'
 import { canonical, isRecordKind, recordHash, recordHashes, RECORD_KINDS, type RecordKindName } from './record-hash'
+import { guardRecord } from './record-guard'
 
 export const GENESIS_HASH = '0'.repeat(64)
 const HEAD_ID = 1
@@ -67,6 +69,12 @@ interface HeadFields {
   lastHash: string
 }
 
+function sealMatches(head: HeadFields & { seal: string | null }): boolean {
+  const expected = Buffer.from(sealOf(head) ?? '', 'hex')
+  const stored = Buffer.from(head.seal ?? '', 'hex')
+  return expected.length > 0 && expected.length === stored.length && timingSafeEqual(expected, stored)
+}
+
 export function sealOf(head: HeadFields): string | null {
   if (!keys) return null
   return createHmac('sha256', keys.seal)
@@ -108,11 +116,36 @@ export function auditHash(
   return createHash('sha256').update(JSON.stringify(canonicalForm)).digest('hex')
 }
 
+/** Writes are stopped: the chain's head is missing or does not match the chain. */
+function headRefusal(problem: string): never {
+  throw createError({
+    status: 503,
+    statusMessage: 'Service Unavailable',
+    message:
+      `The audit trail cannot take new entries: ${problem} Nothing was changed. Writes are stopped until `
+      + 'an administrator resolves it (Admin → Audit trail).',
+    data: { auditHead: problem },
+  })
+}
+
+/**
+ * The head, locked for this write, checked against the chain's newest entry and its seal. A missing
+ * head is created only for a chain that never had sealed-format entries (a database from before
+ * the head); otherwise the server refuses to write rather than re-seal a chain it cannot vouch for.
+ */
 async function lockedHead(transaction: Transaction): Promise<AuditHead> {
   const head = await AuditHead.findByPk(HEAD_ID, { transaction, lock: transaction.LOCK.UPDATE })
-  if (head) return head
+  const last = await AuditEvent.findOne({ attributes: ['id', 'hash'], order: [['id', 'DESC']], transaction })
+  if (head) {
+    if ((head.lastEventId ?? null) !== (last?.id ?? null) || head.lastHash !== (last?.hash ?? GENESIS_HASH))
+      headRefusal(`its newest entry (${last?.id ?? 'none'}) is not the one its head was sealed with (${head.lastEventId ?? 'none'}).`)
+    if (keys && head.seal && !sealMatches(head))
+      headRefusal('the seal of its head does not match: the head or the chain was rebuilt without the server\'s secret.')
+    return head
+  }
+  if (await AuditEvent.count({ where: { hashVersion: 2 }, transaction }))
+    headRefusal('its sealed head is missing, so entries deleted or rewritten since cannot be ruled out.')
   // A database created before the head existed: start it from the newest entry.
-  const last = await AuditEvent.findOne({ order: [['id', 'DESC']], transaction })
   return AuditHead.create(
     {
       id: HEAD_ID,
@@ -135,6 +168,7 @@ async function lockedHead(transaction: Transaction): Promise<AuditHead> {
 export async function appendAudit(
   fields: Omit<AuditFields, 'at'> & { at?: Date },
   transaction: Transaction,
+  options: { trustCurrentContent?: boolean } = {},
 ): Promise<AuditEvent> {
   const head = await lockedHead(transaction)
   // Millisecond precision and JSON are what the database gives back; hash what will be read back.
@@ -144,10 +178,12 @@ export async function appendAudit(
     detail: JSON.parse(JSON.stringify(fields.detail ?? {})),
   }
   const recordId = Number(entry.entityId)
-  const hashOfRecord
-    = isRecordKind(entry.entity) && Number.isInteger(recordId)
-      ? await recordHash(entry.entity, recordId, transaction)
-      : null
+  const aboutRecord = isRecordKind(entry.entity) && Number.isInteger(recordId)
+  // Vouch only for content the trail already vouched for, changed by this transaction's own writes;
+  // a baseline and an administrator's acceptance of a held record are the two deliberate exceptions.
+  if (aboutRecord && !options.trustCurrentContent)
+    await guardRecord(entry.entity as RecordKindName, recordId, transaction)
+  const hashOfRecord = aboutRecord ? await recordHash(entry.entity as RecordKindName, recordId, transaction) : null
   const event = await AuditEvent.create(
     {
       ...entry,
@@ -161,6 +197,23 @@ export async function appendAudit(
   const next = { eventCount: head.eventCount + 1, lastEventId: event.id, lastHash: event.hash }
   await head.update({ ...next, seal: sealOf(next), sealedAt: keys ? new Date() : head.sealedAt }, { transaction })
   return event
+}
+
+/**
+ * Seals the head over the entries that are there now (an administrator's deliberate act, after
+ * finding out why the head did not match; the caller writes the entry that says so).
+ */
+export async function reanchorHead(transaction: Transaction): Promise<void> {
+  const last = await AuditEvent.findOne({ attributes: ['id', 'hash'], order: [['id', 'DESC']], transaction })
+  const next = {
+    eventCount: await AuditEvent.count({ transaction }),
+    lastEventId: last?.id ?? null,
+    lastHash: last?.hash ?? GENESIS_HASH,
+  }
+  const sealed = { ...next, seal: sealOf(next), sealedAt: keys ? new Date() : null }
+  const head = await AuditHead.findByPk(HEAD_ID, { transaction, lock: transaction.LOCK.UPDATE })
+  if (head) await head.update(sealed, { transaction })
+  else await AuditHead.create({ id: HEAD_ID, ...sealed }, { transaction })
 }
 
 /**
@@ -190,6 +243,7 @@ export async function baselineRecords(transaction: Transaction): Promise<number>
       await appendAudit(
         { actorId: null, entity: kind, entityId: String(id), action: 'integrity-baseline', detail: {} },
         transaction,
+        { trustCurrentContent: true },
       )
       added++
     }
@@ -204,10 +258,12 @@ export async function baselineRecords(transaction: Transaction): Promise<number>
  */
 export async function establishSeal(transaction: Transaction): Promise<{ established: boolean, baselined: number }> {
   if (!keys) return { established: false, baselined: 0 }
-  const head = await lockedHead(transaction)
-  if (head.seal) return { established: false, baselined: 0 }
+  // Read, not checked: a head that does not match is for verification to report and an administrator
+  // to resolve; the server still starts (and refuses writes).
+  const head = await AuditHead.findByPk(HEAD_ID, { transaction })
+  if (head?.seal) return { established: false, baselined: 0 }
   const sealedFormat = await AuditEvent.count({ where: { hashVersion: 2 }, transaction })
-  if (sealedFormat > 0 && head.eventCount > 0) return { established: false, baselined: 0 }
+  if (sealedFormat > 0) return { established: false, baselined: 0 }
   const baselined = await baselineRecords(transaction)
   await appendAudit(
     {
@@ -215,7 +271,7 @@ export async function establishSeal(transaction: Transaction): Promise<{ establi
       entity: 'system',
       entityId: 'audit',
       action: 'seal-established',
-      detail: { entriesBefore: head.eventCount, recordsBaselined: baselined },
+      detail: { entriesBefore: head?.eventCount ?? 0, recordsBaselined: baselined },
     },
     transaction,
   )
@@ -227,8 +283,21 @@ export async function establishSeal(transaction: Transaction): Promise<{ establi
 
 const BATCH = 2000
 
-/** Walks the chain from the start, checks its sealed head, then compares every record with its newest entry. */
+/**
+ * Walks the chain from the start, checks its sealed head, then compares every record with its newest
+ * entry — all in one read transaction, so writers working meanwhile are never mistaken for tampering
+ * (SQLite: a deferred transaction reads one WAL snapshot; PostgreSQL: REPEATABLE READ).
+ */
 export async function verifyAuditChain(): Promise<ChainReport> {
+  const sequelize = AuditEvent.sequelize!
+  const snapshot
+    = sequelize.getDialect() === 'postgres'
+      ? { isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ, readOnly: true }
+      : { type: Transaction.TYPES.DEFERRED }
+  return sequelize.transaction(snapshot, () => verifyInSnapshot())
+}
+
+async function verifyInSnapshot(): Promise<ChainReport> {
   let previousHash = GENESIS_HASH
   let checked = 0
   let lastId = 0
@@ -266,9 +335,7 @@ export async function verifyAuditChain(): Promise<ChainReport> {
       )
     if (!head.seal) headProblems.push('The chain head is not sealed.')
     else if (keys) {
-      const expected = Buffer.from(sealOf(head)!, 'hex')
-      const stored = Buffer.from(head.seal, 'hex')
-      if (expected.length !== stored.length || !timingSafeEqual(expected, stored))
+      if (!sealMatches(head))
         headProblems.push(
           'The chain head\'s seal does not match: the head or the chain was rebuilt without the server\'s secret.',
         )

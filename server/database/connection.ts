@@ -6,6 +6,7 @@ import { Sequelize } from 'sequelize'
 import sqlite3 from 'sqlite3'
 import pg from 'pg'
 import { initModels } from '../models'
+import { installRecordGuards } from './record-guard'
 
 export const DEFAULT_DB_PATH = 'data/chargewell.sqlite'
 
@@ -32,6 +33,7 @@ export async function openDatabase(location: string): Promise<Sequelize> {
     })
     await sequelize.authenticate()
     initModels(sequelize)
+    installRecordGuards()
     return sequelize
   }
   const path = location
@@ -56,5 +58,6 @@ export async function openDatabase(location: string): Promise<Sequelize> {
   })
   await sequelize.query('PRAGMA journal_mode = WAL')
   initModels(sequelize)
+  installRecordGuards()
   return sequelize
 }

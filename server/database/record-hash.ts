@@ -12,6 +12,7 @@ import {
   Tool,
   User,
   Worksheet,
+  listColumns,
 } from '../models'
 
 /**
@@ -33,6 +34,12 @@ interface RecordKind {
   exclude: string[]
   children: Child[]
   omitWhenNull?: string[]
+  /**
+   * Columns kept on the row for lists, derived from hashed columns. Left out of the hash while they
+   * agree with what they derive from (so older hashes stand); a stored value that disagrees is put
+   * into the hashed content, so an edit to a list column behind the application's back shows.
+   */
+  derived?: (row: Record<string, unknown>) => Record<string, unknown>
 }
 
 export const RECORD_KINDS = {
@@ -52,6 +59,7 @@ export const RECORD_KINDS = {
       'cartId',
     ],
     omitWhenNull: ['clientId'],
+    derived: row => listColumns(row.content as Record<string, unknown>, row.results as Record<string, unknown>),
     children: [
       { model: Signature as ModelStatic<Model>, foreignKey: 'worksheetId', name: 'signatures' },
       { model: Attachment as ModelStatic<Model>, foreignKey: 'worksheetId', name: 'attachments' },
@@ -117,6 +125,18 @@ function plain(row: Model, exclude: string[] = [], omitWhenNull: string[] = []):
   )
 }
 
+/** The derived columns whose stored value is not what they derive from, as stored; null when all agree. */
+function derivedDisagreements(
+  row: Model,
+  derive: (row: Record<string, unknown>) => Record<string, unknown>,
+): Record<string, unknown> | null {
+  const stored = row.get({ plain: true }) as Record<string, unknown>
+  const out = Object.entries(derive(stored)).filter(
+    ([column, value]) => String(stored[column] ?? null) !== String(value ?? null),
+  )
+  return out.length ? Object.fromEntries(out.map(([column]) => [column, stored[column] ?? null])) : null
+}
+
 // Map.groupBy arrives with Node 21.
 function groupBy<T, K>(items: T[], key: (item: T) => K): Map<K, T[]> {
   const groups = new Map<K, T[]>()
@@ -149,6 +169,8 @@ export async function recordHashes(
   for (const row of rows) {
     const id = row.get('id') as number
     const snapshot: Record<string, unknown> = plain(row, definition.exclude, definition.omitWhenNull)
+    const disagreeing = definition.derived ? derivedDisagreements(row, definition.derived) : null
+    if (disagreeing) snapshot.storedOutOfStep = disagreeing
     definition.children.forEach((child, index) => {
       snapshot[child.name] = (childrenOf[index]!.get(id) ?? []).map(candidate => plain(candidate, child.exclude))
     })

@@ -128,7 +128,7 @@ export async function renormaliseUnit(
 }
 
 export interface AlertChange {
-  kind: 'precharge' | 'cycle'
+  kind: 'precharge' | 'cycle' | 'integrity'
   subject: string
   message: string
 }

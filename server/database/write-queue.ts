@@ -58,3 +58,13 @@ export function createWriteQueue(sequelize: Sequelize): WriteQueue {
   Object.defineProperty(run, 'waiting', { get: () => waiting })
   return run as WriteQueue
 }
+
+/** The write transaction open in this async context, if any. */
+export function activeTransaction(): Transaction | undefined {
+  return (namespace.get('transaction') as Transaction | null | undefined) ?? undefined
+}
+
+/** Runs `work` outside any write this context is in (news of a refused write must not join its rollback). */
+export function outsideTransaction<T>(work: () => T): T {
+  return context.exit(work)
+}

@@ -3,7 +3,7 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 /** A trend flag that has been raised (and mailed); cleared when the trend no longer flags. */
 export class TrendAlert extends Model<InferAttributes<TrendAlert>, InferCreationAttributes<TrendAlert>> {
   declare id: CreationOptional<number>
-  declare kind: 'precharge' | 'cycle'
+  declare kind: 'precharge' | 'cycle' | 'integrity'
   declare subject: string
   declare message: string
   declare raisedAt: Date

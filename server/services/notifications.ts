@@ -1,6 +1,7 @@
 import { Op } from 'sequelize'
 import type { WorksheetContent } from '#shared/types/worksheet'
 import { can } from '#shared/abilities'
+import type { HeldRecord } from '../database/record-guard'
 import type { AlertChange } from '../database/trend-store'
 import { Notification, User, type Worksheet } from '../models'
 
@@ -71,6 +72,24 @@ export async function mailAlerts(changes: AlertChange[]): Promise<void> {
       ),
     )
   }
+}
+
+/** A write was refused because a record changed outside Chargewell: every administrator is told, once per hold. */
+export async function mailIntegrityHold(held: HeldRecord): Promise<void> {
+  const admins = (await activeUsers()).filter(user => can(user.roles, 'audit.verify'))
+  await Promise.all(
+    admins.map(admin =>
+      sendMail({
+        to: admin.email,
+        kind: 'integrity-hold',
+        subject: `Record held: ${held.entity} ${held.entityId} changed outside Chargewell`,
+        text:
+          `${held.reason}\n\nChargewell refused a write to it and holds it until an administrator has checked it. `
+          + `Compare it with the paper record or a backup, then accept its content with your reason, or restore it: `
+          + `${link('/admin')}`,
+      }),
+    ),
+  )
 }
 
 /** The outbox: what Chargewell sent (or failed to send), and what the local fake SMTP server received. */

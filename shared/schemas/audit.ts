@@ -7,3 +7,18 @@ export const auditEventQuerySchema = z.object({
   page: z.coerce.number().int().min(1).max(100_000, 'At most page 100000.').default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(25),
 }).strict()
+
+const RECORD_KIND = z.enum(['worksheet', 'specification', 'tool', 'user', 'aircraft', 'accumulator', 'cycle-check'])
+const REASON = z.string().trim().min(10, 'Say in at least 10 characters what you checked and why.').max(1000)
+
+/** An administrator accepts a held record's current content, after checking it against the paper or a backup. */
+export const auditAcceptSchema = z.object({
+  entity: RECORD_KIND,
+  entityId: z.coerce.number().int().min(1).transform(String),
+  reason: REASON,
+}).strict()
+export type AuditAcceptBody = z.infer<typeof auditAcceptSchema>
+
+/** An administrator re-anchors the chain's head at the entries that are there, after finding out why it broke. */
+export const auditResolveHeadSchema = z.object({ reason: REASON }).strict()
+export type AuditResolveHeadBody = z.infer<typeof auditResolveHeadSchema>

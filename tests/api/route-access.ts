@@ -33,6 +33,8 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'GET /api/audit/events': 'audit.verify',
   'GET /api/audit/export': 'audit.verify',
   'GET /api/audit/verify': 'audit.verify',
+  'POST /api/audit/accept': 'audit.verify',
+  'POST /api/audit/resolve-head': 'audit.verify',
   'POST /api/auth/login': 'public',
   'POST /api/auth/logout': 'public',
   'POST /api/calc/assess-reading': 'calculation.run',

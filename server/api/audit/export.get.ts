@@ -1,6 +1,7 @@
 import { Readable } from 'node:stream'
 import { noQuerySchema } from '#shared/schemas/common'
-import { auditExportLines, auditSigningKey } from '../../database/audit-chain'
+import { auditSigningKey } from '../../database/audit-chain'
+import { signedExport } from '../../services/audit'
 
 /**
  * The whole audit chain as signed newline-delimited JSON, streamed in batches. Check it offline
@@ -12,5 +13,5 @@ export default defineEventHandler(async (event) => {
   if (!auditSigningKey()) throw createError({ status: 503, statusMessage: 'Service Unavailable', message: 'No audit secret is configured, so the export cannot be signed.' })
   setResponseHeader(event, 'content-type', 'application/x-ndjson; charset=utf-8')
   setResponseHeader(event, 'content-disposition', `attachment; filename="chargewell-audit-${stationToday()}.ndjson"`)
-  return sendStream(event, Readable.from(auditExportLines(`${user.name} <${user.email}>`)))
+  return sendStream(event, Readable.from(signedExport(user)))
 })
