@@ -52,6 +52,8 @@ export default defineNuxtConfig({
     loginAccountFailures: 5,
     loginAddressFailures: 30,
     loginWindowMinutes: 15,
+    /** How long before it reaches the server a device may date a step it kept with no signal (hours). */
+    deviceClockSpanHours: 72,
     /** Behind a reverse proxy: take the client address from X-Forwarded-For. */
     trustProxy: false,
     public: {

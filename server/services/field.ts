@@ -9,7 +9,16 @@ import { toInstalledUnits } from './accumulators'
 import { unprocessable } from './records'
 import { toSpecificationDto } from './specifications'
 import { toToolDto } from './tools'
-import { checkCorrection, draftAttributes, frozenContent, runStep, stepTime, unitToService, worksheetById } from './worksheets'
+import {
+  checkCorrection,
+  claimProblem,
+  deviceClockSpanHours,
+  draftAttributes,
+  frozenContent,
+  runStep,
+  unitToService,
+  worksheetById,
+} from './worksheets'
 
 /**
  * Work on the ramp with no signal. A technician's device keeps the reference data it needs (their
@@ -68,20 +77,34 @@ async function answerFor(worksheet: Worksheet, actor: User): Promise<SyncAnswer>
   }
 }
 
-/** Steps dated as the device took them: each not in the future, none before the start or the step before. */
-function checkTimes(body: OfflineWorksheetBody): void {
-  const now = Date.now()
-  let previous = Date.parse(body.startedAt)
-  if (previous > now + 120_000)
-    unprocessable('The worksheet is dated in the future: check the device\'s clock.', 'startedAt')
-  body.steps.forEach((step, index) => {
-    const at = Date.parse(step.at)
-    if (at > now + 120_000)
-      unprocessable('This step is dated in the future: check the device\'s clock.', `steps.${index}.at`)
-    if (at < previous - 60_000)
-      unprocessable('This step is dated before the one before it: check the device\'s clock.', `steps.${index}.at`)
+/**
+ * The device's times, bounded by the server's: the start no later than the receipt and not more than
+ * the configured span before it; each step between the one before it and the receipt. A time out of
+ * bounds is replaced by the nearest bound it may have (the device's claim stays in the timeline) and
+ * said in a conflict the technician reviews before signing: never signed as if nothing happened.
+ */
+function boundedTimes(body: OfflineWorksheetBody, receivedAt: number, conflicts: string[]) {
+  const clamp = (time: number, earliest: number) =>
+    Number.isNaN(time) ? earliest : Math.min(Math.max(time, earliest), receivedAt)
+  const said = (what: string, claim: string, problem: string, used: number) =>
+    conflicts.push(
+      `The device's clock: ${what} is dated ${claim}, which ${problem}. It was taken as ${new Date(used).toISOString()} `
+      + '(the server\'s time); check the device\'s clock and the readings\' times.',
+    )
+  const startClaim = Date.parse(body.startedAt)
+  const startProblem = claimProblem(startClaim, receivedAt, -Infinity)
+  const startedAt = startProblem ? clamp(startClaim, receivedAt - deviceClockSpanHours() * 3_600_000) : startClaim
+  if (startProblem) said('the start', body.startedAt, startProblem, startedAt)
+  let previous = startedAt
+  const steps = body.steps.map((step, index) => {
+    const claim = Date.parse(step.at)
+    const problem = claimProblem(claim, receivedAt, previous - 60_000)
+    const at = problem ? clamp(claim, previous) : claim
+    if (problem) said(`step ${index + 1} (${STEP_NAMES[step.body.step]})`, step.at, problem, at)
     previous = at
+    return { at: new Date(at).toISOString(), claimedAt: step.at }
   })
+  return { startedAt: new Date(startedAt).toISOString(), steps }
 }
 
 /**
@@ -91,11 +114,13 @@ function checkTimes(body: OfflineWorksheetBody): void {
 export async function syncOfflineWorksheet(actor: User, body: OfflineWorksheetBody): Promise<SyncAnswer> {
   const known = await Worksheet.findOne({ where: { clientId: body.clientId } })
   if (known) return answerFor(known, actor)
-  checkTimes(body)
+  const receivedAt = Date.now()
+  const received = new Date(receivedAt).toISOString()
   const unit = await unitToService(body.accumulatorId)
   const { accumulator, aircraft, specification } = unit
   await checkCorrection(actor, body.correctsId, accumulator.id)
   const conflicts: string[] = []
+  const times = boundedTimes(body, receivedAt, conflicts)
   if (specification.id !== body.specificationId) {
     const used = await Specification.findByPk(body.specificationId)
     conflicts.push(
@@ -106,13 +131,13 @@ export async function syncOfflineWorksheet(actor: User, body: OfflineWorksheetBo
   let state: { content: WorksheetContent, results: WorksheetResults } = {
     content: {
       ...frozenContent(accumulator, aircraft, toSpecificationDto(specification)),
-      offline: { clientId: body.clientId, startedAt: body.startedAt, syncedAt: new Date().toISOString(), conflicts },
+      offline: { clientId: body.clientId, startedAt: times.startedAt, syncedAt: received, conflicts },
     },
     results: {},
   }
   for (const [index, step] of body.steps.entries()) {
     try {
-      state = await runStep(state, step.body, stepTime(state.content, step.at, `steps.${index}.at`))
+      state = await runStep(state, step.body, { ...times.steps[index]!, receivedAt: received })
     }
     catch (error) {
       if (!(error instanceof StepRefusal)) throw error
@@ -131,7 +156,7 @@ export async function syncOfflineWorksheet(actor: User, body: OfflineWorksheetBo
       const created = await Worksheet.create(
         draftAttributes(actor, unit, body, {
           ...state,
-          performedAt: new Date(body.startedAt),
+          performedAt: new Date(times.startedAt),
           clientId: body.clientId,
         }),
         { transaction },

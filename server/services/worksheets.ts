@@ -280,18 +280,24 @@ async function toolsFor(content: WorksheetContent, step: WorksheetStepBody): Pro
 }
 
 /**
- * Runs the shared step rules with the tool register and the station's date at `takenAt`: the
- * server's clock, or — for a step taken on a device without signal — the device's, checked first
- * (`stepTime`). A refusal is thrown as the shared rules' StepRefusal.
+ * Runs the shared step rules with the tool register. The step's time is `time.at`: the server's
+ * receipt, or the device's claim where it gave one and the claim is within bounds (`claimedStepTime`).
+ * The calibration of the tools is judged on the station's date at the later of the two, so a claimed
+ * time can never make an expired gauge acceptable. The receipt (and the claim) join the record's
+ * timeline. A refusal is thrown as the shared rules' StepRefusal.
  */
 export async function runStep(
   worksheet: Pick<Worksheet, 'content' | 'results'>,
   step: WorksheetStepBody,
-  takenAt: string,
+  time: { at: string, receivedAt: string, claimedAt?: string },
 ) {
   const tools = await toolsFor(worksheet.content, step)
-  const today = stationDate(String(useRuntimeConfig().public.stationTimeZone), takenAt)
-  return applyStep(worksheet, step, { now: takenAt, today, tool: id => tools.get(id) })
+  const later = new Date(Math.max(Date.parse(time.at), Date.parse(time.receivedAt))).toISOString()
+  const today = stationDate(String(useRuntimeConfig().public.stationTimeZone), later)
+  const next = applyStep(worksheet, step, { now: time.at, today, tool: id => tools.get(id) })
+  const receipt = { step: step.step, receivedAt: time.receivedAt, ...(time.claimedAt ? { claimedAt: time.claimedAt } : {}) }
+  next.content.timeline = [...(worksheet.content.timeline ?? []), receipt]
+  return next
 }
 
 /** Latest time a step already in the worksheet carries, for checking a device's step times. */
@@ -307,20 +313,55 @@ function lastStepTime(content: WorksheetContent): number {
   return Math.max(0, ...times.map(time => Date.parse(time)))
 }
 
+/** Clocks of devices and server disagree by this much without it meaning anything. */
+const CLOCK_GRACE_MS = 120_000
+const ORDER_GRACE_MS = 60_000
+
+/** How long before it reaches the server a device may say a step was taken (NUXT_DEVICE_CLOCK_SPAN_HOURS). */
+export function deviceClockSpanHours(): number {
+  return Number(useRuntimeConfig().deviceClockSpanHours) || 72
+}
+
 /**
- * When a step was taken. Online, now. A step a device kept while it had no signal carries the
- * device's time: accepted if it is not in the future (two minutes' grace for clocks) and not
- * before the steps already recorded, so the settle time is judged by when the readings were taken.
+ * The earliest time a device may claim for the next step: not before the steps already recorded
+ * and, for a worksheet started on the server, not before the server started it.
  */
-export function stepTime(content: WorksheetContent, takenAt: string | undefined, field = 'x-taken-at'): string {
-  const now = Date.now()
-  if (!takenAt) return new Date(now).toISOString()
-  const time = Date.parse(takenAt)
-  if (Number.isNaN(time)) unprocessable('The time the step was taken is not a date.', field)
-  if (time > now + 120_000) unprocessable('The step is dated in the future: check the device\'s clock.', field)
-  if (time < lastStepTime(content) - 60_000)
-    unprocessable('The step is dated before the steps already recorded: check the device\'s clock.', field)
-  return new Date(time).toISOString()
+export function earliestClaim(content: WorksheetContent, startedOnServerAt?: Date | null): number {
+  return Math.max(lastStepTime(content), content.offline ? 0 : (startedOnServerAt?.getTime() ?? 0)) - ORDER_GRACE_MS
+}
+
+/** What is wrong with a time a device claims for a step, in words, or null when it is within bounds. */
+export function claimProblem(claim: number, receivedAt: number, earliest: number): string | null {
+  const span = deviceClockSpanHours()
+  if (Number.isNaN(claim)) return 'is not a date'
+  if (claim > receivedAt + CLOCK_GRACE_MS) return 'is later than the moment the server received it'
+  if (claim < receivedAt - span * 3_600_000) return `is more than ${span} hours before the server received it`
+  if (claim < earliest) return 'is before the steps already recorded (or before the worksheet was started)'
+  return null
+}
+
+/**
+ * When an online step was taken: the server's receipt; or, for a step a device kept while it had no
+ * signal (`x-taken-at`), the device's claim when it is within bounds — else 422, nothing saved.
+ */
+export function claimedStepTime(
+  worksheet: Pick<Worksheet, 'content' | 'createdAt'>,
+  takenAt: string | undefined,
+  field = 'x-taken-at',
+): { at: string, receivedAt: string, claimedAt?: string } {
+  const receivedAt = Date.now()
+  const received = new Date(receivedAt).toISOString()
+  if (!takenAt) return { at: received, receivedAt: received }
+  const claim = Date.parse(takenAt)
+  const problem = claimProblem(claim, receivedAt, earliestClaim(worksheet.content, worksheet.createdAt))
+  if (problem)
+    unprocessable(
+      `The time this device gives for the step (${takenAt}) ${problem}. Nothing was saved: check the device's clock `
+      + 'and take the step again.',
+      field,
+    )
+  const claimed = new Date(claim).toISOString()
+  return { at: claimed, receivedAt: received, claimedAt: claimed }
 }
 
 /** Saves one completed step: the server recomputes every figure from the frozen specification. */
@@ -335,10 +376,10 @@ export async function saveStep(
     const worksheet = await lockedWorksheet(id, transaction)
     enforce(canEdit(actor, worksheet))
     checkVersion(worksheet, expectedVersion)
-    const at = stepTime(worksheet.content, takenAt)
+    const time = claimedStepTime(worksheet, takenAt)
     let next
     try {
-      next = await runStep(worksheet, step, at)
+      next = await runStep(worksheet, step, time)
     }
     catch (error) {
       if (error instanceof StepRefusal) throw asHttpError(error)
@@ -350,7 +391,7 @@ export async function saveStep(
       { content: next.content, results: next.results, engineVersion: ENGINE_VERSION },
       transaction,
     )
-    await audit(actor, worksheet, 'step-saved', { step: step.step, ...(takenAt ? { takenAt: at } : {}) }, transaction)
+    await audit(actor, worksheet, 'step-saved', { step: step.step, ...(time.claimedAt ? { deviceClaimedAt: time.claimedAt } : {}) }, transaction)
   })
   return worksheetById(id)
 }

@@ -27,6 +27,13 @@ export interface ToolSnapshot {
 }
 
 /** What the performer entered, step by step. Times are ISO strings stamped by the server. */
+/** One step as the server received it. */
+export interface StepReceipt {
+  step: string
+  receivedAt: string
+  claimedAt?: string
+}
+
 export interface WorksheetContent {
   specification: Omit<SpecificationDto, 'status'>
   aircraft: { id: number, registration: string, fleetNumber: string, type: string }
@@ -52,6 +59,11 @@ export interface WorksheetContent {
    * review of it.
    */
   offline?: { clientId: string, startedAt: string, syncedAt: string, conflicts: string[], reviewedAt?: string }
+  /**
+   * When the server received each step, and the time the device claimed for it where it gave one (a step kept
+   * on a device with no signal). The record's time is the server's; the claim is kept as the device's word.
+   */
+  timeline?: StepReceipt[]
   finish?: {
     valveLeakCheck: boolean
     capFitted: boolean

@@ -173,19 +173,25 @@ describe('a worksheet sent from a device', () => {
     expect(signed.status).toBe(200)
   })
 
-  it('refuses a worksheet the device dated in the future or out of order, naming the step, and writes nothing', async () => {
+  it('a worksheet the device dated in the future or out of order comes back with the clock as a conflict, never clean', async () => {
     const { body } = await offlineWorksheet('QX-FMA', /Normal brake/)
     const future = structuredClone(body)
     future.steps[3]!.at = new Date(Date.now() + 3_600_000).toISOString()
     const answer = await api('/api/worksheets/sync', { cookie: cookies.technician, body: future })
-    expect(answer.status).toBe(422)
-    expect(JSON.stringify(answer.body)).toMatch(/steps\.3\.at/)
+    expect(answer.status).toBe(201)
+    expect(answer.body.conflicts.join(' ')).toMatch(/The device's clock: step 4 \(As-found\) is dated .* later than the moment the server received it/)
     const backwards = structuredClone(body)
+    backwards.clientId = randomUUID()
     backwards.steps[4]!.at = minutesAgo(120)
-    const refused = await api('/api/worksheets/sync', { cookie: cookies.technician, body: backwards })
-    expect(refused.status).toBe(422)
-    expect(JSON.stringify(refused.body)).toMatch(/dated before the one before it/)
-    expect((await api(`/api/worksheets?q=${body.workOrder}`, { cookie: cookies.technician })).body.items).toHaveLength(0)
+    const reviewed = await api('/api/worksheets/sync', { cookie: cookies.technician, body: backwards })
+    expect(reviewed.status).toBe(201)
+    expect(reviewed.body.conflicts.join(' ')).toMatch(/step 5 \(Action\) .* before the steps already recorded/)
+    // Signing waits for the technician to say they have read it.
+    const held = await api(`/api/worksheets/${reviewed.body.worksheet.id}/sign`, {
+      cookie: cookies.technician,
+      body: { password: DEMO_PASSWORD, certify: true },
+    })
+    expect(held.status).toBe(422)
   })
 
   it('answers bad input on its field, and is only for those who perform work', async () => {

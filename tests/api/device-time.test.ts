@@ -1,0 +1,120 @@
+/**
+ * Server time is the record's time. A device's claimed time (`x-taken-at` on a step it kept with no
+ * signal, the times of a worksheet filled offline) is kept as the device's claim, bounded by the
+ * server's receipt, and can never make a refused step acceptable: not an expired gauge, not a settle
+ * time that has not passed.
+ */
+import { randomUUID } from 'node:crypto'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { api, DEMO, DEMO_PASSWORD, signIn } from '../support/api'
+import { AMBIENT, expectedTarget, GAS_TEMPERATURE, toolId, unitAt } from '../support/worksheet-flow'
+
+let technician: string
+let admin: string
+beforeAll(async () => {
+  technician = await signIn(DEMO.technician)
+  admin = await signIn(DEMO.admin)
+})
+const minutesAgo = (minutes: number) => new Date(Date.now() - minutes * 60_000).toISOString()
+const hoursAgo = (hours: number) => minutesAgo(hours * 60)
+
+async function started(registration = 'QX-FMA', position = /Normal brake/) {
+  const unit = await unitAt(technician, registration, position)
+  const created = await api('/api/worksheets', { cookie: technician, body: { accumulatorId: unit.id, workOrder: `WO-CLOCK-${Date.now()}`, reason: 'scheduled' } })
+  expect(created.status).toBe(201)
+  const id = created.body.id as number
+  const step = (body: object, takenAt?: string) =>
+    api(`/api/worksheets/${id}`, { method: 'PATCH', cookie: technician, body, headers: takenAt ? { 'x-taken-at': takenAt } : {} })
+  return { id, created: created.body, step }
+}
+
+describe('a step sent online with the device\'s time', () => {
+  it('an expired gauge dated back to before its expiry is refused, and nothing is saved', async () => {
+    const { id, step } = await started()
+    expect((await step({ step: 'preparation', systemDepressurised: true, aircraftSafe: true, eyeProtection: true, nitrogenOnly: true })).status).toBe(200)
+    const expired = { step: 'tools', gaugeId: await toolId(technician, 'GA-0098'), cartId: await toolId(technician, 'NC-07') }
+    expect((await step(expired)).status).toBe(422)
+    const backdated = await step(expired, '2026-11-01T08:00:00Z')
+    expect(backdated.status).toBe(422)
+    expect(backdated.body.message).toMatch(/more than 72 hours before the server received it[\s\S]*Nothing was saved/)
+    // Within the span but before the worksheet was started on the server: refused the same way.
+    const beforeStart = await step(expired, minutesAgo(30))
+    expect(beforeStart.status).toBe(422)
+    expect(beforeStart.body.message).toMatch(/before the worksheet was started/)
+    expect(backdated.body.data.issues[0].field).toBe('x-taken-at')
+    expect((await api(`/api/worksheets/${id}`, { cookie: technician })).body.content.tools).toBeUndefined()
+  })
+
+  it('dating the charge back does not shorten the settle time', async () => {
+    const { created, step } = await started('QX-FMC', /Normal brake/)
+    expect((await step({ step: 'preparation', systemDepressurised: true, aircraftSafe: true, eyeProtection: true, nitrogenOnly: true })).status).toBe(200)
+    expect((await step({ step: 'tools', gaugeId: await toolId(technician, 'GA-0141'), cartId: await toolId(technician, 'NC-07') })).status).toBe(200)
+    expect((await step({ step: 'conditions', gasTemperature: GAS_TEMPERATURE, temperatureMethod: 'ambient-shade', minutesSinceOperated: 90, ambient: AMBIENT })).status).toBe(200)
+    const target = expectedTarget(created.content.specification).target
+    const low = { value: Math.round(target.value) - 150, unit: target.unit, basis: target.basis }
+    const right = { value: Math.round(target.value), unit: target.unit, basis: target.basis }
+    expect((await step({ step: 'asFound', reading: low }, minutesAgo(30))).status).toBe(422)
+    expect((await step({ step: 'asFound', reading: low })).status).toBe(200)
+    expect((await step({ step: 'action', kind: 'charge' }, minutesAgo(30))).status).toBe(422)
+    expect((await step({ step: 'action', kind: 'charge' })).status).toBe(200)
+    // The as-left right after the charge: the settle time has not passed, whatever the device says.
+    const early = await step({ step: 'asLeft', reading: right, gasTemperature: GAS_TEMPERATURE })
+    expect(early.status).toBe(409)
+    expect(early.body.message).toMatch(/more minute/)
+    expect((await step({ step: 'asLeft', reading: right, gasTemperature: GAS_TEMPERATURE }, new Date(Date.now() + 3_600_000).toISOString())).status).toBe(422)
+  })
+
+  it('every step carries the server\'s receipt, and the device\'s claim beside it', async () => {
+    const { id, step } = await started('QX-FMJ', /System 1/)
+    const claim = new Date(Date.now() - 5_000).toISOString()
+    expect((await step({ step: 'preparation', systemDepressurised: true, aircraftSafe: true, eyeProtection: true, nitrogenOnly: true }, claim)).status).toBe(200)
+    const record = (await api(`/api/worksheets/${id}`, { cookie: technician })).body
+    expect(record.content.timeline).toHaveLength(1)
+    expect(record.content.timeline[0]).toMatchObject({ step: 'preparation', claimedAt: claim })
+    expect(Date.parse(record.content.timeline[0].receivedAt)).toBeGreaterThanOrEqual(Date.parse(claim))
+  })
+})
+
+describe('a worksheet filled offline with a wrong or tampered clock', () => {
+  async function offlineBody(startedAt: string, stepTimes: string[], gauge: string) {
+    const unit = await unitAt(technician, 'QX-FMA', /Normal brake/)
+    const reference = (await api('/api/field/reference', { cookie: technician })).body
+    const installed = reference.units.find((item: { id: number }) => item.id === unit.id)
+    const specification = reference.specifications.find((item: { partNumber: string }) => item.partNumber === installed.partNumber)
+    return {
+      clientId: randomUUID(),
+      accumulatorId: unit.id,
+      specificationId: specification.id as number,
+      workOrder: `WO-CLOCK-${Date.now()}`,
+      reason: 'scheduled',
+      startedAt,
+      steps: [
+        { at: stepTimes[0]!, body: { step: 'preparation', systemDepressurised: true, aircraftSafe: true, eyeProtection: true, nitrogenOnly: true } },
+        { at: stepTimes[1]!, body: { step: 'tools', gaugeId: await toolId(technician, gauge), cartId: await toolId(technician, 'NC-07') } },
+      ],
+    }
+  }
+
+  it('started in 2020 with an expired gauge: conflicts to review, the gauge refused, and it cannot be signed', async () => {
+    const body = await offlineBody('2020-03-01T08:00:00Z', ['2020-03-01T08:05:00Z', '2020-03-01T08:10:00Z'], 'GA-0098')
+    const answer = await api('/api/worksheets/sync', { cookie: technician, body })
+    expect(answer.status).toBe(201)
+    const conflicts = answer.body.conflicts.join(' ')
+    expect(conflicts).toMatch(/the start is dated 2020-03-01T08:00:00Z, which is more than 72 hours before the server received it/)
+    expect(conflicts).toMatch(/Tools was not accepted: Gauge GA-0098/)
+    expect(answer.body.worksheet.content.tools).toBeUndefined()
+    const signed = await api(`/api/worksheets/${answer.body.worksheet.id}/sign`, { cookie: technician, body: { password: DEMO_PASSWORD, certify: true } })
+    expect(signed.status).toBe(422)
+  })
+
+  it('a gauge in calibration when the device says it was used, expired when the server receives it: judged at receipt', async () => {
+    const gaugeId = await toolId(admin, 'GA-0152')
+    const yesterday = new Date(Date.now() - 86_400_000).toISOString().slice(0, 10)
+    expect((await api(`/api/tools/${gaugeId}`, { method: 'PATCH', cookie: admin, body: { calibrationDue: yesterday } })).status).toBe(200)
+    const body = await offlineBody(hoursAgo(50), [hoursAgo(49.9), hoursAgo(49.8)], 'GA-0152')
+    const answer = await api('/api/worksheets/sync', { cookie: technician, body })
+    expect(answer.status).toBe(201)
+    expect(answer.body.conflicts.join(' ')).toMatch(/Tools was not accepted: Gauge GA-0152: calibration expired/)
+    expect(answer.body.worksheet.content.timeline[0]).toMatchObject({ step: 'preparation', claimedAt: body.steps[0]!.at })
+  })
+})
