@@ -6,7 +6,6 @@ import { STEP_NAMES, StepRefusal } from '#shared/utils/worksheet-steps'
 import { appendAudit } from '../database/audit-chain'
 import { Accumulator, Aircraft, Specification, SpecificationTablePoint, Tool, Worksheet, type User } from '../models'
 import { toInstalledUnits } from './accumulators'
-import { unprocessable } from './records'
 import { toSpecificationDto } from './specifications'
 import { toToolDto } from './tools'
 import {

@@ -295,7 +295,8 @@ export async function runStep(
   const later = new Date(Math.max(Date.parse(time.at), Date.parse(time.receivedAt))).toISOString()
   const today = stationDate(String(useRuntimeConfig().public.stationTimeZone), later)
   const next = applyStep(worksheet, step, { now: time.at, today, tool: id => tools.get(id) })
-  const receipt = { step: step.step, receivedAt: time.receivedAt, ...(time.claimedAt ? { claimedAt: time.claimedAt } : {}) }
+  const claim = time.claimedAt ? { claimedAt: time.claimedAt } : {}
+  const receipt = { step: step.step, receivedAt: time.receivedAt, ...claim }
   next.content.timeline = [...(worksheet.content.timeline ?? []), receipt]
   return next
 }

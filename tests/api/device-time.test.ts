@@ -80,7 +80,9 @@ describe('a worksheet filled offline with a wrong or tampered clock', () => {
     const unit = await unitAt(technician, 'QX-FMA', /Normal brake/)
     const reference = (await api('/api/field/reference', { cookie: technician })).body
     const installed = reference.units.find((item: { id: number }) => item.id === unit.id)
-    const specification = reference.specifications.find((item: { partNumber: string }) => item.partNumber === installed.partNumber)
+    const specification = reference.specifications.find(
+      (item: { partNumber: string }) => item.partNumber === installed.partNumber,
+    )
     return {
       clientId: randomUUID(),
       accumulatorId: unit.id,
