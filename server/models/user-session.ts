@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
 
-export type SessionEndReason = 'signed-out' | 'ended-by-user' | 'signed-out-everywhere' | 'password-changed' | 'password-reset' | 'disabled' | 'roles-changed'
+export type SessionEndReason = 'signed-out' | 'ended-by-user' | 'signed-out-everywhere' | 'password-changed' | 'password-reset' | 'disabled' | 'roles-changed' | 'reauthentication-locked'
 
 /** One signed-in device: the sealed session cookie carries `token`; the row says whether it still counts. */
 export class UserSession extends Model<InferAttributes<UserSession>, InferCreationAttributes<UserSession>> {

@@ -127,6 +127,8 @@ function endedMessage(reason: SessionEndReason | null): string {
   switch (reason) {
     case 'signed-out':
       return 'You signed out of this session. Please sign in again.'
+    case 'reauthentication-locked':
+      return 'This session was ended after too many wrong passwords. Sign in again once the lock has passed.'
     case 'ended-by-user':
     case 'signed-out-everywhere':
       return 'This session was ended from another device. Please sign in again.'
@@ -205,6 +207,75 @@ export async function signIn(event: H3Event, body: { email: string, password: st
   await attemptSucceeded(ticket)
   await beginSession(event, user)
   return user.toPublic()
+}
+
+const reauthenticating = new Map<string, Promise<unknown>>()
+/**
+ * One re-authentication at a time per account in this process: each is counted, then checked, then
+ * settled before the next is admitted, so parallel right passwords (two tabs signing) all pass and
+ * parallel guesses stop at the limit. (Sign-in counts unsettled attempts as failures instead.)
+ */
+function oneAtATimeFor<T>(account: string, work: () => Promise<T>): Promise<T> {
+  const run = (reauthenticating.get(account) ?? Promise.resolve()).then(work)
+  const settled = run.catch(() => undefined)
+  reauthenticating.set(account, settled)
+  void settled.then(() => reauthenticating.get(account) === settled && reauthenticating.delete(account))
+  return run
+}
+
+/** What a wrong password to re-authenticate is answered with: the status, the words, the field. */
+export interface ReauthenticationRefusal {
+  status: 401 | 422
+  message: string
+  field: string
+}
+
+/**
+ * The signed-in user proves again that it is them (to sign, countersign, change their password),
+ * counted like a sign-in: each attempt recorded before its check against the same per-account and
+ * per-address limits. When they are reached, the session making the guesses is ended, so a stolen
+ * live session cannot guess its way past the sign-in lockout.
+ */
+export async function reauthenticate(
+  event: H3Event,
+  user: User,
+  password: string,
+  refusal: ReauthenticationRefusal,
+): Promise<void> {
+  const endThisSession = async () => {
+    const sessionId = event.context.sessionId as number | undefined
+    if (sessionId) await endSession(sessionId, 'reauthentication-locked')
+    await clearUserSession(event)
+  }
+  const matched = await oneAtATimeFor(user.email, async () => {
+    let ticket
+    try {
+      ticket = await admitAttempt(event, user.email)
+    }
+    catch (error) {
+      if ((error as { statusCode?: number }).statusCode === 429) await endThisSession()
+      throw error
+    }
+    if (await checkPassword(user.passwordHash, password)) {
+      await attemptSucceeded(ticket)
+      return true
+    }
+    try {
+      await refuseIfLockedOut(event, user.email, 'This session has been ended; sign in again once the lock has passed.')
+    }
+    catch (error) {
+      await endThisSession()
+      throw error
+    }
+    return false
+  })
+  if (matched) return
+  throw createError({
+    status: refusal.status,
+    statusMessage: refusal.status === 401 ? 'Unauthorized' : 'Unprocessable Entity',
+    message: refusal.message,
+    data: { issues: [{ path: [refusal.field], field: refusal.field, message: 'Not your password.' }] },
+  })
 }
 
 /** Ends this request's session on the server and clears its cookie; harmless without one. */

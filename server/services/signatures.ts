@@ -1,6 +1,8 @@
 import { UniqueConstraintError, type Transaction } from 'sequelize'
 import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT } from '#shared/types/worksheet'
+import type { H3Event } from 'h3'
 import { Signature, User } from '../models'
+import { reauthenticate } from './sessions'
 
 /**
  * Signatures on a worksheet: the signer as the database holds them now (never a cached name or
@@ -24,14 +26,12 @@ export async function currentSigner(id: number): Promise<User> {
   return fresh
 }
 
-/** The password re-entered to sign (checked outside any write: it takes tens of milliseconds on purpose). */
-export async function confirmPassword(user: Pick<User, 'passwordHash'>, password: string): Promise<void> {
-  if (await verifyPassword(user.passwordHash, password)) return
-  throw createError({
+/** The password re-entered to sign, counted like a sign-in (checked outside any write: it is slow on purpose). */
+export function confirmSigner(event: H3Event, signer: User, password: string): Promise<void> {
+  return reauthenticate(event, signer, password, {
     status: 401,
-    statusMessage: 'Unauthorized',
     message: 'That password is not right; the signature was not made.',
-    data: { issues: [{ path: ['password'], field: 'password', message: 'Not your password.' }] },
+    field: 'password',
   })
 }
 

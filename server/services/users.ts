@@ -1,3 +1,4 @@
+import type { H3Event } from 'h3'
 import { Op } from 'sequelize'
 import type { z } from 'zod'
 import type { auditEventQuerySchema } from '#shared/schemas/audit'
@@ -6,7 +7,7 @@ import { DEFAULT_PREFERENCES, type UserPreferences } from '#shared/types/user'
 import { describeAuditEvent, type AuditEventDto } from '#shared/utils/audit-words'
 import { appendAudit } from '../database/audit-chain'
 import { AuditEvent, User, UserSession } from '../models'
-import { endAllSessions, sessionsChangedAfterCommit } from './sessions'
+import { endAllSessions, reauthenticate, sessionsChangedAfterCommit } from './sessions'
 
 /**
  * Users as an administrator manages them. Every change is audited as what it is — roles
@@ -126,21 +127,13 @@ export async function savePreferences(user: User, preferences: UserPreferences) 
 }
 
 /** The user's own password, the current one re-entered; their other sessions end, this one stays. */
-export async function changeOwnPassword(
-  user: User,
-  body: PasswordChangeBody,
-  currentSessionId: number | undefined,
-): Promise<void> {
-  if (!(await checkPassword(user.passwordHash, body.currentPassword))) {
-    throw createError({
-      status: 422,
-      statusMessage: 'Unprocessable Entity',
-      message: 'That is not your current password; nothing was changed.',
-      data: {
-        issues: [{ path: ['currentPassword'], field: 'currentPassword', message: 'Not your current password.' }],
-      },
-    })
-  }
+export async function changeOwnPassword(user: User, body: PasswordChangeBody, event: H3Event): Promise<void> {
+  await reauthenticate(event, user, body.currentPassword, {
+    status: 422,
+    message: 'That is not your current password; nothing was changed.',
+    field: 'currentPassword',
+  })
+  const currentSessionId = event.context.sessionId as number | undefined
   const passwordHash = await hashPassword(body.newPassword)
   const current = currentSessionId ? await UserSession.findByPk(currentSessionId) : null
   await writeTransaction(async (transaction) => {

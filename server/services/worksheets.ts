@@ -30,7 +30,7 @@ import { appendAudit } from '../database/audit-chain'
 import { Accumulator, Aircraft, Attachment, Signature, Tool, User, Worksheet, listColumns } from '../models'
 import { askForCountersign, mailAlerts, tellReturned } from './notifications'
 import { notFound, unprocessable } from './records'
-import { confirmPassword, createSignature, currentSigner } from './signatures'
+import { confirmSigner, createSignature, currentSigner } from './signatures'
 import { currentSpecification, toSpecificationDto } from './specifications'
 import { trendAfterRelease, trendAfterVoid } from './trends'
 
@@ -43,6 +43,12 @@ import { trendAfterRelease, trendAfterVoid } from './trends'
  */
 
 type Actor = Pick<User, 'id' | 'name' | 'roles' | 'authorisationNumber'>
+
+/** The request a signature comes with, and the password the signer re-entered in it. */
+export interface SignerProof {
+  event: H3Event
+  password: string
+}
 
 /** Throws a rule's refusal as an HTTP error (403 or 409 with the reason). */
 export function enforce(decision: Decision): void {
@@ -426,14 +432,14 @@ function resultsToSign(content: WorksheetContent) {
 export async function signWorksheet(
   actor: Actor,
   id: number,
-  password: string,
+  { event, password }: SignerProof,
   expectedVersion?: number,
 ): Promise<WorksheetDto> {
   const signer = await currentSigner(actor.id)
   const seen = await findWorksheet(id)
   enforce(canEdit(signer, seen))
   checkVersion(seen, expectedVersion)
-  await confirmPassword(signer, password)
+  await confirmSigner(event, signer, password)
   const results = resultsToSign(seen.content)
   const now = new Date()
   const serviceable = results.asLeft!.assessment.verdict === 'in-limits'
@@ -466,14 +472,14 @@ export async function signWorksheet(
 export async function countersignWorksheet(
   actor: Actor,
   id: number,
-  password: string,
+  { event, password }: SignerProof,
   expectedVersion?: number,
 ): Promise<WorksheetDto> {
   const signer = await currentSigner(actor.id)
   const seen = await findWorksheet(id)
   enforce(canInspect(signer, seen))
   checkVersion(seen, expectedVersion)
-  await confirmPassword(signer, password)
+  await confirmSigner(event, signer, password)
   const now = new Date()
   const alerts = await writeTransaction(async (transaction) => {
     await compareAndSet(seen, ['awaiting-countersign'], { state: 'released', releasedAt: now }, transaction)

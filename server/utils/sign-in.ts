@@ -1,5 +1,5 @@
 import type { H3Event } from 'h3'
-import { Op } from 'sequelize'
+import { Op, type Transaction } from 'sequelize'
 import { LoginAttempt } from '../models'
 
 /**
@@ -39,9 +39,49 @@ function refuse(event: H3Event, unlockAt: number, now: number, message: string):
   })
 }
 
+/** When the account or the address is locked out, until when and why; null while attempts are allowed. */
+async function lockout(
+  email: string,
+  address: string,
+  now: number,
+  transaction?: Transaction,
+): Promise<{ unlockAt: number, message: string } | null> {
+  const { perAccount, perAddress, windowMs } = limits()
+  const windowStart = new Date(now - windowMs)
+  const lastSuccess = await LoginAttempt.max<Date, LoginAttempt>('at', {
+    where: { email, succeeded: true },
+    transaction,
+  })
+  const since = new Date(Math.max(windowStart.getTime(), lastSuccess ? new Date(lastSuccess).getTime() + 1 : 0))
+  const accountFailures = await LoginAttempt.findAll({
+    where: { email, succeeded: false, at: { [Op.gte]: since } },
+    order: [['at', 'DESC']],
+    limit: perAccount,
+    transaction,
+  })
+  if (accountFailures.length >= perAccount) {
+    return {
+      unlockAt: accountFailures[perAccount - 1]!.at.getTime() + windowMs,
+      message: 'Too many failed sign-ins for this account.',
+    }
+  }
+  const addressFailures = await LoginAttempt.findAll({
+    where: { address, succeeded: false, at: { [Op.gte]: windowStart } },
+    order: [['at', 'DESC']],
+    limit: perAddress,
+    transaction,
+  })
+  if (addressFailures.length >= perAddress) {
+    return {
+      unlockAt: addressFailures[perAddress - 1]!.at.getTime() + windowMs,
+      message: 'Too many failed sign-ins from this network address.',
+    }
+  }
+  return null
+}
+
 /** Admits one attempt (recording it as failed for now) or refuses it with 429 and the wait. */
 export async function admitAttempt(event: H3Event, email: string): Promise<AttemptTicket> {
-  const { perAccount, perAddress, windowMs } = limits()
   const address = clientAddress(event)
   return writeTransaction(async (transaction) => {
     const sequelize = LoginAttempt.sequelize!
@@ -53,43 +93,18 @@ export async function admitAttempt(event: H3Event, email: string): Promise<Attem
       }
     }
     const now = Date.now()
-    const windowStart = new Date(now - windowMs)
-    const lastSuccess = await LoginAttempt.max<Date, LoginAttempt>('at', {
-      where: { email, succeeded: true },
-      transaction,
-    })
-    const since = new Date(Math.max(windowStart.getTime(), lastSuccess ? new Date(lastSuccess).getTime() + 1 : 0))
-    const accountFailures = await LoginAttempt.findAll({
-      where: { email, succeeded: false, at: { [Op.gte]: since } },
-      order: [['at', 'DESC']],
-      limit: perAccount,
-      transaction,
-    })
-    if (accountFailures.length >= perAccount) {
-      refuse(
-        event,
-        accountFailures[perAccount - 1]!.at.getTime() + windowMs,
-        now,
-        'Too many failed sign-ins for this account.',
-      )
-    }
-    const addressFailures = await LoginAttempt.findAll({
-      where: { address, succeeded: false, at: { [Op.gte]: windowStart } },
-      order: [['at', 'DESC']],
-      limit: perAddress,
-      transaction,
-    })
-    if (addressFailures.length >= perAddress) {
-      refuse(
-        event,
-        addressFailures[perAddress - 1]!.at.getTime() + windowMs,
-        now,
-        'Too many failed sign-ins from this network address.',
-      )
-    }
+    const locked = await lockout(email, address, now, transaction)
+    if (locked) refuse(event, locked.unlockAt, now, locked.message)
     const attempt = await LoginAttempt.create({ email, succeeded: false, at: new Date(now), address }, { transaction })
     return { id: attempt.id }
   })
+}
+
+/** Refuses with 429 and the wait when the account or this address is locked out now (records nothing). */
+export async function refuseIfLockedOut(event: H3Event, email: string, message: string): Promise<void> {
+  const now = Date.now()
+  const locked = await lockout(email, clientAddress(event), now)
+  if (locked) refuse(event, locked.unlockAt, now, `${locked.message} ${message}`)
 }
 
 export async function attemptSucceeded(ticket: AttemptTicket): Promise<void> {

@@ -5,6 +5,6 @@ import { changeOwnPassword } from '../../services/users'
 export default defineEventHandler(async (event) => {
   const user = await requireAbility(event, 'account.own')
   const body = await readValidatedBody(event, validateWith(passwordChangeSchema))
-  await changeOwnPassword(user, body, event.context.sessionId)
+  await changeOwnPassword(user, body, event)
   return { changed: true }
 })

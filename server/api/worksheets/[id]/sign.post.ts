@@ -7,5 +7,5 @@ export default defineEventHandler(async (event) => {
   const user = await requireAbility(event, 'worksheet.perform')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
   const { password } = await readValidatedBody(event, validateWith(signatureSchema))
-  return versioned(event, await signWorksheet(user, id, password, expectedVersion(event)))
+  return versioned(event, await signWorksheet(user, id, { event, password }, expectedVersion(event)))
 })
