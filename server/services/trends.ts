@@ -29,6 +29,14 @@ import {
  */
 
 /** A worksheet was just released: store its readings and refit its unit (inside the release's write). */
+/** A released correction supersedes the record it corrects: that record's readings leave its unit's trend. */
+export async function trendAfterCorrection(correction: Worksheet, transaction: Transaction): Promise<AlertChange[]> {
+  if (!correction.correctsId) return []
+  await removeReadings(correction.correctsId, transaction)
+  const change = await refreshUnitTrend(correction.accumulatorId, transaction)
+  return change ? [change] : []
+}
+
 export async function trendAfterRelease(worksheet: Worksheet, transaction: Transaction): Promise<AlertChange[]> {
   await storeReleasedReadings(worksheet, transaction)
   const change = await refreshUnitTrend(worksheet.accumulatorId, transaction)

@@ -58,11 +58,18 @@ export async function createUser(admin: User, body: UserCreateBody): Promise<Use
 export async function updateUser(admin: User, id: number, body: UserUpdateBody): Promise<User> {
   const user = await User.findByPk(id)
   if (!user) notFound()
-  if (user.id === admin.id && (body.disabled === true || (body.roles && !body.roles.includes('admin')))) {
+  // Separation of duties: nobody changes what they themselves may do or certify; another administrator must.
+  const sameRoles = (roles: readonly string[]) => [...roles].sort().join(',') === [...user.roles].sort().join(',')
+  const ownAuthority
+    = (body.roles !== undefined && !sameRoles(body.roles))
+      || (body.authorisationNumber !== undefined && body.authorisationNumber !== user.authorisationNumber)
+  if (user.id === admin.id && (body.disabled === true || ownAuthority)) {
     throw createError({
-      status: 422,
-      statusMessage: 'Unprocessable Entity',
-      message: 'You cannot disable yourself or remove your own admin role; ask another administrator.',
+      status: 403,
+      statusMessage: 'Forbidden',
+      message:
+        'You cannot disable yourself or change your own roles or authorisation number: another administrator must, '
+        + 'and the audit trail shows who did.',
     })
   }
   const before = {

@@ -32,7 +32,7 @@ import { askForCountersign, mailAlerts, tellReturned } from './notifications'
 import { notFound, unprocessable } from './records'
 import { confirmSigner, createSignature, currentSigner } from './signatures'
 import { currentSpecification, toSpecificationDto } from './specifications'
-import { trendAfterRelease, trendAfterVoid } from './trends'
+import { trendAfterCorrection, trendAfterRelease, trendAfterVoid } from './trends'
 
 /**
  * The worksheet's life: start, steps, sign, countersign, return, void, discard. Every change is
@@ -485,8 +485,9 @@ export async function countersignWorksheet(
     await compareAndSet(seen, ['awaiting-countersign'], { state: 'released', releasedAt: now }, transaction)
     await createSignature(seen, signer, 'inspector', now, transaction)
     await audit(signer, seen, 'countersigned', { performerId: seen.performerId, round: seen.round }, transaction, now)
-    // The released as-found joins its unit's trend, in the same write.
-    return trendAfterRelease(seen, transaction)
+    // The released as-found joins its unit's trend, in the same write; a correction replaces what it corrects.
+    const superseded = await trendAfterCorrection(seen, transaction)
+    return [...superseded, ...(await trendAfterRelease(seen, transaction))]
   })
   await mailAlerts(alerts)
   return worksheetById(id)

@@ -34,10 +34,21 @@ export function canInspect(actor: Actor, worksheet: Record_): Decision {
   return yes
 }
 
-/** Voiding: an inspector or admin, any state but voided; the record stays, marked with the reason. */
+/**
+ * Voiding: an inspector or admin, of someone else's work that was never released; the record stays,
+ * marked with the reason. A released record is never voided: a correction supersedes it.
+ */
 export function canVoid(actor: Actor, worksheet: Record_): Decision {
   if (!actor.roles.some(role => role === 'inspector' || role === 'admin')) return no(403, 'Voiding needs the inspector or admin role.')
   if (worksheet.state === 'voided') return no(409, 'This worksheet is already voided.')
+  if (worksheet.state === 'released') {
+    return no(409, 'A released record is never voided: a technician records a correction that supersedes it '
+      + '(Start a correction, on this record).')
+  }
+  if (actor.id === worksheet.performerId) {
+    return no(403, 'You cannot void work you performed: ask an inspector or another administrator '
+      + '(a draft you never signed, you can discard).')
+  }
   return yes
 }
 

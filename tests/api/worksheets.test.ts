@@ -179,14 +179,19 @@ describe('signing, countersign and the permanent record', () => {
     expect(draft.status).toBe(409)
   })
 
-  it('voiding keeps the record visible, with the reason; a technician cannot void', async () => {
-    expect((await api(`/api/worksheets/${worksheetId}/void`, { cookie: cookies.technician, body: { reason: 'Entered on the wrong aircraft.' } })).status).toBe(403)
-    const voided = await api(`/api/worksheets/${worksheetId}/void`, { cookie: cookies.admin, body: { reason: 'Entered on the wrong aircraft.' } })
+  it('voiding keeps the record visible, with the reason; a technician cannot void; a released record is never voided', async () => {
+    const released = await api(`/api/worksheets/${worksheetId}/void`, { cookie: cookies.admin, body: { reason: 'Entered on the wrong aircraft.' } })
+    expect(released.status).toBe(409)
+    expect(released.body.message).toMatch(/A released record is never voided: a technician records a correction/)
+    const unit = (await api(`/api/worksheets/${worksheetId}`, { cookie: cookies.technician })).body.content.accumulator.id
+    const flow = await fillWorksheet(cookies.technician, unit)
+    expect((await api(`/api/worksheets/${flow.id}/void`, { cookie: cookies.technician, body: { reason: 'Entered on the wrong aircraft.' } })).status).toBe(403)
+    const voided = await api(`/api/worksheets/${flow.id}/void`, { cookie: cookies.admin, body: { reason: 'Entered on the wrong aircraft.' } })
     expect(voided.body).toMatchObject({ state: 'voided', voidReason: 'Entered on the wrong aircraft.' })
-    expect((await api(`/api/worksheets/${worksheetId}`, { cookie: cookies.engineer })).body.state).toBe('voided')
+    expect((await api(`/api/worksheets/${flow.id}`, { cookie: cookies.engineer })).body.state).toBe('voided')
     const list = await api('/api/worksheets?state=voided', { cookie: cookies.engineer })
-    expect(list.body.items.map((item: { id: number }) => item.id)).toContain(worksheetId)
-    expect((await api(`/api/worksheets/${worksheetId}/void`, { cookie: cookies.inspector, body: { reason: 'Again, for luck.' } })).status).toBe(409)
+    expect(list.body.items.map((item: { id: number }) => item.id)).toContain(flow.id)
+    expect((await api(`/api/worksheets/${flow.id}/void`, { cookie: cookies.inspector, body: { reason: 'Again, for luck.' } })).status).toBe(409)
   })
 
   it('every state change is in the audit chain, which verifies', async () => {

@@ -59,7 +59,8 @@ describe('the work list on Home', () => {
 
   it('an admin voids a worksheet only after confirming, and sees the role changes they make in the audit view', async () => {
     const page = await signedInPage(browser, 'admin@chargewell.test')
-    await page.goto('/worksheets?state=released')
+    // A released record is never voided (a correction supersedes it): one awaiting countersign is.
+    await page.goto('/worksheets?state=awaiting-countersign')
     await page.getByTestId('worksheets-table').getByRole('link').first().click()
     await page.waitForURL(url => /\/worksheets\/\d+$/.test(url.pathname))
     await page.getByLabel('Reason').fill('Entered against the wrong aircraft by the planning office.')
