@@ -40,6 +40,10 @@ export default defineNuxtConfig({
     uploadMaxBytes: 8 * 1024 * 1024,
     smtpUrl: '',
     mailFrom: 'Chargewell <no-reply@chargewell.test>',
+    /** How long one SMTP conversation may hang before the attempt counts as failed (seconds). */
+    smtpTimeoutSeconds: 20,
+    /** The first retry of a failed e-mail comes after this long, each next one after twice as long (seconds). */
+    outboxRetrySeconds: 30,
     /** Set to `fake` (development, tests) to start the built-in SMTP catcher on `fakeSmtpPort`. */
     fakeSmtp: '',
     fakeSmtpPort: 2525,

@@ -6,6 +6,7 @@ import * as recordIntegrity from '../migrations/0003-record-integrity'
 import * as sessions from '../migrations/0004-sessions'
 import * as scale from '../migrations/0005-scale'
 import * as traceability from '../migrations/0006-traceability'
+import * as outbox from '../migrations/0007-outbox'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -15,6 +16,7 @@ const MIGRATIONS = [
   { name: '0004-sessions', ...sessions },
   { name: '0005-scale', ...scale },
   { name: '0006-traceability', ...traceability },
+  { name: '0007-outbox', ...outbox },
 ]
 
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */

@@ -1,6 +1,8 @@
 import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
 
-/** An e-mail Chargewell sent (or failed to send), kept for the Outbox. */
+export type NotificationStatus = 'queued' | 'sending' | 'sent' | 'failed'
+
+/** An e-mail Chargewell sends: queued with the write that caused it, sent in the background, kept for the Outbox. */
 export class Notification extends Model<InferAttributes<Notification>, InferCreationAttributes<Notification>> {
   declare id: CreationOptional<number>
   declare recipient: string
@@ -8,7 +10,11 @@ export class Notification extends Model<InferAttributes<Notification>, InferCrea
   declare body: string
   declare kind: string
   declare worksheetId: ForeignKey<number> | null
-  declare status: 'sent' | 'failed'
+  /** queued (waiting for its next try), sending, sent, or failed (given up after every retry). */
+  declare status: NotificationStatus
+  declare attempts: CreationOptional<number>
+  declare nextAttemptAt: Date | null
+  declare lastAttemptAt: Date | null
   declare error: string | null
   declare messageId: string | null
   declare createdAt: CreationOptional<Date>
@@ -24,6 +30,9 @@ export class Notification extends Model<InferAttributes<Notification>, InferCrea
       status: { type: DataTypes.STRING(10), allowNull: false },
       error: { type: DataTypes.TEXT, allowNull: true },
       messageId: { type: DataTypes.STRING(200), allowNull: true },
+      attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+      nextAttemptAt: { type: DataTypes.DATE, allowNull: true },
+      lastAttemptAt: { type: DataTypes.DATE, allowNull: true },
       createdAt: DataTypes.DATE,
     }, { sequelize, tableName: 'notifications', underscored: true, updatedAt: false })
   }

@@ -92,13 +92,29 @@ export async function mailIntegrityHold(held: HeldRecord): Promise<void> {
   )
 }
 
+/** An administrator sends a message that was given up on again; 409 when it is not one. */
+export async function retryFailedMail(id: number): Promise<{ queued: true }> {
+  if (await retryMail(id)) return { queued: true }
+  throw createError({ status: 409, message: 'Only an e-mail that was given up on (failed) can be sent again.' })
+}
+
 /** The outbox: what Chargewell sent (or failed to send), and what the local fake SMTP server received. */
 export async function outbox(): Promise<OutboxDto> {
   const notifications = await Notification.findAll({ order: [['id', 'DESC']], limit: 200 })
   return {
     fakeSmtp: useRuntimeConfig().fakeSmtp === 'fake',
-    notifications: notifications.map(({ id, recipient, subject, body, kind, status, error, createdAt }) => ({
-      id, recipient, subject, body, kind, status, error, createdAt: createdAt.toISOString(),
+    notifications: notifications.map(message => ({
+      id: message.id,
+      recipient: message.recipient,
+      subject: message.subject,
+      body: message.body,
+      kind: message.kind,
+      status: message.status,
+      error: message.error,
+      createdAt: message.createdAt.toISOString(),
+      attempts: message.attempts,
+      nextAttemptAt: message.nextAttemptAt?.toISOString() ?? null,
+      lastAttemptAt: message.lastAttemptAt?.toISOString() ?? null,
     })),
     received: fakeInbox(),
   }

@@ -8,9 +8,13 @@ export interface OutboxDto {
     subject: string
     body: string
     kind: string
-    status: 'sent' | 'failed'
+    /** queued (waiting for its next try), sending, sent, or failed (given up after every retry). */
+    status: 'queued' | 'sending' | 'sent' | 'failed'
     error: string | null
     createdAt: string
+    attempts: number
+    nextAttemptAt: string | null
+    lastAttemptAt: string | null
   }[]
   /** What the fake SMTP server received. */
   received: { receivedAt: string, to: string[], subject: string, text: string }[]

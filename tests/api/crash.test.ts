@@ -50,7 +50,8 @@ describe('a crash under write load', () => {
       }
     }
     const lanes = [0, 1, 2, 3].map(lane => writer(lane).catch(error => error as Error))
-    await new Promise(wait => setTimeout(wait, 2500))
+    // Under load, not after a time: the crash comes once the writers have been acknowledged a while.
+    await expect.poll(() => created.length, { timeout: 25_000, interval: 50 }).toBeGreaterThan(25)
     await server.stop({ kill: true })
     running = false
     const outcomes = await Promise.all(lanes)

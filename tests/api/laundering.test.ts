@@ -36,19 +36,21 @@ const asFoundOf = async (id: number) =>
   ).asFound.reading.value as number
 
 describe('a tamper is never laundered by the next ordinary write', () => {
-  it('a released worksheet edited in the file cannot be voided; the tamper stays reported until an admin accepts it', async () => {
+  it('a signed worksheet edited in the file cannot be returned or voided; the tamper stays reported until an admin accepts it', async () => {
     const admin = await signIn(DEMO.admin)
     const inspector = await signIn(DEMO.inspector)
-    const id = await worksheetIn('released', 3)
+    const id = await worksheetIn('awaiting-countersign', 1)
     const tampered = await raiseAsFound(id, 999)
     expect((await verify()).records.map((problem: { entityId: string }) => problem.entityId)).toContain(String(id))
 
-    const voided = await api(`/api/worksheets/${id}/void`, { cookie: inspector, body: { reason: 'Wrong unit recorded' } })
-    expect(voided.status).toBe(409)
-    expect(voided.body.message).toMatch(new RegExp(`Worksheet ${id} was changed outside Chargewell`))
-    expect(voided.body.data.integrity).toMatchObject({ entity: 'worksheet', entityId: String(id) })
-    // Nothing was written: still released, still tampered, still reported.
-    expect((await api(`/api/worksheets/${id}`, { cookie: admin })).body.state).toBe('released')
+    for (const action of ['return', 'void']) {
+      const answer = await api(`/api/worksheets/${id}/${action}`, { cookie: inspector, body: { reason: 'Wrong unit recorded' } })
+      expect(answer.status).toBe(409)
+      expect(answer.body.message).toMatch(new RegExp(`Worksheet ${id} was changed outside Chargewell`))
+      expect(answer.body.data.integrity).toMatchObject({ entity: 'worksheet', entityId: String(id) })
+    }
+    // Nothing was written: still awaiting countersign, still tampered, still reported.
+    expect((await api(`/api/worksheets/${id}`, { cookie: admin })).body.state).toBe('awaiting-countersign')
     expect(await asFoundOf(id)).toBe(tampered)
     const report = await verify()
     expect(report.ok).toBe(false)

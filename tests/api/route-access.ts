@@ -16,6 +16,7 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'GET /api/accumulators': 'register.read',
   'POST /api/accumulators': 'fleet.manage',
   'GET /api/admin/outbox': 'outbox.read',
+  'POST /api/admin/outbox/[id]/retry': 'outbox.read',
   'PATCH /api/admin/users/[id]': 'user.manage',
   'POST /api/admin/users/[id]/password': 'user.manage',
   'GET /api/admin/users': 'user.manage',

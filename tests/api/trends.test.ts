@@ -125,17 +125,20 @@ describe('alerts are raised by the writes that change a trend', () => {
     const answers = await Promise.all([check(150), check(140)])
     expect(answers.map(answer => answer.status)).toEqual([201, 201])
     expect((await check(145)).status).toBe(201)
-    const received = (await api('/api/admin/outbox', { cookie: cookies.admin })).body.received as {
+    const alertsNow = async () => ((await api('/api/admin/outbox', { cookie: cookies.admin })).body.received as {
       to: string[]
       subject: string
       text: string
-    }[]
-    const alerts = received.filter(
+    }[]).filter(
       message =>
         message.to.includes(DEMO.engineer)
         && message.subject.startsWith('Trend alert')
         && message.subject.includes('QX-FMK Hydraulic system 1'),
     )
+    // Mail goes out from the outbox in the background: wait until nothing is left to send, then count.
+    await expect.poll(async () => ((await api('/api/admin/outbox', { cookie: cookies.admin })).body.notifications as { status: string }[])
+      .filter(message => message.status === 'queued' || message.status === 'sending').length).toBe(0)
+    const alerts = await alertsNow()
     expect(alerts).toHaveLength(1)
     expect(alerts[0]!.text).toMatch(/shorter than its baseline/)
     const cycles = (await api('/api/trends/cycles', { cookie: cookies.engineer })).body.items

@@ -108,9 +108,9 @@ describe('signing, countersign and the permanent record', () => {
     expect(signed.status).toBe(200)
     expect(signed.body.state).toBe('awaiting-countersign')
     expect(signed.body.signatures[0]).toMatchObject({ capacity: 'performer', name: 'Rowan Hale', authorisationNumber: 'FMR-T-0412' })
+    // Mail goes out from the outbox in the background: wait for it to arrive.
+    await expect.poll(async () => (await inbox()).received.find(message => message.to.includes(DEMO.inspector) && message.subject.startsWith(`Worksheet ${flow.id} awaits countersign`))?.text).toContain('awaits independent inspection')
     const mail = await inbox()
-    const toInspector = mail.received.find(message => message.to.includes(DEMO.inspector) && message.subject.startsWith(`Worksheet ${flow.id} awaits countersign`))
-    expect(toInspector?.text).toContain('awaits independent inspection')
     expect(mail.received.some(message => message.to.includes(DEMO.technician) && message.subject.includes(`Worksheet ${flow.id} `))).toBe(false)
   })
 
@@ -129,7 +129,7 @@ describe('signing, countersign and the permanent record', () => {
     const returned = await api(`/api/worksheets/${worksheetId}/return`, { cookie: cookies.inspector, body: { reason: 'Gas temperature taken in the sun; retake in shade.' } })
     expect(returned.status).toBe(200)
     expect(returned.body).toMatchObject({ state: 'returned', returnReason: 'Gas temperature taken in the sun; retake in shade.' })
-    expect((await inbox()).received.some(message => message.to.includes(DEMO.technician) && message.subject.startsWith(`Worksheet ${worksheetId} returned`) && message.text.includes('retake in shade'))).toBe(true)
+    await expect.poll(async () => (await inbox()).received.some(message => message.to.includes(DEMO.technician) && message.subject.startsWith(`Worksheet ${worksheetId} returned`) && message.text.includes('retake in shade'))).toBe(true)
     const corrected = await api(`/api/worksheets/${worksheetId}`, { method: 'PATCH', cookie: cookies.technician, body: { step: 'finish', valveLeakCheck: true, capFitted: true, remarks: 'Temperature retaken in shade.' } })
     expect(corrected.status).toBe(200)
     const again = await api(`/api/worksheets/${worksheetId}/sign`, { cookie: cookies.technician, body: { password: DEMO_PASSWORD, certify: true } })

@@ -73,9 +73,12 @@ describe('the servicing worksheet in a real browser', () => {
 
     // The inspector's e-mail, as the local fake SMTP server received it.
     const admin = await signedInPage(browser, 'admin@chargewell.test')
-    const outbox = await admin.evaluate(() => fetch('/api/admin/outbox').then(response => response.json()))
-    const mail = outbox.received.find((message: { to: string[], subject: string }) => message.to.includes('inspector@chargewell.test') && message.subject.startsWith(`Worksheet ${id} awaits countersign`))
-    expect(mail?.text).toContain(`/worksheets/${id}`)
+    // Sent from the outbox in the background: wait for it to arrive.
+    await expect.poll(async () => {
+      const outbox = await admin.evaluate(() => fetch('/api/admin/outbox').then(response => response.json()))
+      const mail = outbox.received.find((message: { to: string[], subject: string }) => message.to.includes('inspector@chargewell.test') && message.subject.startsWith(`Worksheet ${id} awaits countersign`))
+      return mail?.text ?? ''
+    }, { timeout: 15_000 }).toContain(`/worksheets/${id}`)
     await admin.context().close()
 
     const inspector = await signedInPage(browser, 'inspector@chargewell.test')

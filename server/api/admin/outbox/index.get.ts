@@ -1,5 +1,5 @@
 import { noQuerySchema } from '#shared/schemas/common'
-import { outbox } from '../../services/notifications'
+import { outbox } from '../../../services/notifications'
 
 /** E-mails Chargewell sent (or failed to send), and, with the local fake SMTP server, what it received. */
 export default defineEventHandler(async (event) => {
