@@ -1,11 +1,13 @@
 #!/usr/bin/env node
 // Checks a Chargewell audit export offline, with Node.js alone (no database, no server, no packages):
 //
-//   node scripts/check-audit-export.mjs chargewell-audit-2026-12-02.ndjson [--key 1a2b:3c4d:...]
+//   node scripts/check-audit-export.mjs chargewell-audit-2026-12-02.ndjson --key 1a2b:3c4d:...
 //
 // It recomputes every entry's hash and link, counts the entries, and checks the Ed25519 signature
-// over the whole file with the public key in its header. --key pins that key to the fingerprint
-// shown on the Admin page, so a file signed by anyone else is refused. Exit status 0: intact.
+// over the whole file (and, from version 2, the sealed head) with the public key in its header.
+// --key pins that key to the fingerprint shown on the Admin page, so a file re-signed by anyone else
+// is refused. Without --key it refuses to judge, unless told --trust-embedded-key (then it only shows
+// that the file is as its own key signed it). Exit status 0: intact; 1: not intact; 2: cannot check.
 import { createHash, createPublicKey, verify } from 'node:crypto'
 import { createReadStream } from 'node:fs'
 import { createInterface } from 'node:readline'
@@ -13,10 +15,31 @@ import { createInterface } from 'node:readline'
 const FORMAT = 'chargewell-audit-export'
 const GENESIS = '0'.repeat(64)
 const [file, ...rest] = process.argv.slice(2)
-const pinned = rest[0] === '--key' ? rest[1] : undefined
-if (!file) {
-  console.error('Usage: node scripts/check-audit-export.mjs <export.ndjson> [--key <fingerprint>]')
+const pinned = rest.includes('--key') ? rest[rest.indexOf('--key') + 1] : undefined
+const trustEmbedded = rest.includes('--trust-embedded-key')
+if (!file || (rest.includes('--key') && !pinned)) {
+  console.error('Usage: node scripts/check-audit-export.mjs <export.ndjson> --key <fingerprint> (or --trust-embedded-key)')
   process.exit(2)
+}
+if (!pinned && !trustEmbedded) {
+  console.error(
+    'Give the export signing key\'s fingerprint from the Admin page with --key: anyone can re-sign an altered file '
+    + 'with a key of their own. (--trust-embedded-key checks the file against the key it carries, which proves less.)',
+  )
+  process.exit(2)
+}
+/** Malformed input is answered in one plain line, never a stack trace. */
+function unreadable(reason) {
+  console.error(`NOT INTACT: ${file}: ${reason}`)
+  process.exit(1)
+}
+function parse(line, number) {
+  try {
+    return JSON.parse(line)
+  }
+  catch {
+    return unreadable(`line ${number} is not a line of an audit export (not JSON; a stray line break or carriage return?).`)
+  }
 }
 
 function canonical(value) {
@@ -57,14 +80,20 @@ let trailer
 let previous = GENESIS
 let count = 0
 let pending
-for await (const line of createInterface({ input: createReadStream(file), crlfDelay: Infinity })) {
+let lineNumber = 0
+const input = createReadStream(file)
+input.on('error', error => unreadable(error.code === 'ENOENT' ? 'no such file.' : String(error.message)))
+for await (const line of createInterface({ input, crlfDelay: Infinity })) {
+  lineNumber++
   // The last line is the signature; every line before it is covered by the digest.
   if (pending !== undefined) {
     digest.update(`${pending}\n`)
-    const value = JSON.parse(pending)
+    const value = parse(pending, lineNumber - 1)
+    if (!value || typeof value !== 'object') unreadable(`line ${lineNumber - 1} is not an object.`)
     if (!header) {
       header = value
-      if (header.format !== FORMAT || header.version !== 1) problems.push(`Not a ${FORMAT} version 1 file.`)
+      if (header.format !== FORMAT || ![1, 2].includes(header.version))
+        unreadable(`not a ${FORMAT} file (version 1 or 2).`)
     }
     else {
       count++
@@ -76,8 +105,9 @@ for await (const line of createInterface({ input: createReadStream(file), crlfDe
   }
   pending = line
 }
-if (pending) trailer = JSON.parse(pending)
-if (!header || !trailer) problems.push('The file is incomplete: no header or no signature line.')
+if (pending) trailer = parse(pending, lineNumber)
+if (!header || !trailer || typeof trailer.signature !== 'string' || typeof header.publicKey !== 'string')
+  unreadable('the file is incomplete: no header or no signature line (cut short?).')
 else {
   const hex = digest.digest('hex')
   if (trailer.digest !== hex) problems.push('The file was changed after it was signed (its digest differs).')
@@ -90,8 +120,17 @@ else {
     problems.push('The header\'s key fingerprint does not belong to its public key.')
   if (pinned && pinned.toLowerCase() !== fingerprint)
     problems.push(`Signed with key ${fingerprint}, not the expected ${pinned}.`)
-  const message = Buffer.from(`${FORMAT}:1:${hex}:${count}:${previous}`)
-  const key = createPublicKey({ key: spki, format: 'der', type: 'spki' })
+  const message = Buffer.from(header.version === 1
+    ? `${FORMAT}:1:${hex}:${count}:${previous}`
+    : `${FORMAT}:2:${hex}:${count}:${previous}:${JSON.stringify(canonical(trailer.sealedHead ?? null))}`)
+  if (header.version === 1) problems.push('A version 1 export: its sealed head is not covered by the signature.')
+  let key
+  try {
+    key = createPublicKey({ key: spki, format: 'der', type: 'spki' })
+  }
+  catch {
+    unreadable('the header\'s public key is not a key.')
+  }
   if (!verify(null, message, key, Buffer.from(trailer.signature, 'base64')))
     problems.push('The signature does not verify: the file was not signed by this key, or was altered.')
 }
@@ -102,5 +141,5 @@ if (problems.length) {
   process.exit(1)
 }
 console.log(
-  `INTACT: ${count} entries, exported ${header.exportedAt} by ${header.exportedBy}, signed by key ${header.keyFingerprint}; last entry hash ${previous}.`,
+  `INTACT${pinned ? '' : ' (checked against the key the file carries, not a pinned one)'}: ${count} entries, exported ${header.exportedAt} by ${header.exportedBy}, signed by key ${header.keyFingerprint}; last entry hash ${previous}.`,
 )

@@ -49,13 +49,25 @@ interface FieldWork {
   sent: SentWorksheet[]
   /** Readings taken while the gas settles, for the forecast (advice, kept on the device). */
   settle: Record<string, { at: string, pressure: Pressure }[]>
+  /** Steps taken here that the server refused when sent: kept, with why, until the technician has seen them. */
+  refused: RefusedStep[]
+}
+
+/** A step kept on the device that the server refused: what it was, when it was taken, and the server's reason. */
+export interface RefusedStep {
+  worksheetId: number
+  userId: number
+  body: WorksheetStepBody
+  queuedAt: string
+  refusedAt: string
+  reason: string
 }
 
 /** The record without one key (a new object: the store is watched deeply). */
 const without = <T>(record: Record<string, T>, key: string | number): Record<string, T> =>
   Object.fromEntries(Object.entries(record).filter(([candidate]) => candidate !== String(key)))
 
-const EMPTY: FieldWork = { values: {}, pending: [], local: {}, sent: [], settle: {} }
+const EMPTY: FieldWork = { values: {}, pending: [], local: {}, sent: [], settle: {}, refused: [] }
 const plain = <T>(value: T): T => JSON.parse(JSON.stringify(value))
 
 /** No answer at all (the browser's own flag is not consulted: it says "online" on Wi-Fi with no internet). */
@@ -241,7 +253,11 @@ export const useFieldWorkStore = defineStore('field-work', () => {
         }
         catch (failure) {
           if (isOffline(failure)) return sentNow
-          lastError.value = `A step saved on this device was refused by the server: ${errorMessage(failure)}`
+          // Never dropped with a passing message: kept until the technician has read why.
+          state.value.refused = [
+            ...state.value.refused,
+            { ...plain(next), refusedAt: new Date().toISOString(), reason: errorMessage(failure) },
+          ]
         }
         state.value.pending = state.value.pending.filter(entry => entry !== next)
       }
@@ -291,6 +307,16 @@ export const useFieldWorkStore = defineStore('field-work', () => {
     forget(clientId)
   }
 
+  /** The user's own refused steps, newest first. */
+  const ownRefused = computed(() => state.value.refused.filter(entry => entry.userId === user.value?.id).reverse())
+  /** The technician has read why a step was refused: it leaves the device. */
+  function acknowledgeRefused(entry: RefusedStep) {
+    state.value.refused = state.value.refused.filter(
+      candidate => !(candidate.refusedAt === entry.refusedAt && candidate.worksheetId === entry.worksheetId
+        && candidate.body.step === entry.body.step),
+    )
+  }
+
   function settleReadings(worksheetId: number | string) {
     return state.value.settle[worksheetId] ?? []
   }
@@ -319,6 +345,8 @@ export const useFieldWorkStore = defineStore('field-work', () => {
     waiting,
     localWorksheets,
     ownPending,
+    ownRefused,
+    acknowledgeRefused,
     draftFor,
     remember,
     forget,

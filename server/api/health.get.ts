@@ -1,8 +1,11 @@
-import { ENGINE_VERSION } from '#shared/gas/version'
+import { healthReport } from '../services/health'
 
-/** Liveness, the database, and how long the event loop has been held up; the only route open without a session. */
-export default defineEventHandler(async () => {
-  const sequelize = await useDB()
-  await sequelize.query('SELECT 1')
-  return { status: 'ok', database: 'ok', engineVersion: ENGINE_VERSION, time: new Date().toISOString(), eventLoop: eventLoopDelay() }
+/**
+ * Liveness, the database (answering, and taking writes), and how long the event loop has been held
+ * up; the only route open without a session. 503 while the database cannot take writes.
+ */
+export default defineEventHandler(async (event) => {
+  const { healthy, report } = await healthReport()
+  if (!healthy) setResponseStatus(event, 503)
+  return report
 })

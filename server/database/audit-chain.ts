@@ -423,7 +423,7 @@ export async function* auditExportLines(exportedBy: string): AsyncGenerator<stri
   }
   yield emit({
     format: EXPORT_FORMAT,
-    version: 1,
+    version: 2,
     exportedAt: new Date().toISOString(),
     exportedBy,
     publicKey: keys.publicKey,
@@ -458,11 +458,15 @@ export async function* auditExportLines(exportedBy: string): AsyncGenerator<stri
   }
   const head = await AuditHead.findByPk(HEAD_ID)
   const hex = digest.digest('hex')
-  const message = Buffer.from(`${EXPORT_FORMAT}:1:${hex}:${count}:${lastHash}`)
+  const sealedHead = head
+    ? { eventCount: head.eventCount, lastEventId: head.lastEventId, lastHash: head.lastHash }
+    : null
+  // Version 2 signs the sealed head with the rest (version 1 left it outside the signature).
+  const message = Buffer.from(`${EXPORT_FORMAT}:2:${hex}:${count}:${lastHash}:${JSON.stringify(canonical(sealedHead))}`)
   yield `${JSON.stringify({
     entries: count,
     lastHash,
-    sealedHead: head ? { eventCount: head.eventCount, lastEventId: head.lastEventId, lastHash: head.lastHash } : null,
+    sealedHead,
     digest: hex,
     signature: sign(null, message, keys.signing).toString('base64'),
   })}\n`

@@ -15,6 +15,28 @@ function limitFor(path: string, uploadMaxBytes: number): number {
   return 256 * KIB
 }
 
+/** No form or API body nests deeper than this; a deeper one is refused before anything parses or walks it. */
+const MAX_NESTING = 32
+const [OPEN_BRACE, OPEN_BRACKET, CLOSE_BRACE, CLOSE_BRACKET, QUOTE, BACKSLASH] = [0x7B, 0x5B, 0x7D, 0x5D, 0x22, 0x5C]
+
+/** How deep the JSON-looking brackets of a body nest (outside strings): one pass over the bytes. */
+function nestingDepth(body: Buffer): number {
+  let depth = 0
+  let deepest = 0
+  let inString = false
+  for (let index = 0; index < body.length; index++) {
+    const byte = body[index]!
+    if (inString) {
+      if (byte === BACKSLASH) index++
+      else if (byte === QUOTE) inString = false
+    }
+    else if (byte === QUOTE) inString = true
+    else if (byte === OPEN_BRACE || byte === OPEN_BRACKET) deepest = Math.max(deepest, ++depth)
+    else if (byte === CLOSE_BRACE || byte === CLOSE_BRACKET) depth--
+  }
+  return deepest
+}
+
 function tooLarge(limit: number) {
   return createError({ status: 413, statusMessage: 'Payload Too Large', message: `The request is larger than this route accepts (${Math.round(limit / KIB)} KiB).` })
 }
@@ -49,5 +71,8 @@ export default defineEventHandler(async (event) => {
     setResponseHeader(event, 'connection', 'close')
     throw error
   })
+  const json = /^application\/json\b/i.test(String(request.headers['content-type'] ?? ''))
+  if (json && nestingDepth(body) > MAX_NESTING)
+    throw createError({ status: 400, statusMessage: 'Bad Request', message: `The request is nested more than ${MAX_NESTING} levels deep; no form of Chargewell sends that.` })
   ;(request as unknown as Record<symbol, unknown>)[RAW_BODY] = Promise.resolve(body)
 })

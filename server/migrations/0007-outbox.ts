@@ -10,9 +10,16 @@ export async function up(queryInterface: QueryInterface): Promise<void> {
   await queryInterface.addColumn('notifications', 'last_attempt_at', { type: DataTypes.DATE, allowNull: true })
   await queryInterface.changeColumn('notifications', 'status', { type: DataTypes.STRING(10), allowNull: false })
   await queryInterface.addIndex('notifications', ['status', 'next_attempt_at'])
+  // One row the health route rewrites (at most every few seconds) to find out whether the database takes writes.
+  await queryInterface.createTable('health_probes', {
+    id: { type: DataTypes.INTEGER, primaryKey: true },
+    probed_at: { type: DataTypes.DATE, allowNull: false },
+  })
+  await queryInterface.bulkInsert('health_probes', [{ id: 1, probed_at: new Date() }])
 }
 
 export async function down(queryInterface: QueryInterface): Promise<void> {
+  await queryInterface.dropTable('health_probes')
   await queryInterface.removeIndex('notifications', ['status', 'next_attempt_at'])
   for (const column of ['last_attempt_at', 'next_attempt_at', 'attempts']) await queryInterface.removeColumn('notifications', column)
 }

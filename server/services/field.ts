@@ -1,9 +1,11 @@
+import { createHash } from 'node:crypto'
 import { Op, UniqueConstraintError } from 'sequelize'
 import type { OfflineWorksheetBody } from '#shared/schemas/worksheet'
 import type { FieldReference, SyncAnswer } from '#shared/types/field'
 import type { WorksheetContent, WorksheetResults } from '#shared/types/worksheet'
 import { STEP_NAMES, StepRefusal } from '#shared/utils/worksheet-steps'
 import { appendAudit } from '../database/audit-chain'
+import { canonical } from '../database/record-hash'
 import { Accumulator, Aircraft, Specification, SpecificationTablePoint, Tool, Worksheet, type User } from '../models'
 import { toInstalledUnits } from './accumulators'
 import { toSpecificationDto } from './specifications'
@@ -61,7 +63,18 @@ export async function fieldReference(user: User): Promise<FieldReference> {
   }
 }
 
-async function answerFor(worksheet: Worksheet, actor: User): Promise<SyncAnswer> {
+/** The steps as the device sent them, in a form that compares equal for the same steps. */
+function stepsDigest(body: OfflineWorksheetBody): string {
+  return createHash('sha256').update(JSON.stringify(canonical(body.steps))).digest('hex')
+}
+
+/**
+ * A worksheet this device id already made. The same send again (a lost answer, a second tab) gets the
+ * same answer. A send that differs — another unit or work order under the same device id, or steps
+ * changed since — is never quietly dropped: a reused id is refused (409, kept on the device), changed
+ * steps come back as a conflict saying the server's record stands.
+ */
+async function answerFor(worksheet: Worksheet, actor: User, body: OfflineWorksheetBody): Promise<SyncAnswer> {
   if (worksheet.performerId !== actor.id) {
     throw createError({
       status: 409,
@@ -69,11 +82,26 @@ async function answerFor(worksheet: Worksheet, actor: User): Promise<SyncAnswer>
       message: 'Another technician\'s worksheet already carries this device id.',
     })
   }
-  return {
-    worksheet: await worksheetById(worksheet.id),
-    conflicts: worksheet.content.offline?.conflicts ?? [],
-    created: false,
+  if (worksheet.accumulatorId !== body.accumulatorId || worksheet.workOrder !== body.workOrder) {
+    throw createError({
+      status: 409,
+      statusMessage: 'Conflict',
+      message:
+        `This device id already belongs to worksheet ${worksheet.id} (work order ${worksheet.workOrder}, another unit or `
+        + 'work order than this one). Nothing was taken from this send: it stays on the device; start it again as a '
+        + 'new worksheet.',
+    })
   }
+  const conflicts = [...(worksheet.content.offline?.conflicts ?? [])]
+  const digest = worksheet.content.offline?.stepsDigest
+  if (digest && digest !== stepsDigest(body)) {
+    const signed = worksheet.state !== 'draft' && worksheet.state !== 'returned'
+    conflicts.push(
+      `This worksheet reached the server before (worksheet ${worksheet.id}), and the device has changed its steps since: `
+      + `the changes were not taken. ${signed ? 'It is signed and can no longer change; record a correction if a reading was wrong.' : 'Make them on the worksheet itself.'}`,
+    )
+  }
+  return { worksheet: await worksheetById(worksheet.id), conflicts, created: false }
 }
 
 /**
@@ -112,7 +140,7 @@ function boundedTimes(body: OfflineWorksheetBody, receivedAt: number, conflicts:
  */
 export async function syncOfflineWorksheet(actor: User, body: OfflineWorksheetBody): Promise<SyncAnswer> {
   const known = await Worksheet.findOne({ where: { clientId: body.clientId } })
-  if (known) return answerFor(known, actor)
+  if (known) return answerFor(known, actor, body)
   const receivedAt = Date.now()
   const received = new Date(receivedAt).toISOString()
   const unit = await unitToService(body.accumulatorId)
@@ -130,7 +158,13 @@ export async function syncOfflineWorksheet(actor: User, body: OfflineWorksheetBo
   let state: { content: WorksheetContent, results: WorksheetResults } = {
     content: {
       ...frozenContent(accumulator, aircraft, toSpecificationDto(specification)),
-      offline: { clientId: body.clientId, startedAt: times.startedAt, syncedAt: received, conflicts },
+      offline: {
+        clientId: body.clientId,
+        startedAt: times.startedAt,
+        syncedAt: received,
+        conflicts,
+        stepsDigest: stepsDigest(body),
+      },
     },
     results: {},
   }
@@ -177,6 +211,6 @@ export async function syncOfflineWorksheet(actor: User, body: OfflineWorksheetBo
   catch (error) {
     // The same worksheet sent twice at once: the first one made it.
     if (!(error instanceof UniqueConstraintError)) throw error
-    return answerFor((await Worksheet.findOne({ where: { clientId: body.clientId } }))!, actor)
+    return answerFor((await Worksheet.findOne({ where: { clientId: body.clientId } }))!, actor, body)
   }
 }

@@ -115,10 +115,12 @@ async function checkSession(event: H3Event): Promise<LiveSession | null> {
     throw new SessionEnded('Your sign-in has ended because your password or access changed. Please sign in again.')
   if (Date.now() - session.lastSeenAt.getTime() > TOUCH_EVERY_MS) {
     const seen = new Date()
+    // Best-effort: a full disk must not refuse reads because "last seen" could not be written.
     await writeTransaction(transaction =>
       UserSession.update({ lastSeenAt: seen }, { where: { id: session.id }, transaction }),
-    )
-    session.lastSeenAt = seen
+    ).then(() => (session.lastSeenAt = seen), (error) => {
+      if (!storageFault(error) && (error as { statusCode?: number }).statusCode !== 503) throw error
+    })
   }
   return { user, session }
 }

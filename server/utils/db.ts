@@ -50,7 +50,15 @@ export async function useDB(): Promise<Sequelize> {
  * Every write in the server goes through here.
  */
 export async function writeTransaction<T>(work: (transaction: Transaction) => Promise<T>): Promise<T> {
-  return (await open()).write(work)
+  const { write } = await open()
+  try {
+    const result = await write(work)
+    writeSucceeded()
+    return result
+  }
+  catch (error) {
+    throw asStorageFault(error)
+  }
 }
 
 /** Case-insensitive LIKE on either database (SQLite's LIKE already is, for ASCII; PostgreSQL's is not). */

@@ -58,7 +58,15 @@ export interface WorksheetContent {
    * Filled on a device with no signal and sent later: what the server could not accept, and the technician's
    * review of it.
    */
-  offline?: { clientId: string, startedAt: string, syncedAt: string, conflicts: string[], reviewedAt?: string }
+  offline?: {
+    clientId: string
+    startedAt: string
+    syncedAt: string
+    conflicts: string[]
+    reviewedAt?: string
+    /** SHA-256 of the steps as the device sent them: a later send that differs is answered as a conflict. */
+    stepsDigest?: string
+  }
   /**
    * When the server received each step, and the time the device claimed for it where it gave one (a step kept
    * on a device with no signal). The record's time is the server's; the claim is kept as the device's word.

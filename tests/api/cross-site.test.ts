@@ -31,7 +31,8 @@ describe('a request that changes records from another origin', () => {
   })
 
   it('JSON from another origin, or a browser that says "cross-site", is refused too', async () => {
-    for (const headers of [{ origin: elsewhere() }, { 'sec-fetch-site': 'same-site' }, { 'sec-fetch-site': 'cross-site' }]) {
+    const forgeries: Record<string, string>[] = [{ origin: elsewhere() }, { 'sec-fetch-site': 'same-site' }, { 'sec-fetch-site': 'cross-site' }]
+    for (const headers of forgeries) {
       const answer = await api(`/api/worksheets/${released}/return`, { cookie: admin, body: { reason: 'Forged' }, headers })
       expect(answer.status).toBe(403)
     }

@@ -194,6 +194,27 @@ describe('a worksheet sent from a device', () => {
     expect(held.status).toBe(422)
   })
 
+  it('says what it did with a send that differs: changed steps are a conflict, a reused device id is refused', async () => {
+    const { body } = await offlineWorksheet('QX-FMA', /Normal brake/)
+    const first = await api('/api/worksheets/sync', { cookie: cookies.technician, body })
+    expect(first.status).toBe(201)
+    // The device sends it again with a reading changed after the first send: not taken, and said so.
+    const changed = structuredClone(body)
+    const asFound = changed.steps[3]!.body as { reading: { value: number } }
+    asFound.reading.value += 40
+    const again = await api('/api/worksheets/sync', { cookie: cookies.technician, body: changed })
+    expect(again.status).toBe(200)
+    expect(again.body.created).toBe(false)
+    expect(again.body.conflicts.join(' ')).toMatch(/changed its steps since: the changes were not taken/)
+    expect(again.body.worksheet.content.asFound.reading.value).toBe(asFound.reading.value - 40)
+    // The unchanged send is answered as before, with no new conflict.
+    expect((await api('/api/worksheets/sync', { cookie: cookies.technician, body })).body.conflicts).toEqual(first.body.conflicts)
+    // The same device id for another work order: refused in words, nothing dropped quietly.
+    const reused = await api('/api/worksheets/sync', { cookie: cookies.technician, body: { ...body, workOrder: 'WO-ANOTHER-ONE' } })
+    expect(reused.status).toBe(409)
+    expect(reused.body.message).toMatch(/already belongs to worksheet \d+[\s\S]*stays on the device/)
+  })
+
   it('answers bad input on its field, and is only for those who perform work', async () => {
     const { body } = await offlineWorksheet('QX-FMA', /Normal brake/)
     const notUuid = await api('/api/worksheets/sync', { cookie: cookies.technician, body: { ...body, clientId: 'abc' } })

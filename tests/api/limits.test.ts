@@ -98,6 +98,16 @@ describe('body limits and numbers JSON should not carry', () => {
     expect(performance.now() - started).toBeLessThan(5000)
   })
 
+  it('refuses a body nested 2,000 deep (4 KB) before anything parses or walks it', async () => {
+    const nested = `{"email":${'['.repeat(2000)}${']'.repeat(2000)},"password":"x"}`
+    const answer = await api('/api/auth/login', { raw: nested })
+    expect(answer.status).toBe(400)
+    expect(answer.body.message).toMatch(/nested more than 32 levels/)
+    // Brackets inside strings are text, not nesting.
+    const text = await api('/api/auth/login', { body: { email: '[[[['.repeat(20), password: '{{{{'.repeat(20) } })
+    expect(text.body.message).not.toMatch(/nested/)
+  })
+
   it('refuses a chunked body over the limit as it arrives', async () => {
     const answer = await rawPost(
       '/api/calc/charge-target',

@@ -152,7 +152,7 @@ describe('the signed export, checked offline', () => {
     const lines = text.trimEnd().split('\n')
     lines[5] = lines[5]!.replace(/"action":"([a-z-]+)"/, '"action":"$1x"')
     writeFileSync(join(folder, 'edited.ndjson'), `${lines.join('\n')}\n`)
-    const edited = spawnSync(process.execPath, [checker, join(folder, 'edited.ndjson')], { encoding: 'utf8' })
+    const edited = spawnSync(process.execPath, [checker, join(folder, 'edited.ndjson'), '--key', fingerprint], { encoding: 'utf8' })
     expect(edited.status).toBe(1)
     expect(edited.stderr).toMatch(/NOT INTACT[\s\S]*does not match its hash/)
     const otherKey = spawnSync(process.execPath, [checker, file, '--key', '0000:0000:0000:0000:0000:0000:0000:0000'], {
@@ -161,6 +161,28 @@ describe('the signed export, checked offline', () => {
     expect(otherKey.status).toBe(1)
     expect(otherKey.stderr).toMatch(/not the expected/)
     expect(readFileSync(file, 'utf8')).toBe(text)
+    // No key pinned: it will not judge (anyone can re-sign a file with their own key) unless told to trust it.
+    const unpinned = spawnSync(process.execPath, [checker, file], { encoding: 'utf8' })
+    expect(unpinned.status).toBe(2)
+    expect(unpinned.stderr).toMatch(/--key/)
+    expect(execFileSync(process.execPath, [checker, file, '--trust-embedded-key'], { encoding: 'utf8' })).toMatch(/^INTACT \(checked against the key the file carries/)
+    // The sealed head is signed: editing it breaks the signature.
+    const headEdited = text.trimEnd().split('\n')
+    headEdited[headEdited.length - 1] = headEdited.at(-1)!.replace(/"eventCount":(\d+)/, (_, count) => `"eventCount":${Number(count) + 1}`)
+    writeFileSync(join(folder, 'head.ndjson'), `${headEdited.join('\n')}\n`)
+    const head = spawnSync(process.execPath, [checker, join(folder, 'head.ndjson'), '--key', fingerprint], { encoding: 'utf8' })
+    expect(head.status).toBe(1)
+    expect(head.stderr).toMatch(/signature does not verify/)
+    // A stray carriage return, or a file cut short: one plain line, no stack trace.
+    writeFileSync(join(folder, 'cr.ndjson'), text.replace('"action"', '"act\rion"'))
+    const stray = spawnSync(process.execPath, [checker, join(folder, 'cr.ndjson'), '--key', fingerprint], { encoding: 'utf8' })
+    expect(stray.status).toBe(1)
+    expect(stray.stderr.trim().split('\n')).toHaveLength(1)
+    expect(stray.stderr).not.toMatch(/at .*\.mjs:\d+/)
+    writeFileSync(join(folder, 'cut.ndjson'), text.slice(0, Math.floor(text.length / 2)))
+    const cut = spawnSync(process.execPath, [checker, join(folder, 'cut.ndjson'), '--key', fingerprint], { encoding: 'utf8' })
+    expect(cut.status).toBe(1)
+    expect(cut.stderr.trim().split('\n')).toHaveLength(1)
   })
 })
 

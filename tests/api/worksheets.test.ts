@@ -184,7 +184,7 @@ describe('signing, countersign and the permanent record', () => {
     expect(released.status).toBe(409)
     expect(released.body.message).toMatch(/A released record is never voided: a technician records a correction/)
     const unit = (await api(`/api/worksheets/${worksheetId}`, { cookie: cookies.technician })).body.content.accumulator.id
-    const flow = await fillWorksheet(cookies.technician, unit)
+    const flow = await fillWorksheet(cookies.technician!, unit)
     expect((await api(`/api/worksheets/${flow.id}/void`, { cookie: cookies.technician, body: { reason: 'Entered on the wrong aircraft.' } })).status).toBe(403)
     const voided = await api(`/api/worksheets/${flow.id}/void`, { cookie: cookies.admin, body: { reason: 'Entered on the wrong aircraft.' } })
     expect(voided.body).toMatchObject({ state: 'voided', voidReason: 'Entered on the wrong aircraft.' })
