@@ -33,10 +33,11 @@ const subjectOf = (entity: string, entityId: string) => `integrity:${entity}:${e
 
 /** A write was refused because a record changed outside Chargewell: one open alert; administrators mailed once. */
 export async function recordHeld(held: HeldRecord): Promise<void> {
-  const raised = await writeTransaction(transaction =>
-    syncAlert('integrity', subjectOf(held.entity, held.entityId), true, held.reason, transaction),
-  )
-  if (raised) await mailIntegrityHold(held)
+  await writeTransaction(async (transaction) => {
+    const raised = await syncAlert('integrity', subjectOf(held.entity, held.entityId), true, held.reason, transaction)
+    // Queued in the write that raised it: an alert is never raised without its mail.
+    if (raised) await mailIntegrityHold(held)
+  })
 }
 
 /** The record's current content becomes what the trail vouches for, with the administrator's reason. */

@@ -123,7 +123,7 @@ async function compareAndSet(
 
 export async function recordCycleCheck(actor: User, body: CycleCheckBody): Promise<CycleCheckDto> {
   const figures = await evaluate(body)
-  const { check, alerts } = await writeTransaction(async (transaction) => {
+  const check = await writeTransaction(async (transaction) => {
     const created = await CycleCheck.create({ ...figures, recordedById: actor.id }, { transaction })
     await appendAudit(
       {
@@ -135,9 +135,10 @@ export async function recordCycleCheck(actor: User, body: CycleCheckBody): Promi
       },
       transaction,
     )
-    return { check: created, alerts: await trendAfterCycleCheck(body.aircraftId, body.system, transaction) }
+    // Each alert's mail is queued in this same write: an alert is never raised without its mail.
+    await mailAlerts(await trendAfterCycleCheck(body.aircraftId, body.system, transaction))
+    return created
   })
-  await mailAlerts(alerts)
   return toCycleCheckDto(check)
 }
 
@@ -149,7 +150,7 @@ export async function correctCycleCheck(
   expectedVersion?: number,
 ): Promise<CycleCheckDto> {
   const figures = await evaluate(body)
-  const alerts = await writeTransaction(async (transaction) => {
+  await writeTransaction(async (transaction) => {
     const check = await lockedCheck(id, transaction)
     enforce(canChangeCycleCheck(actor, check))
     const before = { aircraftId: check.aircraftId, system: check.system }
@@ -168,9 +169,8 @@ export async function correctCycleCheck(
       = before.aircraftId !== body.aircraftId || before.system !== body.system
         ? await trendAfterCycleCheck(before.aircraftId, before.system, transaction)
         : []
-    return [...moved, ...(await trendAfterCycleCheck(body.aircraftId, body.system, transaction))]
+    await mailAlerts([...moved, ...(await trendAfterCycleCheck(body.aircraftId, body.system, transaction))])
   })
-  await mailAlerts(alerts)
   return toCycleCheckDto(
     (await CycleCheck.findByPk(id, { include: [{ model: Aircraft, as: 'aircraft', attributes: ['registration'] }] }))!,
   )
@@ -183,7 +183,7 @@ export async function withdrawCycleCheck(
   reason: string,
   expectedVersion?: number,
 ): Promise<CycleCheckDto> {
-  const alerts = await writeTransaction(async (transaction) => {
+  await writeTransaction(async (transaction) => {
     const check = await lockedCheck(id, transaction)
     enforce(canChangeCycleCheck(actor, check))
     await compareAndSet(
@@ -196,9 +196,8 @@ export async function withdrawCycleCheck(
       { actorId: actor.id, entity: 'cycle-check', entityId: String(id), action: 'withdrawn', detail: { reason } },
       transaction,
     )
-    return trendAfterCycleCheck(check.aircraftId, check.system, transaction)
+    await mailAlerts(await trendAfterCycleCheck(check.aircraftId, check.system, transaction))
   })
-  await mailAlerts(alerts)
   return toCycleCheckDto(
     (await CycleCheck.findByPk(id, { include: [{ model: Aircraft, as: 'aircraft', attributes: ['registration'] }] }))!,
   )

@@ -72,8 +72,23 @@ export async function beginSession(event: H3Event, user: User): Promise<UserSess
       { transaction },
     ),
   )
-  await replaceUserSession(event, { user: sessionUser(user), token, loggedInAt: now.toISOString() })
+  await replaceUserSession(
+    event,
+    { user: sessionUser(user), token, loggedInAt: now.toISOString() },
+    { cookie: { secure: arrivedSecurely(event) } },
+  )
   return session
+}
+
+/**
+ * Whether the browser reached us over TLS (as forwarded by a trusted proxy) or on localhost, which
+ * browsers treat as secure. Only then is the session cookie marked Secure: over plain HTTP on a LAN
+ * address a browser drops a Secure cookie, and sign-in would silently fail. Production runs on HTTPS.
+ */
+function arrivedSecurely(event: H3Event): boolean {
+  const trustProxy = String(useRuntimeConfig().trustProxy) === 'true'
+  const url = getRequestURL(event, { xForwardedProto: trustProxy, xForwardedHost: trustProxy })
+  return url.protocol === 'https:' || ['localhost', '127.0.0.1', '[::1]'].includes(url.hostname)
 }
 
 export interface LiveSession {

@@ -59,13 +59,14 @@ export async function trendAfterVoid(
 export async function trendAfterSpecificationChange(partNumber: string): Promise<void> {
   const specification = await currentSpecification(partNumber)
   const units = await Accumulator.findAll({ where: { partNumber }, attributes: ['id'] })
-  const changes: AlertChange[] = []
   for (const unit of units) {
     await renormaliseUnit(unit.id, specification, writeTransaction)
-    const change = await writeTransaction(transaction => refreshUnitTrend(unit.id, transaction))
-    if (change) changes.push(change)
+    await writeTransaction(async (transaction) => {
+      const change = await refreshUnitTrend(unit.id, transaction)
+      // Queued in the write that raised it: an alert is never raised without its mail.
+      if (change) await mailAlerts([change])
+    })
   }
-  await mailAlerts(changes)
 }
 
 /** A pump cycle check was recorded: its system's interval trend raises or clears its alert. */

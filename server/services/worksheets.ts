@@ -481,15 +481,15 @@ export async function countersignWorksheet(
   checkVersion(seen, expectedVersion)
   await confirmSigner(event, signer, password)
   const now = new Date()
-  const alerts = await writeTransaction(async (transaction) => {
+  await writeTransaction(async (transaction) => {
     await compareAndSet(seen, ['awaiting-countersign'], { state: 'released', releasedAt: now }, transaction)
     await createSignature(seen, signer, 'inspector', now, transaction)
     await audit(signer, seen, 'countersigned', { performerId: seen.performerId, round: seen.round }, transaction, now)
     // The released as-found joins its unit's trend, in the same write; a correction replaces what it corrects.
     const superseded = await trendAfterCorrection(seen, transaction)
-    return [...superseded, ...(await trendAfterRelease(seen, transaction))]
+    // Each alert's mail is queued in this same write: an alert is never raised without its mail.
+    await mailAlerts([...superseded, ...(await trendAfterRelease(seen, transaction))])
   })
-  await mailAlerts(alerts)
   return worksheetById(id)
 }
 
@@ -524,7 +524,7 @@ export async function voidWorksheet(
   reason: string,
   expectedVersion?: number,
 ): Promise<WorksheetDto> {
-  const alerts = await writeTransaction(async (transaction) => {
+  await writeTransaction(async (transaction) => {
     const worksheet = await lockedWorksheet(id, transaction)
     enforce(canVoid(actor, worksheet))
     checkVersion(worksheet, expectedVersion)
@@ -536,9 +536,8 @@ export async function voidWorksheet(
       transaction,
     )
     await audit(actor, worksheet, 'voided', { reason, previousState }, transaction)
-    return trendAfterVoid(worksheet, previousState, transaction)
+    await mailAlerts(await trendAfterVoid(worksheet, previousState, transaction))
   })
-  await mailAlerts(alerts)
   return worksheetById(id)
 }
 

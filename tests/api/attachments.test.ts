@@ -117,3 +117,17 @@ describe('replacing and removing a photo', () => {
     expect(verify.body.ok).toBe(true)
   })
 })
+
+describe('a photo\'s name as the tablet gives it', () => {
+  it('keeps a name with "=" and ";" whole when the page sends it as a field (the multipart header cannot)', async () => {
+    const unit = await unitAt(cookies.technician, 'QX-FMJ', /System 2/)
+    const flow = await fillWorksheet(cookies.technician, unit.id)
+    const name = 'gauge=GA-0141; as-left.png'
+    const answer = await upload('/api/attachments', { worksheetId: String(flow.id), kind: 'gauge-photo', fileName: name }, { name, bytes: png(7), type: 'image/png' }, cookies.technician)
+    expect(answer.status).toBe(201)
+    expect(answer.body.originalName).toBe(name)
+    const empty = await upload('/api/attachments', { worksheetId: String(flow.id), kind: 'gauge-photo', fileName: ' ' }, { name, bytes: png(8), type: 'image/png' }, cookies.technician)
+    expect(empty.status).toBe(400)
+    expect(JSON.stringify(empty.body)).toMatch(/fileName/)
+  })
+})

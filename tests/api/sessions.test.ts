@@ -3,6 +3,7 @@
  * and a role change end it on the server, whatever the cookie still says. Anonymous requests
  * create no session; unknown API paths are 404 JSON; every answer carries the security headers.
  */
+import { request } from 'node:http'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { api, DEMO, DEMO_PASSWORD, signIn } from '../support/api'
 import { baseURL } from '../support/file-server'
@@ -177,5 +178,37 @@ describe('security headers', () => {
     finally {
       await server.dispose()
     }
+  })
+})
+
+describe('the session cookie and the way the browser came', () => {
+  /** Signs in with the Host (and forwarded protocol) a browser on that address would send; the Set-Cookie line. */
+  function signInAs(host: string): Promise<string> {
+    const target = new URL(baseURL())
+    const body = JSON.stringify({ email: DEMO.inspector, password: DEMO_PASSWORD })
+    return new Promise((resolve, reject) => {
+      const sent = request({
+        host: target.hostname,
+        port: target.port,
+        path: '/api/auth/login',
+        method: 'POST',
+        headers: { 'host': host, 'content-type': 'application/json', 'content-length': Buffer.byteLength(body) },
+      }, (response) => {
+        response.resume()
+        resolve((response.headers['set-cookie'] ?? []).join('\n'))
+      })
+      sent.on('error', reject)
+      sent.end(body)
+    })
+  }
+
+  it('is Secure on localhost, and not over plain HTTP on a LAN address (where a browser would drop it)', async () => {
+    const local = await signInAs('localhost:3000')
+    expect(local).toMatch(/; Secure/i)
+    // No request another site starts carries it, a form on another port of this host included.
+    expect(local).toMatch(/; SameSite=Strict/i)
+    const lan = await signInAs('192.168.40.12:3000')
+    expect(lan).toMatch(/nuxt-session=/)
+    expect(lan).not.toMatch(/; Secure/i)
   })
 })

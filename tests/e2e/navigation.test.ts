@@ -118,3 +118,15 @@ describe('sign-in and navigation per role', () => {
     await page.context().close()
   })
 })
+
+describe('a link followed from another site (the session cookie is SameSite=Strict)', () => {
+  it('lands a signed-in inspector on the page the e-mail pointed at, not on sign-in', async () => {
+    const page = await signedInPage(browser, 'inspector@chargewell.test')
+    // A page of no site of ours (as a webmail would be) with the link from the countersign e-mail.
+    await page.setContent(`<a id="mail-link" href="${baseURL()}/countersign">Open the countersign queue</a>`)
+    await page.locator('#mail-link').click()
+    await page.waitForURL(url => url.pathname === '/countersign', { timeout: 30_000 })
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).innerText()).toMatch(/Countersign/)
+    await page.context().close()
+  })
+})
