@@ -34,11 +34,13 @@ export const useConnectionStore = defineStore('connection', () => {
       checking.value = true
       try {
         // Any answer at all is the server: a 503 (its database in trouble) is still "connected".
-        await fetch('/api/health', {
+        const answer = await fetch('/api/health', {
           cache: 'no-store',
           headers: { accept: 'application/json' },
           signal: AbortSignal.timeout(HEARTBEAT_TIMEOUT_MS),
         })
+        // Read to the end: an unread body keeps the request open (and the page "busy") until the time-out.
+        await answer.arrayBuffer()
         online.value = true
       }
       catch {
