@@ -12,8 +12,9 @@ export default defineNuxtPlugin({
     const connection = useConnectionStore()
     globalThis.$fetch = globalThis.$fetch.create({
       onRequestError({ error }) {
-        // A request the page itself abandoned says nothing about the network.
-        if (error?.name !== 'AbortError') connection.lost()
+        // Only "no network" (the browser's TypeError) says the device is offline; a request the page
+        // abandoned, or one that timed out, says nothing of the kind.
+        if (error?.name === 'TypeError') connection.lost()
       },
     }) as typeof globalThis.$fetch
     useRouter().afterEach(() => void connection.check())

@@ -21,6 +21,7 @@ export const useConnectionStore = defineStore('connection', () => {
   const checkedAt = ref<string | null>(null)
   const checking = ref(false)
   let running: Promise<boolean> | null = null
+  let slowAnswers = 0
   let timer: ReturnType<typeof setTimeout> | undefined
 
   function schedule(after: number) {
@@ -42,9 +43,14 @@ export const useConnectionStore = defineStore('connection', () => {
         // Read to the end: an unread body keeps the request open (and the page "busy") until the time-out.
         await answer.arrayBuffer()
         online.value = true
+        slowAnswers = 0
       }
-      catch {
-        online.value = false
+      catch (error) {
+        // No network fails at once: offline now. A server that is only slow (a busy moment) is not
+        // "no signal": offline after the second heartbeat in a row that gets no answer in time.
+        const timedOut = (error as Error)?.name === 'TimeoutError'
+        slowAnswers = timedOut ? slowAnswers + 1 : 0
+        if (!timedOut || slowAnswers >= 2) online.value = false
       }
       finally {
         checking.value = false

@@ -2,6 +2,7 @@ import { formatPressure, formatPressureValue, formatTemperature, unitLabel } fro
 import { PREPARATION_CHECKS, PREPARATION_LABELS, WORKSHEET_STATE_LABELS, type WorksheetDto } from '../types/worksheet'
 import type { displayFormat } from './station-time'
 import type { AssessmentSummary } from './worksheet-results'
+import { STEP_NAMES } from './worksheet-steps'
 
 /**
  * The signed record, laid out once: the page (WorksheetRecord.vue) and the PDF
@@ -106,6 +107,23 @@ export function worksheetRecordSections(worksheet: WorksheetDto, display: Displa
         { label: 'Serviceable', text: serviceable, tone: worksheet.serviceable === false ? 'fault' : 'normal' },
         ...(finish.remarks ? [{ label: 'Remarks', text: finish.remarks }] : []),
       ],
+    })
+  }
+
+  // The record's times are the server's. Where a device kept a step with no signal, the time it gave is
+  // shown beside the server's receipt, so a reader sees which times rest on a device's clock.
+  const timeline = content.timeline ?? []
+  if (timeline.some(receipt => receipt.claimedAt)) {
+    sections.push({
+      id: 'times',
+      title: 'Times kept on a device',
+      lines: timeline.map(receipt => ({
+        label: STEP_NAMES[receipt.step as keyof typeof STEP_NAMES] ?? receipt.step,
+        text: receipt.claimedAt
+          ? `taken on the device ${display.dateTime(receipt.claimedAt)} (its clock); received ${display.dateTime(receipt.receivedAt)}`
+          : `received ${display.dateTime(receipt.receivedAt)}`,
+        tone: receipt.claimedAt ? 'normal' as const : 'quiet' as const,
+      })),
     })
   }
 

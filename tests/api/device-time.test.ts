@@ -4,9 +4,14 @@
  * server's receipt, and can never make a refused step acceptable: not an expired gauge, not a settle
  * time that has not passed.
  */
+import { execFileSync } from 'node:child_process'
 import { randomUUID } from 'node:crypto'
+import { mkdtempSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { api, DEMO, DEMO_PASSWORD, signIn } from '../support/api'
+import { baseURL } from '../support/file-server'
 import { AMBIENT, expectedTarget, GAS_TEMPERATURE, toolId, unitAt } from '../support/worksheet-flow'
 
 let technician: string
@@ -118,5 +123,49 @@ describe('a worksheet filled offline with a wrong or tampered clock', () => {
     expect(answer.status).toBe(201)
     expect(answer.body.conflicts.join(' ')).toMatch(/Tools was not accepted: Gauge GA-0152: calibration expired/)
     expect(answer.body.worksheet.content.timeline[0]).toMatchObject({ step: 'preparation', claimedAt: body.steps[0]!.at })
+  })
+})
+
+describe('the record says which times rest on a device\'s clock', () => {
+  it('a worksheet filled offline, signed and countersigned: its PDF shows each step\'s device time beside the server\'s receipt', async () => {
+    const unit = await unitAt(technician, 'QX-FMK', /Normal brake/)
+    const reference = (await api('/api/field/reference', { cookie: technician })).body
+    const installed = reference.units.find((item: { id: number }) => item.id === unit.id)
+    const specification = reference.specifications.find(
+      (item: { partNumber: string }) => item.partNumber === installed.partNumber,
+    )
+    const target = expectedTarget(specification).target
+    const reading = { value: Math.round(target.value), unit: target.unit, basis: target.basis }
+    const body = {
+      clientId: randomUUID(),
+      accumulatorId: unit.id,
+      specificationId: specification.id as number,
+      workOrder: `WO-CLOCK-PDF-${Date.now()}`,
+      reason: 'scheduled',
+      startedAt: minutesAgo(50),
+      steps: [
+        { at: minutesAgo(49), body: { step: 'preparation', systemDepressurised: true, aircraftSafe: true, eyeProtection: true, nitrogenOnly: true } },
+        { at: minutesAgo(47), body: { step: 'tools', gaugeId: await toolId(technician, 'GA-0141'), cartId: await toolId(technician, 'NC-07') } },
+        { at: minutesAgo(45), body: { step: 'conditions', gasTemperature: GAS_TEMPERATURE, temperatureMethod: 'ambient-shade', minutesSinceOperated: 90, ambient: AMBIENT } },
+        { at: minutesAgo(40), body: { step: 'asFound', reading } },
+        { at: minutesAgo(38), body: { step: 'action', kind: 'none' } },
+        { at: minutesAgo(35), body: { step: 'asLeft', reading, gasTemperature: GAS_TEMPERATURE } },
+        { at: minutesAgo(30), body: { step: 'finish', valveLeakCheck: true, capFitted: true, remarks: 'Filled on the ramp.' } },
+      ],
+    }
+    const synced = await api('/api/worksheets/sync', { cookie: technician, body })
+    expect(synced.status).toBe(201)
+    expect(synced.body.conflicts).toEqual([])
+    const id = synced.body.worksheet.id as number
+    expect((await api(`/api/worksheets/${id}/sign`, { cookie: technician, body: { password: DEMO_PASSWORD, certify: true } })).status).toBe(200)
+    const inspector = await signIn(DEMO.inspector)
+    expect((await api(`/api/worksheets/${id}/countersign`, { cookie: inspector, body: { password: DEMO_PASSWORD, certify: true } })).status).toBe(200)
+    const response = await fetch(`${baseURL()}/api/worksheets/${id}/pdf`, { headers: { cookie: inspector } })
+    expect(response.status).toBe(200)
+    const folder = mkdtempSync(join(tmpdir(), 'chargewell-pdf-'))
+    writeFileSync(join(folder, 'record.pdf'), Buffer.from(await response.arrayBuffer()))
+    const text = execFileSync('pdftotext', ['-layout', join(folder, 'record.pdf'), '-'], { encoding: 'utf8' })
+    expect(text).toContain('Times kept on a device')
+    expect(text).toMatch(/As-found: taken on the device .* \(its clock\); received/)
   })
 })
