@@ -128,7 +128,8 @@ describe('a worksheet filled offline with a wrong or tampered clock', () => {
 
 describe('the record says which times rest on a device\'s clock', () => {
   it('a worksheet filled offline, signed and countersigned: its PDF shows each step\'s device time beside the server\'s receipt', async () => {
-    const unit = await unitAt(technician, 'QX-FMK', /Normal brake/)
+    // A unit of the technician's station, which the device's copy holds.
+    const unit = await unitAt(technician, 'QX-FMA', /Normal brake/)
     const reference = (await api('/api/field/reference', { cookie: technician })).body
     const installed = reference.units.find((item: { id: number }) => item.id === unit.id)
     const specification = reference.specifications.find(
