@@ -10,11 +10,9 @@ function refuse(message: string): never {
 
 /** The origins this app answers as: the request's own (behind a trusted proxy, as forwarded) and NUXT_PUBLIC_URL. */
 function ownOrigins(event: H3Event): Set<string> {
-  const config = useRuntimeConfig()
-  const trustProxy = String(config.trustProxy) === 'true'
-  const origins = new Set([getRequestURL(event, { xForwardedHost: trustProxy, xForwardedProto: trustProxy }).origin])
+  const origins = new Set([requestedURL(event).origin])
   try {
-    origins.add(new URL(String(config.publicUrl)).origin)
+    origins.add(new URL(String(useRuntimeConfig().publicUrl)).origin)
   }
   catch {
     /* no public address configured */

@@ -4,8 +4,7 @@
  * development machine it would pin localhost to HTTPS.
  */
 export default defineEventHandler((event) => {
-  const trustProxy = String(useRuntimeConfig().trustProxy) === 'true'
-  if (getRequestProtocol(event, { xForwardedProto: trustProxy }) === 'https') {
+  if (getRequestProtocol(event, { xForwardedProto: trustsProxy() }) === 'https') {
     setResponseHeader(event, 'strict-transport-security', 'max-age=31536000; includeSubDomains')
   }
 })

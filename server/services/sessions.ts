@@ -86,8 +86,7 @@ export async function beginSession(event: H3Event, user: User): Promise<UserSess
  * address a browser drops a Secure cookie, and sign-in would silently fail. Production runs on HTTPS.
  */
 function arrivedSecurely(event: H3Event): boolean {
-  const trustProxy = String(useRuntimeConfig().trustProxy) === 'true'
-  const url = getRequestURL(event, { xForwardedProto: trustProxy, xForwardedHost: trustProxy })
+  const url = requestedURL(event)
   return url.protocol === 'https:' || ['localhost', '127.0.0.1', '[::1]'].includes(url.hostname)
 }
 

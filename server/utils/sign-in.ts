@@ -23,9 +23,7 @@ function limits() {
 
 /** The client's address; behind a reverse proxy (NUXT_TRUST_PROXY=true) the first X-Forwarded-For hop. */
 export function clientAddress(event: H3Event): string {
-  // NUXT_TRUST_PROXY arrives as a string or a boolean, depending on how it was set.
-  const trustProxy = String(useRuntimeConfig().trustProxy) === 'true'
-  return (getRequestIP(event, { xForwardedFor: trustProxy }) ?? 'unknown').slice(0, 64)
+  return (getRequestIP(event, { xForwardedFor: trustsProxy() }) ?? 'unknown').slice(0, 64)
 }
 
 function refuse(event: H3Event, unlockAt: number, now: number, message: string): never {
