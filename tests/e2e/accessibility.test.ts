@@ -8,7 +8,7 @@ import type { Browser, BrowserContext, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { navigationFor } from '../../shared/navigation'
 import type { Role } from '../../shared/types/user'
-import { launchBrowser } from '../support/browser'
+import { launchBrowser, waitForHydration } from '../support/browser'
 import { baseURL } from '../support/file-server'
 
 const SIZES = { tablet: { width: 1024, height: 768 }, phone: { width: 390, height: 844 } } as const
@@ -45,7 +45,7 @@ async function signedIn(
   const context = await browser.newContext({ baseURL: baseURL(), viewport })
   const answer = await context.request.post('/api/auth/login', { data: { email, password: 'chargewell-demo' } })
   expect(answer.status()).toBe(200)
-  return { context, page: await context.newPage() }
+  return { context, page: waitForHydration(await context.newPage()) }
 }
 
 /** Tabs through the page and answers which rows of the table received focus. */

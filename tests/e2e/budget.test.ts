@@ -6,7 +6,7 @@
 import { gzipSync } from 'node:zlib'
 import type { Browser, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { launchBrowser } from '../support/browser'
+import { launchBrowser, waitForHydration } from '../support/browser'
 import { baseURL } from '../support/file-server'
 
 const KB = 1024
@@ -27,7 +27,7 @@ async function coldPage(): Promise<Page> {
   const context = await browser.newContext({ baseURL: baseURL() })
   const answer = await context.request.post('/api/auth/login', { data: { email: 'engineer@chargewell.test', password: 'chargewell-demo' } })
   expect(answer.status()).toBe(200)
-  return context.newPage()
+  return waitForHydration(await context.newPage())
 }
 afterAll(async () => {
   await browser?.close()

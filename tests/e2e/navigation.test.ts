@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { baseURL } from '../support/file-server'
 import { NAVIGATION, navigationFor } from '../../shared/navigation'
 import type { Role } from '../../shared/types/user'
-import { launchBrowser, signedInPage } from '../support/browser'
+import { launchBrowser, signedInPage, waitForHydration } from '../support/browser'
 
 let browser: Browser
 beforeAll(async () => {
@@ -36,7 +36,7 @@ describe('sign-in and navigation per role', () => {
 
   it('a wrong password shows the reason and keeps what was typed', async () => {
     const context = await browser.newContext({ baseURL: baseURL() })
-    const page = await context.newPage()
+    const page = waitForHydration(await context.newPage())
     await page.goto('/login')
     await page.getByLabel('E-mail').fill('technician@chargewell.test')
     await page.getByLabel('Password').fill('wrong-password')
@@ -48,7 +48,7 @@ describe('sign-in and navigation per role', () => {
 
   it('sends a signed-out visitor to sign-in, and a technician away from Admin', async () => {
     const context = await browser.newContext({ baseURL: baseURL() })
-    const anonymous = await context.newPage()
+    const anonymous = waitForHydration(await context.newPage())
     await anonymous.goto('/charge-target')
     await anonymous.waitForURL(url => url.pathname === '/login')
     await context.close()

@@ -10,10 +10,32 @@ export function launchBrowser(): Promise<Browser> {
   })
 }
 
+/**
+ * Makes `page.goto` and `page.reload` return only once the app has hydrated (`<html data-hydrated>`,
+ * plugins/hydrated.client.ts). A click on server-rendered HTML before then is lost: on a busy
+ * machine a test that clicked an aircraft at once waited 30 s for positions that never came.
+ */
+export function waitForHydration(page: Page): Page {
+  const live = () => page.locator('html[data-hydrated]').waitFor({ state: 'attached' })
+  const goto = page.goto.bind(page)
+  const reload = page.reload.bind(page)
+  page.goto = async (...args) => {
+    const response = await goto(...args)
+    await live()
+    return response
+  }
+  page.reload = async (...args) => {
+    const response = await reload(...args)
+    await live()
+    return response
+  }
+  return page
+}
+
 /** A new tablet-sized page signed in as `email`. */
 export async function signedInPage(browser: Browser, email: string, password = 'chargewell-demo'): Promise<Page> {
   const context = await browser.newContext({ baseURL: baseURL(), viewport: { width: 1180, height: 820 } })
-  const page = await context.newPage()
+  const page = waitForHydration(await context.newPage())
   // When a test fails, say what the browser saw go wrong (answers of 400 and up, console errors).
   const trouble: string[] = []
   page.on('response', response => response.status() >= 400 && trouble.push(`${response.status()} ${response.request().method()} ${response.url()}`))

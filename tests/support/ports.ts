@@ -7,6 +7,17 @@ import { createServer } from 'node:net'
 // connections while files start their servers.
 const FIRST = 20_000
 const LAST = 32_000
+// Each vitest worker draws from its own slice of that range. A probe only proves a port free at
+// that instant: two files in two workers could both probe the same port free before either server
+// binds it (CI saw EADDRINUSE on a test server's port that way). Within a worker, files run one
+// after another, and this module hands a port out once per file.
+const SLICE = 1_000
+const SLICES = (LAST - FIRST) / SLICE
+const pool = Number(process.env.VITEST_POOL_ID)
+const [low, high] = Number.isInteger(pool) && pool >= 1 && pool <= SLICES
+  ? [FIRST + (pool - 1) * SLICE, FIRST + pool * SLICE]
+  : [FIRST, LAST]
+const handedOut = new Set<number>()
 
 function tryPort(port: number): Promise<boolean> {
   return new Promise((done) => {
@@ -16,11 +27,15 @@ function tryPort(port: number): Promise<boolean> {
   })
 }
 
-/** A port that is free now and outside the range used for outgoing connections. */
+/** A port that is free now, outside the range used for outgoing connections, and not handed to another worker. */
 export async function freePort(): Promise<number> {
   for (let attempt = 0; attempt < 200; attempt++) {
-    const port = FIRST + Math.floor(Math.random() * (LAST - FIRST))
-    if (await tryPort(port)) return port
+    const port = low + Math.floor(Math.random() * (high - low))
+    if (handedOut.has(port)) continue
+    if (await tryPort(port)) {
+      handedOut.add(port)
+      return port
+    }
   }
-  throw new Error(`No free port between ${FIRST} and ${LAST}.`)
+  throw new Error(`No free port between ${low} and ${high}.`)
 }
