@@ -1,5 +1,6 @@
 import { ambientPressure, describeAmbient } from './atmosphere'
 import { EngineInputError } from './errors'
+import { formatTemperature } from './format'
 import { describeModel, gasLaw, stateAt, stateAtTemperature } from './gas-law'
 import type { Ambient, GasModel, Pressure, PressureUnit, Provenance, TablePoint, Temperature, Tolerance } from './types'
 import {
@@ -96,6 +97,9 @@ export interface TableTargetResult extends Provenance<TableTargetInput> {
   between: [TablePoint, TablePoint]
 }
 
+/** Two table temperatures closer than this (kelvin) are one temperature written twice. */
+export const TABLE_TEMPERATURE_TOLERANCE_K = 0.001
+
 /**
  * The pre-charge from an approved-data table of temperature/pressure points, by linear
  * interpolation in temperature. Outside the table's range it refuses: the approved data does
@@ -107,24 +111,31 @@ export function chargeTargetFromTable(input: TableTargetInput): TableTargetResul
   if (input.points.length < 2) throw new EngineInputError('An approved-data table needs at least two points.', 'points')
   const first = input.points[0]!.pressure
   const rows = input.points
-    .map(point => ({
+    .map((point, index) => ({
       point,
+      index,
       kelvin: temperatureToKelvin(point.temperature),
       pascals: pressureToPascalAbsolute(point.pressure, ambientPa),
     }))
     .sort((a, b) => a.kelvin - b.kelvin)
   for (let i = 1; i < rows.length; i++) {
-    if (rows[i]!.kelvin === rows[i - 1]!.kelvin)
-      throw new EngineInputError('Two table points have the same temperature.', 'points')
+    // The same temperature written in two units (0 °C and 32 °F) differs by rounding only.
+    if (rows[i]!.kelvin - rows[i - 1]!.kelvin < TABLE_TEMPERATURE_TOLERANCE_K) {
+      const [earlier, later] = [rows[i - 1]!, rows[i]!].sort((a, b) => a.index - b.index)
+      throw new EngineInputError(
+        `Table points ${earlier!.index + 1} (${formatTemperature(earlier!.point.temperature)}) and ${later!.index + 1} (${formatTemperature(later!.point.temperature)}) are the same temperature.`,
+        `points.${later!.index}.temperature`,
+      )
+    }
   }
   const gasK = temperatureToKelvin(input.gasTemperature)
   const lowest = rows[0]!
   const highest = rows[rows.length - 1]!
   if (gasK < lowest.kelvin - 1e-9 || gasK > highest.kelvin + 1e-9) {
     const unit = input.gasTemperature.unit
-    const show = (k: number) => kelvinToTemperature(k, unit).value.toFixed(1)
+    const show = (k: number) => formatTemperature(kelvinToTemperature(k, unit))
     throw new EngineInputError(
-      `Gas temperature ${show(gasK)} °${unit} is outside the approved-data table (${show(lowest.kelvin)} to ${show(highest.kelvin)} °${unit}); the table must not be extrapolated.`,
+      `Gas temperature ${show(gasK)} is outside the approved-data table (${show(lowest.kelvin)} to ${show(highest.kelvin)}); the table must not be extrapolated.`,
       'gasTemperature',
     )
   }
@@ -139,7 +150,7 @@ export function chargeTargetFromTable(input: TableTargetInput): TableTargetResul
     ambientPressure: pascalAbsoluteToPressure(ambientPa, first.unit, 'absolute', ambientPa),
     between: [a.point, b.point],
     inputs: input,
-    method: `linear interpolation in the approved-data table between ${a.point.temperature.value} and ${b.point.temperature.value} °${a.point.temperature.unit}; ${describeAmbient(input.ambient)}`,
+    method: `linear interpolation in the approved-data table between ${formatTemperature(a.point.temperature)} and ${formatTemperature(b.point.temperature)}; ${describeAmbient(input.ambient)}`,
     engineVersion: ENGINE_VERSION,
   }
   if (input.tolerance) {

@@ -1,7 +1,7 @@
 import { ambientPressure, describeAmbient } from './atmosphere'
 import { chargeTarget } from './charge-target'
 import { EngineInputError } from './errors'
-import { formatPressure } from './format'
+import { formatPressure, formatTemperature } from './format'
 import { describeModel, gasLaw, stateAt } from './gas-law'
 import type {
   Ambient,
@@ -123,8 +123,14 @@ export function leakRate(input: LeakRateInput): LeakRateResult {
   }
 }
 
+/** A leak rate as a volume per time: what `leakRate` answers (per minute), or per second or hour. */
+export interface FlowRateInput {
+  value: number
+  unit: `${VolumeUnit}/${'s' | 'min' | 'h'}`
+}
+
 export interface LeakIntervalInput extends CycleConditions {
-  leakRate: { value: number, unit: VolumeUnit }
+  leakRate: FlowRateInput
   intervalUnit?: IntervalUnit
 }
 
@@ -136,7 +142,8 @@ export interface LeakIntervalResult extends Provenance<LeakIntervalInput> {
 
 /** The cut-out to cut-in interval that a given leak rate (volume per minute) would give. */
 export function leakInterval(input: LeakIntervalInput): LeakIntervalResult {
-  const perMinuteM3 = volumeToCubicMetres({ value: input.leakRate.value, unit: input.leakRate.unit })
+  const [volumeUnit, per] = input.leakRate.unit.split('/') as [VolumeUnit, 's' | 'min' | 'h']
+  const perMinuteM3 = volumeToCubicMetres({ value: input.leakRate.value, unit: volumeUnit }) * { s: 60, min: 1, h: 1 / 60 }[per]
   if (!(perMinuteM3 > 0)) throw new EngineInputError('The leak rate must be above zero.', 'leakRate')
   const { releasedM3, warnings, method } = fluidBetweenCutOutAndCutIn(input)
   return {
@@ -207,7 +214,7 @@ export interface PrechargeFitInput {
 const DAY_MS = 86_400_000
 
 function trendMethod(model: GasModel, reference: { temperature: Temperature }): string {
-  return `${describeModel(model)}: readings carried to ${reference.temperature.value} °${reference.temperature.unit} at constant gas mass and volume; one least-squares loss rate across charge segments`
+  return `${describeModel(model)}: readings carried to ${formatTemperature(reference.temperature)} at constant gas mass and volume; one least-squares loss rate across charge segments`
 }
 
 /**

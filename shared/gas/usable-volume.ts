@@ -95,7 +95,7 @@ function toSi(input: SizingConditions): SiConditions {
     discharge: input.discharge ?? 'adiabatic',
   }
   law.checkInput(si.prechargeK, si.prechargePa, 'precharge')
-  law.checkInput(si.operatingK, si.maxPa, 'operatingTemperature')
+  law.checkInput(si.operatingK, si.maxPa, input.operatingTemperature ? 'operatingTemperature' : 'prechargeTemperature')
   law.checkInput(si.operatingK, si.minPa, 'minPressure')
   if (si.minPa >= si.maxPa) {
     throw new EngineInputError(
@@ -103,13 +103,22 @@ function toSi(input: SizingConditions): SiConditions {
       'minPressure',
     )
   }
-  if (si.prechargePa >= si.maxPa) {
-    throw new EngineInputError(
-      `The pre-charge (${formatPressure(input.precharge)}) is at or above the maximum working pressure (${formatPressure(input.maxPressure)}): no fluid would enter the accumulator.`,
-      'precharge',
-    )
-  }
   return si
+}
+
+/**
+ * A gas state the method cannot reach (outside the equation of state's range) is refused naming the input
+ * that leads there: the pre-charge, the operating temperature, the maximum (charge) or the minimum
+ * (discharge) pressure.
+ */
+function naming<T>(field: string, calculation: () => T): T {
+  try {
+    return calculation()
+  }
+  catch (error) {
+    if (error instanceof EngineInputError && !error.field) throw new EngineInputError(error.message, field)
+    throw error
+  }
 }
 
 /**
@@ -121,19 +130,19 @@ function toSi(input: SizingConditions): SiConditions {
  */
 function sizeSi(si: SiConditions): SiOutcome {
   const { law } = si
-  const filled = stateAt(law, si.prechargePa, si.prechargeK)
-  const operating = stateAtTemperature(law, filled, si.operatingK)
+  const filled = naming('precharge', () => stateAt(law, si.prechargePa, si.prechargeK))
+  const operating = naming('operatingTemperature', () => stateAtTemperature(law, filled, si.operatingK))
   if (operating.pressure >= si.maxPa) {
     throw new EngineInputError(
-      'At the operating temperature the pre-charge reaches the maximum working pressure: no fluid would enter the accumulator.',
+      'At the operating temperature the pre-charge reaches the maximum working pressure: no fluid would enter the accumulator. Lower the pre-charge.',
       'precharge',
     )
   }
-  const atMax = changeToPressure(law, si.charge, operating, si.maxPa)
-  let atMin = changeToPressure(law, si.discharge, atMax, si.minPa)
+  const atMax = naming('maxPressure', () => changeToPressure(law, si.charge, operating, si.maxPa))
+  let atMin = naming('minPressure', () => changeToPressure(law, si.discharge, atMax, si.minPa))
   let bottomOut: GasState | undefined
   if (atMin.density < filled.density) {
-    bottomOut = changeToDensity(law, si.discharge, atMax, filled.density)
+    bottomOut = naming('minPressure', () => changeToDensity(law, si.discharge, atMax, filled.density))
     atMin = bottomOut
   }
   const atMaxFraction = filled.density / atMax.density
@@ -265,60 +274,120 @@ export interface OptimumPrechargeInput extends Omit<SizingConditions, 'precharge
 export interface OptimumPrechargeResult extends Provenance<OptimumPrechargeInput> {
   /** The pre-charge, at the pre-charge temperature, that gives the most usable fluid. */
   precharge: Pressure
+  /** The same gas at the operating temperature. */
+  prechargeAtOperatingTemperature: Pressure
   usableVolume: Volume
+  /** The pre-charges searched, at the pre-charge temperature: every one that lets fluid in at the operating temperature. */
+  searched: { low: Pressure, high: Pressure }
+  /** True when the best lies at an end of the searched range (the usable volume may go on rising beyond it). */
+  atBound: boolean
+  warnings: string[]
 }
 
 /**
- * The pre-charge that maximises the usable volume for given limits. Usable volume rises with
- * the pre-charge until the separator just reaches its stop at the minimum pressure, then
- * falls, so a golden-section search over the pre-charge finds that point.
+ * The physically feasible pre-charges (absolute, Pa, at the pre-charge temperature): above the ambient
+ * pressure, and low enough that at the operating temperature the gas is below the maximum working
+ * pressure (the same gas at constant volume: the same density).
+ */
+function feasiblePrecharges(input: Omit<SizingConditions, 'precharge'>): { lowPa: number, highPa: number, ambientPa: number } {
+  const ambientPa = ambientPressure(input.ambient)
+  const law = gasLaw(input.model ?? 'real')
+  const prechargeK = temperatureToKelvin(input.prechargeTemperature)
+  const operatingK = temperatureToKelvin(input.operatingTemperature ?? input.prechargeTemperature)
+  const maxPa = pressureToPascalAbsolute(input.maxPressure, ambientPa)
+  law.checkInput(prechargeK, maxPa, 'prechargeTemperature')
+  law.checkInput(operatingK, maxPa, input.operatingTemperature ? 'operatingTemperature' : 'prechargeTemperature')
+  const highPa = law.pressure(law.density(maxPa, operatingK), prechargeK)
+  return { lowPa: ambientPa * 1.01, highPa: highPa * (1 - 1e-9), ambientPa }
+}
+
+/**
+ * The pre-charge that maximises the usable volume for given limits, judged at the operating temperature
+ * as the usable volume is. Usable volume rises with the pre-charge until the separator just reaches its
+ * stop at the minimum pressure, then falls. The whole feasible range is scanned (240 points, evenly in
+ * log pressure) and the best refined by golden-section search between its neighbours; a trial pre-charge
+ * the method cannot compute (a gas state outside the equation of state's range) is skipped, not fatal.
  */
 export function optimumPrecharge(input: OptimumPrechargeInput): OptimumPrechargeResult {
   const like = input.prechargeUnit ?? input.maxPressure
+  const { lowPa, highPa, ambientPa } = feasiblePrecharges(input)
+  if (!(highPa > lowPa)) {
+    throw new EngineInputError(
+      `At the operating temperature even a pre-charge at the ambient pressure reaches the maximum working pressure (${formatPressure(input.maxPressure)}).`,
+      'maxPressure',
+    )
+  }
+  let skipped: EngineInputError | undefined
   const probe = (pa: number): { si?: SiConditions, usable: number } => {
     try {
       const si = toSi({ ...input, precharge: { value: pa / 1000, unit: 'kPa', basis: 'absolute' } })
       return { si, usable: sizeSi(si).usableFraction }
     }
     catch (error) {
-      // A pre-charge too high to take any fluid is simply a poor candidate.
-      if (error instanceof EngineInputError && error.field === 'precharge') return { usable: 0 }
-      throw error
+      if (!(error instanceof EngineInputError)) throw error
+      skipped ??= error
+      return { usable: Number.NEGATIVE_INFINITY }
     }
   }
-  const ambientPa = ambientPressure(input.ambient)
-  const maxPa = pressureToPascalAbsolute(input.maxPressure, ambientPa)
-  let low = Math.max(maxPa * 0.01, ambientPa * 1.01)
-  let high = maxPa * 0.9999
+  const steps = 240
+  const at = (index: number) => Math.exp(Math.log(lowPa) + ((Math.log(highPa) - Math.log(lowPa)) * index) / steps)
+  let bestIndex = -1
+  let bestUsable = Number.NEGATIVE_INFINITY
+  for (let index = 0; index <= steps; index++) {
+    const usable = probe(at(index)).usable
+    if (usable > bestUsable) {
+      bestUsable = usable
+      bestIndex = index
+    }
+  }
+  if (bestIndex < 0) {
+    throw new EngineInputError(
+      `No pre-charge gives a state this method can compute: ${skipped?.message ?? 'check the limits.'}`,
+      skipped?.field ?? 'minPressure',
+    )
+  }
+  let low = at(Math.max(0, bestIndex - 1))
+  let high = at(Math.min(steps, bestIndex + 1))
   const ratio = (Math.sqrt(5) - 1) / 2
-  let a = high - ratio * (high - low)
-  let b = low + ratio * (high - low)
-  let fa = probe(a).usable
-  let fb = probe(b).usable
-  for (let iteration = 0; iteration < 90 && high - low > 1e-9 * maxPa; iteration++) {
-    if (fa < fb) {
-      low = a
-      a = b
-      fa = fb
-      b = low + ratio * (high - low)
-      fb = probe(b).usable
-    }
-    else {
-      high = b
-      b = a
-      fb = fa
-      a = high - ratio * (high - low)
-      fa = probe(a).usable
-    }
+  for (let iteration = 0; iteration < 100 && high - low > 1e-10 * high; iteration++) {
+    const a = high - ratio * (high - low)
+    const b = low + ratio * (high - low)
+    if (probe(a).usable < probe(b).usable) low = a
+    else high = b
   }
-  const bestPa = (low + high) / 2
-  const best = probe(bestPa)
+  let bestPa = (low + high) / 2
+  let best = probe(bestPa)
+  if (!(best.usable >= bestUsable)) {
+    bestPa = at(bestIndex)
+    best = probe(bestPa)
+  }
   const gasM3 = volumeToCubicMetres(input.gasVolume)
+  const show = (pa: number) => pascalAbsoluteToPressure(pa, like.unit, like.basis, ambientPa)
+  const outcome = sizeSi(best.si!)
+  const atBound = bestIndex === 0 || bestIndex === steps
+  const warnings: string[] = []
+  const precharge = show(bestPa)
+  if (atBound) {
+    warnings.push(
+      `The best pre-charge lies at the ${bestIndex === 0 ? 'lower' : 'upper'} end of the feasible range (${formatPressure(show(bestIndex === 0 ? lowPa : highPa))}): the usable volume may go on ${bestIndex === 0 ? 'rising below' : 'rising above'} it.`,
+    )
+  }
+  const maxPa = pressureToPascalAbsolute(input.maxPressure, ambientPa)
+  if (bestPa >= maxPa) {
+    warnings.push(
+      `At the pre-charge temperature the best pre-charge (${formatPressure(precharge)}) is at or above the maximum working pressure (${formatPressure(input.maxPressure)}); it is lower only at the operating temperature. Charging that high needs the unit's rated limits.`,
+    )
+  }
+  if (skipped) warnings.push(`Some trial pre-charges could not be computed and were skipped: ${skipped.message}`)
   return {
-    precharge: pascalAbsoluteToPressure(bestPa, like.unit, like.basis, ambientPa),
+    precharge,
+    prechargeAtOperatingTemperature: pascalAbsoluteToPressure(outcome.operating.pressure, like.unit, like.basis, ambientPa),
     usableVolume: cubicMetresToVolume(best.usable * gasM3, input.gasVolume.unit),
+    searched: { low: show(lowPa), high: show(highPa) },
+    atBound,
+    warnings,
     inputs: input,
-    method: `golden-section search of the usable volume over the pre-charge; ${best.si ? methodText(best.si, input.ambient) : ''}`,
+    method: `the usable volume over every feasible pre-charge (judged at the operating temperature), scanned and refined by golden-section search; ${methodText(best.si!, input.ambient)}`,
     engineVersion: ENGINE_VERSION,
   }
 }
@@ -336,12 +405,16 @@ export interface EnvelopeResult extends Provenance<EnvelopeInput> {
 /** The usable-volume calculation at each temperature of an envelope (cold soak, standard day, hot day …). */
 export function usableVolumeEnvelope(input: EnvelopeInput): EnvelopeResult {
   const { temperatures, ...rest } = input
-  const rows = temperatures.map(({ label, temperature }) => {
+  const rows = temperatures.map(({ label, temperature }, index) => {
     try {
       return { label, temperature, result: usableVolume({ ...rest, operatingTemperature: temperature }) }
     }
     catch (error) {
-      if (error instanceof EngineInputError) return { label, temperature, error: error.message, field: error.field }
+      // The row's temperature is sent as temperatures[i].temperature, not as an operating temperature.
+      const field = error instanceof EngineInputError && error.field === 'operatingTemperature'
+        ? `temperatures.${index}.temperature`
+        : (error as EngineInputError).field
+      if (error instanceof EngineInputError) return { label, temperature, error: error.message, field }
       throw error
     }
   })
@@ -460,24 +533,28 @@ export interface PrechargeSweepResult extends Provenance<PrechargeSweepInput> {
   optimum: { precharge: Pressure, usableVolume: Volume }
 }
 
-/** Usable volume against pre-charge (pre-charge from 20 % to 100 % of the maximum), with the optimum marked. */
+/**
+ * Usable volume against pre-charge, from 20 % of the maximum working pressure to the highest pre-charge that
+ * still lets fluid in at the operating temperature, with the optimum marked.
+ */
 export function prechargeSweep(input: PrechargeSweepInput): PrechargeSweepResult {
   const count = input.points ?? 50
   if (!(count >= 2 && count <= 500)) throw new EngineInputError('A sweep needs between 2 and 500 points.', 'points')
   const like = input.prechargeUnit ?? input.minPressure
-  const ambientPa = ambientPressure(input.ambient)
+  const { lowPa, highPa, ambientPa } = feasiblePrecharges(input)
   const maxPa = pressureToPascalAbsolute(input.maxPressure, ambientPa)
+  const fromPa = Math.max(lowPa, Math.min(0.2 * maxPa, 0.2 * highPa))
   const precharge: number[] = []
   const usable: number[] = []
   for (let i = 0; i < count; i++) {
-    const pa = maxPa * (0.2 + (0.8 * i) / (count - 1)) * (i === count - 1 ? 0.999 : 1)
+    const pa = fromPa + ((highPa - fromPa) * i) / (count - 1)
     const stated = pascalAbsoluteToPressure(pa, like.unit, like.basis, ambientPa)
     precharge.push(stated.value)
     try {
       usable.push(usableVolume({ ...input, precharge: stated }).usableVolume.value)
     }
     catch (error) {
-      if (!(error instanceof EngineInputError && error.field === 'precharge')) throw error
+      if (!(error instanceof EngineInputError)) throw error
       usable.push(0)
     }
   }

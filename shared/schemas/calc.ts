@@ -5,6 +5,7 @@ import {
   gasModelSchema,
   intervalSchema,
   numberField,
+  pressureBasisSchema,
   pressureSchema,
   pressureUnitSchema,
   processSchema,
@@ -13,6 +14,7 @@ import {
   volumeSchema,
   volumeUnitSchema,
 } from './quantities'
+import { VOLUME_UNITS, type VolumeUnit } from '../gas/types'
 
 /**
  * Bodies of the calculation API (see the team's CALC-API contract), shared by pages and routes.
@@ -95,7 +97,8 @@ export const requiredVolumeSchema = calculationBody({
 
 export const optimumPrechargeSchema = calculationBody({
   ...sizingConditions,
-  precharge: pressureSchema.optional(),
+  precharge: z.undefined({ invalid_type_error: 'This route finds the pre-charge: leave `precharge` out (give `prechargeUnit` for the unit of the answer).' }).optional(),
+  prechargeUnit: z.object({ unit: pressureUnitSchema, basis: pressureBasisSchema }).strict().optional(),
   gasVolume: volumeSchema,
 })
 
@@ -108,6 +111,9 @@ export const envelopeSchema = calculationBody({
     .min(1, 'Give at least one temperature.')
     .max(12, 'At most 12 temperatures.'),
 })
+
+const FLOW_RATE_UNITS = VOLUME_UNITS.flatMap(unit => (['s', 'min', 'h'] as const).map(per => `${unit}/${per}` as const)) as unknown as
+  readonly [`${VolumeUnit}/${'s' | 'min' | 'h'}`, ...`${VolumeUnit}/${'s' | 'min' | 'h'}`[]]
 
 const cycleConditions = {
   gasVolume: volumeSchema,
@@ -125,10 +131,11 @@ export type LeakRateBody = z.infer<typeof leakRateSchema>
 
 export const leakIntervalSchema = calculationBody({
   ...cycleConditions,
+  // As leak-rate answers it ({ value, unit: "in3/min" }), or per second or hour.
   leakRate: z.object({
     value: numberField('a leak rate').positive('The leak rate must be above zero.'),
-    unit: volumeUnitSchema,
-  }),
+    unit: z.enum(FLOW_RATE_UNITS, { errorMap: () => ({ message: `Leak rate unit must be a volume per time, one of: ${FLOW_RATE_UNITS.join(', ')} (leak-rate answers per minute).` }) }),
+  }).strict(),
   intervalUnit: z.enum(['s', 'min', 'h']).optional(),
 })
 
@@ -149,6 +156,7 @@ export const settleForecastSchema = calculationBody({
   }).strict(), { required_error: 'Give the readings taken while the gas settles.' }).min(2, 'Two readings at least.').max(60),
   timeConstantMinutes: numberField('a time constant in minutes').positive().max(1440).optional(),
   readingUncertainty: numberField('the reading uncertainty').nonnegative().optional(),
+  resolution: numberField('the gauge resolution').positive('A resolution is above zero.').optional(),
   band: z.object({ low: pressureSchema, high: pressureSchema }).strict().optional(),
 })
 export type SettleForecastBody = z.infer<typeof settleForecastSchema>

@@ -24,6 +24,8 @@ export interface ToolSnapshot {
   calibrationDue: string | null
   /** ± accuracy in a pressure unit, as carried into the verdict (gauges only). */
   accuracy?: { value: number, unit: Pressure['unit'] }
+  /** The smallest step the gauge shows (gauges only; worksheets from 2026-12 on). */
+  resolution?: { value: number, unit: Pressure['unit'] }
 }
 
 /** What the performer entered, step by step. Times are ISO strings stamped by the server. */

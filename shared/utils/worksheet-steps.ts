@@ -45,6 +45,7 @@ export type StepTool = Pick<
   | 'calibrationDue'
   | 'rangeMax'
   | 'rangeUnit'
+  | 'resolution'
   | 'accuracy'
   | 'accuracyUnit'
 >
@@ -99,6 +100,7 @@ export function toolSnapshot(
     description: tool.description,
     calibrationDue: tool.calibrationDue,
     ...(accuracy ? { accuracy } : {}),
+    ...(kind === 'gauge' && tool.resolution && tool.rangeUnit ? { resolution: { value: tool.resolution, unit: tool.rangeUnit } } : {}),
   }
 }
 

@@ -52,7 +52,7 @@ const routes: [string, object][] = [
   ['assess-reading', { reading: psig(900), target: psig(930), low: psig(880), high: psig(980) }],
   ['usable-volume', sizing],
   ['required-volume', { ...withoutGasVolume(sizing), applications: 6 }],
-  ['optimum-precharge', sizing],
+  ['optimum-precharge', (({ precharge: _precharge, ...rest }) => rest)(sizing)],
   [
     'envelope',
     {
@@ -64,7 +64,7 @@ const routes: [string, object][] = [
     },
   ],
   ['leak-rate', { ...cycle, interval: { value: 4, unit: 'min' } }],
-  ['leak-interval', { ...cycle, leakRate: { value: 2, unit: 'in3' } }],
+  ['leak-interval', { ...cycle, leakRate: { value: 2, unit: 'in3/min' } }],
 ]
 
 describe.each(routes)('POST /api/calc/%s', (name, body) => {
@@ -256,5 +256,102 @@ describe('the settled-pressure forecast', () => {
     expect((await api('/api/calc/settle-forecast', { cookie, body: { readings: readings.slice(0, 2) } })).status).toBe(
       422,
     )
+  })
+})
+
+describe('an API that fits together', () => {
+  it('the leak rate leak-rate answers is taken as it is by leak-interval, and gives back the interval', async () => {
+    const rate = await api('/api/calc/leak-rate', { cookie, body: { ...cycle, interval: { value: 4, unit: 'min' } } })
+    expect(rate.status).toBe(200)
+    expect(rate.body.leakRate.unit).toBe('in3/min')
+    const back = await api('/api/calc/leak-interval', { cookie, body: { ...cycle, leakRate: rate.body.leakRate } })
+    expect(back.status, JSON.stringify(back.body)).toBe(200)
+    expect(back.body.interval.value).toBeCloseTo(4, 8)
+    const bare = await api('/api/calc/leak-interval', { cookie, body: { ...cycle, leakRate: { value: 2, unit: 'in3' } } })
+    expect(bare.status).toBe(400)
+    expect(bare.body.data.issues[0].field).toBe('leakRate.unit')
+    expect(bare.body.data.issues[0].message).toMatch(/volume per time/)
+  })
+
+  it('refuses 0 °C and 32 °F in one table as the same temperature, naming the later point; the method keeps each unit', async () => {
+    const answer = await api('/api/calc/table-target', {
+      cookie,
+      body: {
+        points: [
+          { temperature: celsius(0), pressure: psig(930) },
+          { temperature: celsius(40), pressure: psig(1070) },
+          { temperature: { value: 32, unit: 'F' }, pressure: psig(931) },
+        ],
+        gasTemperature: celsius(10),
+      },
+    })
+    expect(answer.status).toBe(422)
+    expect(answer.body.data.field).toBe('points.2.temperature')
+    expect(answer.body.message).toMatch(/points 1 \(0\.0 °C\) and 3 \(32\.0 °F\) are the same temperature/)
+    const mixed = await api('/api/calc/table-target', {
+      cookie,
+      body: {
+        points: [
+          { temperature: celsius(0), pressure: psig(930) },
+          { temperature: { value: 104, unit: 'F' }, pressure: psig(1070) },
+        ],
+        gasTemperature: celsius(10),
+      },
+    })
+    expect(mixed.status).toBe(200)
+    expect(mixed.body.method).toMatch(/between 0\.0 °C and 104\.0 °F/)
+  })
+
+  it('optimum-precharge refuses a pre-charge it would ignore, and takes the unit of its answer', async () => {
+    const refused = await api('/api/calc/optimum-precharge', { cookie, body: sizing })
+    expect(refused.status).toBe(400)
+    expect(refused.body.data.issues[0].field).toBe('precharge')
+    const { precharge: _precharge, ...rest } = sizing
+    const answer = await api('/api/calc/optimum-precharge', { cookie, body: { ...rest, prechargeUnit: { unit: 'bar', basis: 'gauge' } } })
+    expect(answer.status).toBe(200)
+    expect(answer.body.precharge.unit).toBe('bar')
+    expect(answer.body.atBound).toBe(false)
+    expect(answer.body.searched.high.value).toBeGreaterThan(answer.body.precharge.value)
+  })
+
+  it('usable-volume and optimum-precharge judge the pre-charge at the operating temperature alike', async () => {
+    const cold = { ...sizing, precharge: psig(3050), operatingTemperature: celsius(-54), minPressure: psig(1800) }
+    const usable = await api('/api/calc/usable-volume', { cookie, body: cold })
+    expect(usable.status, JSON.stringify(usable.body)).toBe(200)
+    const { precharge: _precharge, ...rest } = cold
+    const optimum = await api('/api/calc/optimum-precharge', { cookie, body: rest })
+    expect(optimum.status).toBe(200)
+    expect(optimum.body.precharge.value).toBeGreaterThan(3000)
+    expect(optimum.body.warnings.join(' ')).toMatch(/at or above the maximum working pressure/)
+  })
+
+  it('an envelope row names its own temperature, as sent, and every 422 names a field', async () => {
+    const envelope = await api('/api/calc/envelope', {
+      cookie,
+      body: { ...sizing, temperatures: [{ label: 'Hot', temperature: celsius(50) }, { label: 'Too cold', temperature: celsius(-200) }] },
+    })
+    expect(envelope.status).toBe(200)
+    expect(envelope.body.rows[1].field).toBe('temperatures.1.temperature')
+    const deep = await api('/api/calc/usable-volume', {
+      cookie,
+      body: { ...sizing, precharge: psig(30), maxPressure: psig(5000), minPressure: psig(100), charge: 'adiabatic', prechargeTemperature: celsius(71) },
+    })
+    expect(deep.status).toBe(422)
+    expect(deep.body.data.field).toEqual(expect.any(String))
+  })
+
+  it('a mixed gauge/absolute forecast names the reading as it was sent', async () => {
+    const answer = await api('/api/calc/settle-forecast', {
+      cookie,
+      body: {
+        readings: [
+          { minutesAfter: 9, pressure: psig(1000) },
+          { minutesAfter: 1, pressure: { value: 1015, unit: 'psi', basis: 'absolute' } },
+          { minutesAfter: 5, pressure: psig(1005) },
+        ],
+      },
+    })
+    expect(answer.status).toBe(422)
+    expect(answer.body.data.field).toBe('readings.1.pressure.basis')
   })
 })

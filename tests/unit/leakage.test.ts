@@ -20,15 +20,13 @@ describe('leak rate from the cut-out → cut-in interval', () => {
     expect(result.leakRate).toEqual({ value: expect.closeTo(1.33333, 4), unit: 'in3/min' })
   })
 
-  it('the interval for a leak rate inverts it', () => {
+  it('the interval for a leak rate inverts it: the rate leak-rate answers is what leak-interval takes', () => {
     const rate = leakRate({ ...cycle, model: 'real', interval: { value: 300, unit: 's' } })
-    const back = leakInterval({
-      ...cycle,
-      model: 'real',
-      leakRate: { value: rate.leakRate.value, unit: 'in3' },
-      intervalUnit: 's',
-    })
+    const back = leakInterval({ ...cycle, model: 'real', leakRate: rate.leakRate, intervalUnit: 's' })
     expect(back.interval.value).toBeCloseTo(300, 8)
+    // The same rate per hour gives the same interval.
+    const perHour = leakInterval({ ...cycle, model: 'real', leakRate: { value: rate.leakRate.value * 60, unit: 'in3/h' } })
+    expect(perHour.interval.value).toBeCloseTo(5, 8)
   })
 
   it('refuses cut-in above cut-out and a pre-charge above cut-out', () => {

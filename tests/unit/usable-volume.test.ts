@@ -63,7 +63,7 @@ describe('usable volume, ideal gas', () => {
 
   it('refuses impossible limits', () => {
     expect(() => usableVolume({ ...textbook, minPressure: psia(3500) })).toThrow(/must be below the maximum/)
-    expect(() => usableVolume({ ...textbook, precharge: psia(3200) })).toThrow(/at or above the maximum/)
+    expect(() => usableVolume({ ...textbook, precharge: psia(3200) })).toThrow(/reaches the maximum working pressure/)
   })
 })
 
@@ -121,6 +121,82 @@ describe('inverse and optimum', () => {
   it('with adiabatic discharge it is p_max·(p_min/p_max)^(1/1.4)', () => {
     const result = optimumPrecharge(textbook)
     expect(result.precharge.value).toBeCloseTo(3000 * (2 / 3) ** (1 / 1.4), 3)
+    expect(result.atBound).toBe(false)
+  })
+
+  it('matches a brute-force search over pre-charges, across processes and temperatures (real gas)', () => {
+    // Brute force: the usable-volume calculation itself at 3,000 pre-charges from 1 % of the maximum pressure to
+    // three times it, skipping those it refuses (no fluid enters, or a state outside the equation of state).
+    const base = {
+      gasVolume: { value: 100, unit: 'in3' as const },
+      prechargeTemperature: { value: 21, unit: 'C' as const },
+      maxPressure: psig(3000),
+      minPressure: psig(1800),
+      model: 'real' as const,
+    }
+    const processes = [
+      { charge: 'isothermal' as const, discharge: 'isothermal' as const },
+      { charge: 'isothermal' as const, discharge: 'adiabatic' as const },
+      { charge: 'adiabatic' as const, discharge: 'adiabatic' as const },
+      { charge: { n: 1.2 }, discharge: { n: 1.3 } },
+    ]
+    for (const process of processes) {
+      for (const operating of [-54, 21, 71]) {
+        const conditions = { ...base, ...process, operatingTemperature: { value: operating, unit: 'C' as const } }
+        const optimum = optimumPrecharge(conditions)
+        let best = { precharge: 0, usable: -1 }
+        for (let step = 1; step <= 3000; step++) {
+          const precharge = psig(3000 * 0.01 + (step / 3000) * 6000)
+          let usable: number
+          try {
+            usable = usableVolume({ ...conditions, precharge }).usableVolume.value
+          }
+          catch {
+            continue
+          }
+          if (usable > best.usable) best = { precharge: precharge.value, usable }
+        }
+        const label = `${JSON.stringify(process)} at ${operating} °C`
+        expect(optimum.usableVolume.value, label).toBeGreaterThanOrEqual(best.usable - 1e-9)
+        expect(Math.abs(optimum.precharge.value - best.precharge), label).toBeLessThanOrEqual(2)
+        // The route agrees with itself: usable volume at the optimum pre-charge is the optimum's volume.
+        expect(usableVolume({ ...conditions, precharge: optimum.precharge }).usableVolume.value, label)
+          .toBeCloseTo(optimum.usableVolume.value, 6)
+      }
+    }
+  })
+
+  it('judges the pre-charge at the operating temperature in both routes, and searches beyond the maximum when cold', () => {
+    // 100 in³, pre-charged at 21 °C, working at −54 °C between 3000 and 1800 psig: at −54 °C the gas of a
+    // 3050 psig pre-charge sits far below 3000 psig, so fluid enters; the optimum lies above 3000 psig at 21 °C.
+    const cold = {
+      gasVolume: { value: 100, unit: 'in3' as const },
+      prechargeTemperature: { value: 21, unit: 'C' as const },
+      operatingTemperature: { value: -54, unit: 'C' as const },
+      maxPressure: psig(3000),
+      minPressure: psig(1800),
+    }
+    expect(usableVolume({ ...cold, precharge: psig(3050) }).usableVolume.value).toBeGreaterThan(0)
+    const optimum = optimumPrecharge(cold)
+    expect(optimum.precharge.value).toBeGreaterThan(3000)
+    expect(optimum.prechargeAtOperatingTemperature.value).toBeLessThan(3000)
+    expect(optimum.atBound).toBe(false)
+    expect(optimum.warnings.join(' ')).toMatch(/at or above the maximum working pressure/)
+    expect(optimum.searched.high.value).toBeGreaterThan(optimum.precharge.value)
+  })
+
+  it('skips a trial pre-charge the method cannot compute instead of refusing the request', () => {
+    // Adiabatic charge and discharge between 5000 and 100 psig at 71 °C: deep expansions from low pre-charges
+    // cool the gas below the equation of state's range (−143 °C).
+    const result = optimumPrecharge({
+      gasVolume: { value: 100, unit: 'in3' },
+      prechargeTemperature: { value: 71, unit: 'C' },
+      maxPressure: psig(5000),
+      minPressure: psig(100),
+      charge: 'adiabatic',
+    })
+    expect(result.usableVolume.value).toBeGreaterThan(0)
+    expect(result.warnings.join(' ')).toMatch(/skipped/)
   })
 })
 

@@ -5,5 +5,5 @@ import { assessReading } from '#shared/gas/charge-target'
 export default defineEventHandler(async (event) => {
   await requireAbility(event, 'calculation.run')
   const body = await readValidatedBody(event, validateWith(assessReadingSchema))
-  return runEngine(() => assessReading(body))
+  return runEngine(() => assessReading(body), 'reading')
 })

@@ -5,5 +5,5 @@ import { chargeTarget } from '#shared/gas/charge-target'
 export default defineEventHandler(async (event) => {
   await requireAbility(event, 'calculation.run')
   const body = await readValidatedBody(event, validateWith(chargeTargetSchema))
-  return runEngine(() => chargeTarget(body))
+  return runEngine(() => chargeTarget(body), 'gasTemperature')
 })

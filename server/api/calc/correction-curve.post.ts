@@ -5,5 +5,5 @@ import { correctionCurve } from '#shared/gas/charge-target'
 export default defineEventHandler(async (event) => {
   await requireAbility(event, 'calculation.run')
   const body = await readValidatedBody(event, validateWith(correctionCurveSchema))
-  return runEngine(() => correctionCurve(body))
+  return runEngine(() => correctionCurve(body), 'from')
 })

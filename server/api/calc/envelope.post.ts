@@ -5,5 +5,5 @@ import { usableVolumeEnvelope } from '#shared/gas/usable-volume'
 export default defineEventHandler(async (event) => {
   await requireAbility(event, 'calculation.run')
   const body = await readValidatedBody(event, validateWith(envelopeSchema))
-  return runEngine(() => usableVolumeEnvelope(body))
+  return runEngine(() => usableVolumeEnvelope(body), 'temperatures')
 })

@@ -5,5 +5,5 @@ import { leakInterval } from '#shared/gas/leakage'
 export default defineEventHandler(async (event) => {
   await requireAbility(event, 'calculation.run')
   const body = await readValidatedBody(event, validateWith(leakIntervalSchema))
-  return runEngine(() => leakInterval(body))
+  return runEngine(() => leakInterval(body), 'temperature')
 })

@@ -5,5 +5,5 @@ import { leakRate } from '#shared/gas/leakage'
 export default defineEventHandler(async (event) => {
   await requireAbility(event, 'calculation.run')
   const body = await readValidatedBody(event, validateWith(leakRateSchema))
-  return runEngine(() => leakRate(body))
+  return runEngine(() => leakRate(body), 'temperature')
 })

@@ -5,5 +5,5 @@ import { optimumPrecharge } from '#shared/gas/usable-volume'
 export default defineEventHandler(async (event) => {
   await requireAbility(event, 'calculation.run')
   const body = await readValidatedBody(event, validateWith(optimumPrechargeSchema))
-  return runEngine(() => optimumPrecharge(body))
+  return runEngine(() => optimumPrecharge(body), 'maxPressure')
 })

@@ -5,5 +5,5 @@ import { requiredVolume } from '#shared/gas/usable-volume'
 export default defineEventHandler(async (event) => {
   await requireAbility(event, 'calculation.run')
   const body = await readValidatedBody(event, validateWith(requiredVolumeSchema))
-  return runEngine(() => requiredVolume(body))
+  return runEngine(() => requiredVolume(body), 'precharge')
 })

@@ -8,5 +8,5 @@ import { settleForecastSchema } from '#shared/schemas/calc'
 export default defineEventHandler(async (event) => {
   await requireAbility(event, 'calculation.run')
   const body = await readValidatedBody(event, validateWith(settleForecastSchema))
-  return runEngine(() => forecastSettledPressure(body))
+  return runEngine(() => forecastSettledPressure(body), 'readings')
 })

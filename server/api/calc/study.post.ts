@@ -5,5 +5,5 @@ import { computeStudy } from '#shared/utils/study'
 export default defineEventHandler(async (event) => {
   await requireAbility(event, 'calculation.run')
   const body = await readValidatedBody(event, validateWith(studyInputSchema))
-  return runEngine(() => computeStudy(body))
+  return runEngine(() => computeStudy(body), 'precharge')
 })

@@ -5,5 +5,5 @@ import { chargeTargetFromTable } from '#shared/gas/charge-target'
 export default defineEventHandler(async (event) => {
   await requireAbility(event, 'calculation.run')
   const body = await readValidatedBody(event, validateWith(tableTargetSchema))
-  return runEngine(() => chargeTargetFromTable(body))
+  return runEngine(() => chargeTargetFromTable(body), 'gasTemperature')
 })

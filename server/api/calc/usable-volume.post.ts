@@ -5,5 +5,5 @@ import { usableVolume } from '#shared/gas/usable-volume'
 export default defineEventHandler(async (event) => {
   await requireAbility(event, 'calculation.run')
   const body = await readValidatedBody(event, validateWith(usableVolumeSchema))
-  return runEngine(() => usableVolume(body))
+  return runEngine(() => usableVolume(body), 'precharge')
 })
