@@ -82,5 +82,13 @@ export function useWorksheetStepForm<Body extends WorksheetStepBody>(
     }
   })
 
-  return { ...form, save, status, message, confirmation }
+  /** Clears a refusal that no longer holds (the settle time has run out since the server refused). */
+  function clearRefusal() {
+    if (status.value !== 'error') return
+    status.value = 'idle'
+    message.value = null
+    form.setErrors(Object.fromEntries(Object.keys(form.errors.value).map(path => [path, undefined])))
+  }
+
+  return { ...form, save, status, message, confirmation, clearRefusal }
 }

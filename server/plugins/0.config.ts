@@ -1,8 +1,12 @@
 /**
- * Refuses to start a production server without a session password: without one every
+ * Sets the station's figure locale; refuses to start a production server without a session password: without one every
  * sign-in would fail. Development (`nuxi dev`) writes one into .env by itself.
  */
+import { setStationLocale } from '#shared/gas/format'
+
 export default defineNitroPlugin(() => {
+  // Figures in messages, records and PDFs in the station's locale (shared/gas/format.ts).
+  setStationLocale(String(useRuntimeConfig().public.locale))
   if (import.meta.dev) return
   const password = useRuntimeConfig().session?.password ?? ''
   if (password.length < 32) {

@@ -11,7 +11,7 @@ export function runEngine<T>(calculation: () => T, fallbackField?: string): T {
   }
   catch (error) {
     if (isEngineInputError(error)) {
-      // A state-level refusal deep in the equation of state knows no request field: the route names the input to change.
+      // A refusal deep in the equation of state knows no request field: the route names the input to change.
       const field = error.field ?? fallbackField
       throw createError({ status: 422, statusMessage: 'Unprocessable Entity', message: error.message, data: { field, issues: field ? [{ path: field.split('.'), field, message: error.message }] : [] } })
     }

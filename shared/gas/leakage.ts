@@ -143,7 +143,8 @@ export interface LeakIntervalResult extends Provenance<LeakIntervalInput> {
 /** The cut-out to cut-in interval that a given leak rate (volume per minute) would give. */
 export function leakInterval(input: LeakIntervalInput): LeakIntervalResult {
   const [volumeUnit, per] = input.leakRate.unit.split('/') as [VolumeUnit, 's' | 'min' | 'h']
-  const perMinuteM3 = volumeToCubicMetres({ value: input.leakRate.value, unit: volumeUnit }) * { s: 60, min: 1, h: 1 / 60 }[per]
+  const perMinuteM3
+    = volumeToCubicMetres({ value: input.leakRate.value, unit: volumeUnit }) * { s: 60, min: 1, h: 1 / 60 }[per]
   if (!(perMinuteM3 > 0)) throw new EngineInputError('The leak rate must be above zero.', 'leakRate')
   const { releasedM3, warnings, method } = fluidBetweenCutOutAndCutIn(input)
   return {

@@ -43,7 +43,7 @@ export interface SettleForecast extends Provenance<SettleForecastInput> {
   timeConstantMinutes: number
   /** How the time constant was found. */
   fitted: 'three-point' | 'least-squares' | 'assumed-time-constant'
-  /** Against the band: in limits or outside it even at the edge of the uncertainty, otherwise undecided (too close to tell). */
+  /** Against the band: in limits or outside it even at the edge of the ±, otherwise undecided (too close to tell). */
   verdict?: SettleVerdict
   /** Minutes after the action when the reading will be within its uncertainty of the settled value. */
   settledAfterMinutes: number
@@ -205,8 +205,8 @@ export function forecastSettledPressure(input: SettleForecastInput): SettleForec
   const fitted: SettleForecast['fitted'] = readings.length === 2
     ? 'assumed-time-constant'
     : !prior && readings.length === 3 && Math.abs(times[2]! - 2 * times[1]! + times[0]!) < 1e-9
-      ? 'three-point'
-      : 'least-squares'
+        ? 'three-point'
+        : 'least-squares'
   if (readings.length === 2) {
     warnings.push(
       'Only two readings: the time constant is assumed, not measured. A third reading makes the forecast firmer.',

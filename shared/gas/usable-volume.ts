@@ -277,7 +277,7 @@ export interface OptimumPrechargeResult extends Provenance<OptimumPrechargeInput
   /** The same gas at the operating temperature. */
   prechargeAtOperatingTemperature: Pressure
   usableVolume: Volume
-  /** The pre-charges searched, at the pre-charge temperature: every one that lets fluid in at the operating temperature. */
+  /** The pre-charges searched (at the pre-charge temperature): every one that lets fluid in when operating. */
   searched: { low: Pressure, high: Pressure }
   /** True when the best lies at an end of the searched range (the usable volume may go on rising beyond it). */
   atBound: boolean
@@ -381,7 +381,8 @@ export function optimumPrecharge(input: OptimumPrechargeInput): OptimumPrecharge
   if (skipped) warnings.push(`Some trial pre-charges could not be computed and were skipped: ${skipped.message}`)
   return {
     precharge,
-    prechargeAtOperatingTemperature: pascalAbsoluteToPressure(outcome.operating.pressure, like.unit, like.basis, ambientPa),
+    prechargeAtOperatingTemperature:
+      pascalAbsoluteToPressure(outcome.operating.pressure, like.unit, like.basis, ambientPa),
     usableVolume: cubicMetresToVolume(best.usable * gasM3, input.gasVolume.unit),
     searched: { low: show(lowPa), high: show(highPa) },
     atBound,

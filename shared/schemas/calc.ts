@@ -12,7 +12,6 @@ import {
   temperatureSchema,
   toleranceSchema,
   volumeSchema,
-  volumeUnitSchema,
 } from './quantities'
 import { VOLUME_UNITS, type VolumeUnit } from '../gas/types'
 

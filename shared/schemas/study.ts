@@ -35,6 +35,12 @@ export const studyListQuerySchema = z.object({
   pageSize: z.coerce.number().int().min(1).max(100).default(25),
 })
 
+/** One condition's temperature on the Sizing page: empty is refused, never taken as zero. */
+export const conditionTemperatureSchema = z.number({
+  required_error: 'Enter the temperature of this condition.',
+  invalid_type_error: 'Enter the temperature of this condition as a number.',
+})
+
 /**
  * The Sizing page's form state: figures in the user's units, flat as the inputs hold them.
  * `toStudyInput` turns it into the body the API takes.
@@ -47,20 +53,20 @@ export const studyFormSchema = z.object({
   basis: z.enum(['gauge', 'absolute']),
   temperatureUnit: z.enum(['C', 'F']),
   volumeUnit: z.enum(['in3', 'L']),
-  gasVolume: z.number({ invalid_type_error: 'Enter the gas volume.' }).positive('The gas volume must be above zero.'),
-  precharge: z.number({ invalid_type_error: 'Enter the pre-charge.' }).positive('The pre-charge must be above zero.'),
-  prechargeTemperature: z.number({ invalid_type_error: 'Enter the pre-charge temperature.' }),
-  maxPressure: z.number({ invalid_type_error: 'Enter the maximum working pressure.' }).positive(),
-  minPressure: z.number({ invalid_type_error: 'Enter the minimum working pressure.' }).positive(),
-  perApplication: z.number({ invalid_type_error: 'Must be a number.' }).positive('Must be above zero.').optional(),
+  gasVolume: z.number({ required_error: 'Enter the gas volume.', invalid_type_error: 'Enter the gas volume.' }).positive('The gas volume must be above zero.'),
+  precharge: z.number({ required_error: 'Enter the pre-charge.', invalid_type_error: 'Enter the pre-charge.' }).positive('The pre-charge must be above zero.'),
+  prechargeTemperature: z.number({ required_error: 'Enter the pre-charge temperature.', invalid_type_error: 'Enter the pre-charge temperature.' }),
+  maxPressure: z.number({ required_error: 'Enter the maximum working pressure.', invalid_type_error: 'Enter the maximum working pressure.' }).positive(),
+  minPressure: z.number({ required_error: 'Enter the minimum working pressure.', invalid_type_error: 'Enter the minimum working pressure.' }).positive(),
+  perApplication: z.number({ required_error: 'Must be a number.', invalid_type_error: 'Must be a number.' }).positive('Must be above zero.').optional(),
   charge: z.enum(['isothermal', 'adiabatic', 'custom']),
   chargeExponent: z.number().min(1).max(2).optional(),
   discharge: z.enum(['isothermal', 'adiabatic', 'custom']),
   dischargeExponent: z.number().min(1).max(2).optional(),
   model: z.enum(['real', 'ideal']),
-  elevation: z.number({ invalid_type_error: 'Enter the field elevation.' }),
+  elevation: z.number({ required_error: 'Enter the field elevation.', invalid_type_error: 'Enter the field elevation.' }),
   elevationUnit: z.enum(['m', 'ft']),
-  envelope: z.array(z.object({ label: z.string().trim().min(1, 'Label it.').max(40), temperature: z.number({ invalid_type_error: 'Enter a temperature.' }) })).min(1).max(6),
+  envelope: z.array(z.object({ label: z.string().trim().min(1, 'Label it.').max(40), temperature: conditionTemperatureSchema })).min(1).max(6),
   inverseApplications: z.number().int().positive().max(1000).optional(),
 })
 export type StudyForm = z.infer<typeof studyFormSchema>

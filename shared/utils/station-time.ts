@@ -64,10 +64,11 @@ export function displayFormat(settings: DisplaySettings) {
       value && /^\d{4}-\d{2}-\d{2}/.test(value)
         ? formatter(locale, 'UTC', DATE).format(new Date(`${value.slice(0, 10)}T12:00:00Z`))
         : '—',
-    /** A plain figure with a fixed number of decimals, in the user's locale. */
+    /** A plain figure with a fixed number of decimals, in the station's locale, never grouped (as the engine's). */
     decimal: (value: number | null | undefined, decimals = 1) =>
       typeof value === 'number' && Number.isFinite(value)
-        ? numberFormat(locale, { minimumFractionDigits: decimals, maximumFractionDigits: decimals }).format(value)
+        ? numberFormat(locale, { minimumFractionDigits: decimals, maximumFractionDigits: decimals, useGrouping: false })
+            .format(value)
         : '—',
     /** A count: "100,000". */
     count: (value: number) => numberFormat(locale, { maximumFractionDigits: 0 }).format(value),

@@ -61,7 +61,7 @@ describe('Charge target page', () => {
     await page.goto('/charge-target')
     await page.getByRole('button', { name: 'By hand' }).click()
     await page.getByRole('group', { name: 'Gauge unit' }).getByRole('button', { name: 'bar' }).click()
-    await page.getByLabel('Reference pre-charge', { exact: true }).fill('100')
+    await page.getByLabel(/^Reference pre-charge/).fill('100')
     await page.getByLabel(/At temperature/).fill('20')
     await page.getByLabel('Tolerance −').fill('3')
     await page.getByLabel('Tolerance +').fill('3')
@@ -80,7 +80,7 @@ describe('Charge target page', () => {
     for (const temperature of ['-300', '150']) {
       await page.getByLabel(/Gas temperature/).fill(temperature)
       // The refusal is shown under the gas temperature; no target, band or plot remains from 15 °C.
-      await expect.poll(() => page.getByTestId('gas-temperature-error').innerText()).not.toBe('')
+      await expect.poll(() => page.getByTestId('gas-temperature-field').locator('.field-error').innerText()).not.toBe('')
       expect(await page.getByTestId('target-value').count()).toBe(0)
       expect(await page.getByTestId('band').count()).toBe(0)
       expect(await page.getByTestId('charge-chart').count()).toBe(0)
@@ -96,10 +96,10 @@ describe('Charge target page', () => {
     await expect.poll(() => page.getByTestId('charge-result').innerText()).toMatch(/Target at 12(\.0)? °C/i)
 
     await page.getByRole('button', { name: 'By hand' }).click()
-    await page.getByLabel('Reference pre-charge', { exact: true }).fill('1000')
+    await page.getByLabel(/^Reference pre-charge/).fill('1000')
     await page.getByLabel(/At temperature/).fill('21')
     await expect.poll(() => page.getByTestId('target-value').isVisible()).toBe(true)
-    await page.getByLabel('Reference pre-charge', { exact: true }).fill('99999')
+    await page.getByLabel(/^Reference pre-charge/).fill('99999')
     await expect.poll(() => page.getByTestId('charge-result').innerText()).not.toMatch(/Target at/i)
     expect(await page.getByTestId('target-value').count()).toBe(0)
     await page.context().close()

@@ -129,6 +129,8 @@ describe('the settled reading after a charge', () => {
 })
 
 describe('an honest forecast uncertainty', () => {
+  const series = (points: number[][]) =>
+    points.map(([minutesAfter, value]) => ({ minutesAfter: minutesAfter!, pressure: psig(value!) }))
   const onCurve = (minutes: number) => 1000 + 80 * Math.exp(-minutes / 4)
 
   it('readings exactly on the curve never widen the interval as they are added, whatever τ was expected', () => {
@@ -136,7 +138,8 @@ describe('an honest forecast uncertainty', () => {
     for (const expected of [2, 4, 8]) {
       let previous = Number.POSITIVE_INFINITY
       for (let count = 2; count <= 10; count++) {
-        const readings = Array.from({ length: count }, (_, index) => ({ minutesAfter: 1 + 2 * index, pressure: psig(onCurve(1 + 2 * index)) }))
+        const readings = Array.from({ length: count }, (_, index) =>
+          ({ minutesAfter: 1 + 2 * index, pressure: psig(onCurve(1 + 2 * index)) }))
         const forecast = forecastSettledPressure({ readings, timeConstantMinutes: expected, readingUncertainty: 2 })
         expect(forecast.uncertainty).toBeLessThanOrEqual(previous)
         expect(Math.abs(forecast.settled.value - 1000)).toBeLessThanOrEqual(forecast.uncertainty)
@@ -149,8 +152,10 @@ describe('an honest forecast uncertainty', () => {
     // By hand (Aitken): the steps −50 and −25 halve every 2 min, so τ = 2/ln 2 = 2.885 min and
     // p∞ = (1060·985 − 1010²)/(1060 + 985 − 2·1010) = 24000/25 = 960 psig. ∂p∞/∂p = (1, −4, 4), so with a
     // reading σ of 2 psi the 2σ interval is 2·2·√33 = 22.98 psi.
-    const readings = [[0.9, 1060], [2.9, 1010], [4.9, 985]].map(([minutesAfter, value]) => ({ minutesAfter: minutesAfter!, pressure: psig(value!) }))
-    const two = forecastSettledPressure({ readings: readings.slice(0, 2), timeConstantMinutes: 4, readingUncertainty: 2 })
+    const readings = series([[0.9, 1060], [2.9, 1010], [4.9, 985]])
+    const two = forecastSettledPressure({
+      readings: readings.slice(0, 2), timeConstantMinutes: 4, readingUncertainty: 2,
+    })
     const three = forecastSettledPressure({ readings, timeConstantMinutes: 4, readingUncertainty: 2 })
     expect(three.uncertainty).toBeLessThan(two.uncertainty)
     const alone = forecastSettledPressure({ readings, readingUncertainty: 2 })
@@ -159,10 +164,10 @@ describe('an honest forecast uncertainty', () => {
     expect(alone.uncertainty).toBeCloseTo(2 * 2 * Math.sqrt(33), 2)
   })
 
-  it('rounded readings with no stated accuracy are never ±0: the default gauge sets σ and the verdict is too close to tell', () => {
+  it('rounded readings with no stated accuracy are never ±0: a default gauge sets σ; the verdict is too close to tell', () => {
     // Truth 1000 psig, τ = 4 min, rounded to 1 psi: 1078, 1047, 1029 psig at 1, 3, 5 min. The band 1001–1100 psig
     // excludes the truth; three readings leave no residual to estimate the scatter from.
-    const readings = [[1, 1078], [3, 1047], [5, 1029]].map(([minutesAfter, value]) => ({ minutesAfter: minutesAfter!, pressure: psig(value!) }))
+    const readings = series([[1, 1078], [3, 1047], [5, 1029]])
     const forecast = forecastSettledPressure({ readings, band: { low: psig(1001), high: psig(1100) } })
     expect(forecast.readingSigma.source).toBe('default')
     expect(forecast.readingSigma.value).toBeCloseTo(10.78, 2)
