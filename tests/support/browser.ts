@@ -36,7 +36,9 @@ export function waitForHydration(page: Page): Page {
 export async function signedInPage(
   browser: Browser, email: string, password = 'chargewell-demo', options: { locale?: string } = {},
 ): Promise<Page> {
-  const context = await browser.newContext({ baseURL: baseURL(), viewport: { width: 1180, height: 820 }, locale: options.locale })
+  const context = await browser.newContext({
+    baseURL: baseURL(), viewport: { width: 1180, height: 820 }, locale: options.locale,
+  })
   const page = waitForHydration(await context.newPage())
   // When a test fails, say what the browser saw go wrong (answers of 400 and up, console errors).
   const trouble: string[] = []
