@@ -12,6 +12,8 @@ export interface QuantityEntryOptions {
   min?: MaybeRefOrGetter<QuantityLimit | undefined>
   max?: MaybeRefOrGetter<QuantityLimit | undefined>
   decimals?: MaybeRefOrGetter<number | undefined>
+  /** Empty is `null` (a figure that can be cleared) instead of `undefined` (not given). */
+  nullable?: MaybeRefOrGetter<boolean | undefined>
 }
 
 /** The locale a person types in: the browser's, on the server the station's (nothing is typed there). */
@@ -25,19 +27,20 @@ function typingLocale(): string {
  * from it), and the problem to show on the field. When the unit changes with the number unchanged,
  * the number is converted — the physical quantity stays, the figure on screen follows the unit.
  */
-export function useQuantityEntry(model: Ref<number | undefined>, options: QuantityEntryOptions) {
+export function useQuantityEntry(model: Ref<number | null | undefined>, options: QuantityEntryOptions) {
   const kind = computed(() => toValue(options.kind))
   const unit = computed(() => toValue(options.unit))
   const format = (value: number | undefined, inUnit = unit.value) =>
     formatEntry(value, kind.value, inUnit, getStationLocale(), toValue(options.decimals))
-  const text = ref(format(model.value))
+  const text = ref(format(model.value ?? undefined))
   const problem = ref<string | null>(null)
   /** What this field last gave the form: a change of the model to anything else came from outside. */
-  let given: number | undefined = model.value
+  let given: number | null | undefined = model.value
 
   function give(value: number | undefined) {
-    given = value
-    model.value = value
+    const held = value === undefined && toValue(options.nullable) ? null : value
+    given = held
+    model.value = held
   }
 
   function check(value: number): string | null {
@@ -75,12 +78,14 @@ export function useQuantityEntry(model: Ref<number | undefined>, options: Quanti
   watch(sources, ([value, next, min, max], [, previous, oldMin, oldMax]) => {
     if (!Object.is(value, given)) {
       given = value
-      if (value === undefined || Number.isFinite(value)) {
-        text.value = format(value)
-        problem.value = value === undefined ? null : check(value)
+      if (value === undefined || value === null || Number.isFinite(value)) {
+        text.value = format(value ?? undefined)
+        problem.value = value === undefined || value === null ? null : check(value)
         // The form holds what the field shows, so every figure is one for the inputs on screen.
-        const shown = value === undefined ? undefined : entryValue(value, kind.value, next, toValue(options.decimals))
-        if (shown !== value) give(shown)
+        if (typeof value === 'number') {
+          const shown = entryValue(value, kind.value, next, toValue(options.decimals))
+          if (shown !== value) give(shown)
+        }
       }
       return
     }

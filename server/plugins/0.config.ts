@@ -3,10 +3,13 @@
  * sign-in would fail. Development (`nuxi dev`) writes one into .env by itself.
  */
 import { setStationLocale } from '#shared/gas/format'
+import { setStationDisplay } from '#shared/utils/station-time'
 
 export default defineNitroPlugin(() => {
   // Figures in messages, records and PDFs in the station's locale (shared/gas/format.ts).
-  setStationLocale(String(useRuntimeConfig().public.locale))
+  const { locale, stationTimeZone } = useRuntimeConfig().public
+  setStationLocale(String(locale))
+  setStationDisplay({ locale: String(locale), timeZone: String(stationTimeZone) })
   if (import.meta.dev) return
   const password = useRuntimeConfig().session?.password ?? ''
   if (password.length < 32) {

@@ -1,3 +1,4 @@
+import { stationDisplay } from '#shared/utils/station-time'
 import { createHash } from 'node:crypto'
 import { Op, UniqueConstraintError } from 'sequelize'
 import type { OfflineWorksheetBody } from '#shared/schemas/worksheet'
@@ -115,7 +116,8 @@ function boundedTimes(body: OfflineWorksheetBody, receivedAt: number, conflicts:
     Number.isNaN(time) ? earliest : Math.min(Math.max(time, earliest), receivedAt)
   const said = (what: string, claim: string, problem: string, used: number) =>
     conflicts.push(
-      `The device's clock: ${what} is dated ${claim}, which ${problem}. It was taken as ${new Date(used).toISOString()} `
+      `The device's clock: ${what} is dated ${Number.isNaN(Date.parse(claim)) ? claim : stationDisplay().dateTime(claim)}, `
+      + `which ${problem}. It was taken as ${stationDisplay().dateTime(new Date(used))} `
       + '(the server\'s time); check the device\'s clock and the readings\' times.',
     )
   const startClaim = Date.parse(body.startedAt)

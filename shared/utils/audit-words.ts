@@ -1,3 +1,4 @@
+import { stationDisplay } from './station-time'
 import { ROLE_LABELS, type Role } from '../types/user'
 
 /** One audit entry as the audit view lists it. */
@@ -57,7 +58,7 @@ export function describeAuditEvent(
       return `started ${what}`
     case 'worksheet:synced-from-device': {
       const conflicts = Array.isArray(detail.conflicts) ? detail.conflicts.length : 0
-      return `sent ${what} from a device with no signal (started ${String(detail.startedAt)}, ${String(detail.steps)} step(s)`
+      return `sent ${what} from a device with no signal (started ${stationDisplay().dateTime(String(detail.startedAt))}, ${String(detail.steps)} step(s)`
         + `${conflicts ? `, ${conflicts} change(s) to review` : ''})`
     }
     case 'worksheet:correction-started':

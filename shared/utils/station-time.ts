@@ -74,3 +74,15 @@ export function displayFormat(settings: DisplaySettings) {
     count: (value: number) => numberFormat(locale, { maximumFractionDigits: 0 }).format(value),
   }
 }
+
+let station: DisplaySettings = { locale: 'en-GB', timeZone: 'UTC' }
+
+/** The station's display settings, set once at start on the server and in the browser (the app's config). */
+export function setStationDisplay(settings: DisplaySettings): void {
+  station = settings
+}
+
+/** Dates and times in messages of shared code (a refusal, an audit line), written as the pages write them. */
+export function stationDisplay() {
+  return displayFormat(station)
+}

@@ -4,6 +4,14 @@ import type { displayFormat } from './station-time'
 import type { AssessmentSummary } from './worksheet-results'
 import { STEP_NAMES } from './worksheet-steps'
 
+/** A reading's verdict in words, wherever a verdict is shown (the codes stay in exports and the API). */
+export const VERDICT_WORDS: Record<string, string> = { 'in-limits': 'In limits', 'low': 'Low', 'high': 'High' }
+
+/** The verdict in words, or a dash when there is none yet. */
+export function verdictWords(verdict: string | null | undefined): string {
+  return verdict ? (VERDICT_WORDS[verdict] ?? verdict) : '—'
+}
+
 /**
  * The signed record, laid out once: the page (WorksheetRecord.vue) and the PDF
  * (server/utils/worksheet-pdf.ts) draw these same sections, so they can never word a record

@@ -4,6 +4,7 @@ import { convertPressureDifference } from '../gas/units'
 import type { WorksheetStepBody } from '../schemas/worksheet'
 import type { SpecificationDto, ToolDto } from '../types/registers'
 import { PREPARATION_CHECKS, type ToolSnapshot, type WorksheetContent, type WorksheetResults } from '../types/worksheet'
+import { stationDisplay } from './station-time'
 import { gaugeAccuracy } from './tool-accuracy'
 import { assessWorksheetReading } from './worksheet-results'
 
@@ -89,7 +90,7 @@ export function toolSnapshot(
     refuse(`Gauge ${tool.assetNumber} has no calibration record: it cannot be used until it is calibrated.`, field)
   if (tool.calibrationDue && tool.calibrationDue < today) {
     refuse(
-      `${kind === 'gauge' ? 'Gauge' : 'Cart'} ${tool.assetNumber}: calibration expired on ${tool.calibrationDue}. Use another one and quarantine this one.`,
+      `${kind === 'gauge' ? 'Gauge' : 'Cart'} ${tool.assetNumber}: calibration expired on ${stationDisplay().day(tool.calibrationDue)}. Use another one and quarantine this one.`,
       field,
     )
   }
