@@ -107,7 +107,7 @@ describe('a worksheet filled offline with a wrong or tampered clock', () => {
     const answer = await api('/api/worksheets/sync', { cookie: technician, body })
     expect(answer.status).toBe(201)
     const conflicts = answer.body.conflicts.join(' ')
-    expect(conflicts).toMatch(/the start is dated 2020-03-01T08:00:00Z, which is more than 72 hours before the server received it/)
+    expect(conflicts).toMatch(/the start is dated 1 Mar 2020, 08:00, which is more than 72 hours before the server received it/)
     expect(conflicts).toMatch(/Tools was not accepted: Gauge GA-0098/)
     expect(answer.body.worksheet.content.tools).toBeUndefined()
     const signed = await api(`/api/worksheets/${answer.body.worksheet.id}/sign`, { cookie: technician, body: { password: DEMO_PASSWORD, certify: true } })
