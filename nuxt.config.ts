@@ -96,6 +96,15 @@ export default defineNuxtConfig({
   // Installable, and usable with no network once used: the built files are precached; pages are fetched
   // from the network first and fall back to the app shell; the session is kept for an offline start. The
   // data a technician needs offline is kept by the app itself in IndexedDB (stores/field-reference.ts).
+  hooks: {
+    // The PWA plugin adds the web manifest to the precache list once per build pass: keep each URL once.
+    'pwa:beforeBuildServiceWorker': (options) => {
+      const entries = options.workbox.additionalManifestEntries ?? []
+      const url = (entry: (typeof entries)[number]) => (typeof entry === 'string' ? entry : entry.url)
+      options.workbox.additionalManifestEntries = entries.filter((entry, index) =>
+        entries.findIndex(other => url(other) === url(entry)) === index)
+    },
+  },
   pwa: {
     registerType: 'autoUpdate',
     strategies: 'generateSW',
@@ -114,7 +123,9 @@ export default defineNuxtConfig({
       ],
     },
     workbox: {
-      globPatterns: ['**/*.{js,css,woff,woff2,svg,png,ico}'],
+      // The fonts the pages draw with: Source Sans 3 in its latin subsets, as woff2, in the three weights used
+      // (every browser that runs the app reads woff2; other subsets load only for text that needs them).
+      globPatterns: ['**/*.{js,css,svg,png,ico}', '**/source-sans-3-latin-{400,600,700}-normal.*.woff2', '**/source-sans-3-latin-ext-{400,600,700}-normal.*.woff2'],
       navigateFallback: null,
       additionalManifestEntries: [{ url: '/app-shell', revision: String(Date.now()) }],
       runtimeCaching: [

@@ -7,6 +7,7 @@ import * as sessions from '../migrations/0004-sessions'
 import * as scale from '../migrations/0005-scale'
 import * as traceability from '../migrations/0006-traceability'
 import * as outbox from '../migrations/0007-outbox'
+import * as cycleTrends from '../migrations/0008-cycle-trends'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -17,6 +18,7 @@ const MIGRATIONS = [
   { name: '0005-scale', ...scale },
   { name: '0006-traceability', ...traceability },
   { name: '0007-outbox', ...outbox },
+  { name: '0008-cycle-trends', ...cycleTrends },
 ]
 
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */

@@ -12,6 +12,7 @@ import { PrechargeReading } from './precharge-reading'
 import { Signature } from './signature'
 import { SizingStudy } from './sizing-study'
 import { Specification } from './specification'
+import { SystemCycleTrend } from './system-cycle-trend'
 import { SpecificationTablePoint } from './specification-table-point'
 import { Tool } from './tool'
 import { TrendAlert } from './trend-alert'
@@ -35,6 +36,7 @@ export {
   SizingStudy,
   Specification,
   SpecificationTablePoint,
+  SystemCycleTrend,
   Tool,
   TrendAlert,
   UnitTrend,
@@ -67,6 +69,7 @@ export function initModels(sequelize: Sequelize): void {
     UserSession,
     PrechargeReading,
     UnitTrend,
+    SystemCycleTrend,
   ])
     model.initModel(sequelize)
 

@@ -1,8 +1,8 @@
 import { mailAlerts } from './notifications'
 import { currentSpecification } from './specifications'
 import { Op, type Transaction } from 'sequelize'
-import type { FleetTrendRow, UnitTrendDto } from '#shared/types/trends'
-import { cycleTrend, type CycleTrend } from '#shared/utils/cycle-check'
+import type { CycleTrendPage, CycleTrendRow, FleetTrendRow, UnitTrendDto } from '#shared/types/trends'
+import { cycleTrend, downsample, type CycleTrend } from '#shared/utils/cycle-check'
 import { specificationPressure } from '#shared/utils/specification-target'
 import {
   refreshUnitTrend,
@@ -18,6 +18,7 @@ import {
   CycleCheck,
   PrechargeReading,
   Specification,
+  SystemCycleTrend,
   UnitTrend,
   type Worksheet,
 } from '../models'
@@ -76,6 +77,7 @@ export async function trendAfterCycleCheck(
   transaction: Transaction,
 ): Promise<AlertChange[]> {
   const [trend] = await cycleTrends({ aircraftId, system }, transaction)
+  await storeCycleTrend({ aircraftId, system }, trend, transaction)
   // Every check withdrawn: nothing is left to flag.
   const change = await syncAlert(
     'cycle',
@@ -93,52 +95,71 @@ export interface FleetTrendFilters {
   position?: string
   partNumber?: string
   flagged?: boolean
+  page?: number
+  pageSize?: number
 }
 
-/** Installed units ranked by loss rate (fastest loss first), from the stored trends. */
-export async function fleetPrechargeTrends(filters: FleetTrendFilters = {}): Promise<FleetTrendRow[]> {
-  const units = await Accumulator.findAll({
-    where: {
-      aircraftId: { [Op.ne]: null },
-      ...(filters.partNumber ? { partNumber: filters.partNumber } : {}),
-      ...(filters.position ? { position: { [likeOperator()]: `%${filters.position}%` } } : {}),
-      ...(filters.type ? { '$aircraft.type$': filters.type } : {}),
-      ...(filters.base ? { '$aircraft.base$': filters.base } : {}),
-      ...(filters.flagged !== undefined ? { '$trend.flagged$': filters.flagged } : {}),
-    },
-    include: [
-      { model: Aircraft, as: 'aircraft' },
-      { model: UnitTrend, as: 'trend', required: false },
-    ],
-  })
+/**
+ * Installed units ranked by loss rate (fastest loss first), from the stored trends, a page at a time:
+ * the database sorts and pages (units without a trend last), so the cost is one page whatever the fleet.
+ */
+export async function fleetPrechargeTrends(
+  filters: FleetTrendFilters = {},
+): Promise<{ items: FleetTrendRow[], total: number, page: number, pageSize: number }> {
+  const page = filters.page ?? 1
+  const pageSize = filters.pageSize ?? 50
+  const where = {
+    aircraftId: { [Op.ne]: null },
+    ...(filters.partNumber ? { partNumber: filters.partNumber } : {}),
+    ...(filters.position ? { position: { [likeOperator()]: `%${filters.position}%` } } : {}),
+    ...(filters.type ? { '$aircraft.type$': filters.type } : {}),
+    ...(filters.base ? { '$aircraft.base$': filters.base } : {}),
+    ...(filters.flagged !== undefined ? { '$trend.flagged$': filters.flagged } : {}),
+  }
+  const include = [
+    { model: Aircraft, as: 'aircraft', attributes: ['registration', 'type', 'base'] },
+    { model: UnitTrend, as: 'trend', required: false },
+  ]
+  const [total, units] = await Promise.all([
+    Accumulator.count({ where, include }),
+    Accumulator.findAll({
+      where,
+      include,
+      order: [[{ model: UnitTrend, as: 'trend' }, 'lossPerDay', 'DESC NULLS LAST'], ['id', 'ASC']],
+      limit: pageSize,
+      offset: (page - 1) * pageSize,
+      subQuery: false,
+    }),
+  ])
+  const partNumbers = [...new Set(units.map(unit => unit.partNumber))]
   const pressureUnits = new Map(
-    (await Specification.findAll({ where: { status: 'current' }, attributes: ['partNumber', 'pressureUnit'] })).map(
-      row => [row.partNumber, row.pressureUnit],
-    ),
+    (await Specification.findAll({
+      where: { status: 'current', partNumber: partNumbers },
+      attributes: ['partNumber', 'pressureUnit'],
+    })).map(row => [row.partNumber, row.pressureUnit]),
   )
-  return units
-    .map((unit) => {
-      const joined = unit as Accumulator & { aircraft?: Aircraft, trend?: UnitTrend }
-      const trend = joined.trend
-      return {
-        accumulatorId: unit.id,
-        registration: joined.aircraft?.registration ?? null,
-        type: joined.aircraft?.type ?? null,
-        base: joined.aircraft?.base ?? null,
-        position: unit.position,
-        partNumber: unit.partNumber,
-        serialNumber: unit.serialNumber,
-        unit: pressureUnits.has(unit.partNumber) ? `${pressureUnits.get(unit.partNumber)}/day` : null,
-        lossRate: trend?.lossPerDay ?? null,
-        lossRateStandardError: trend?.fit?.lossRateStandardError ?? null,
-        predictedOutOfLimitsAt: trend?.fit?.predictedOutOfLimitsAt ?? null,
-        nextCheckAt: trend?.flag.nextCheckAt ?? null,
-        flagged: trend?.flagged ?? false,
-        reasons: trend?.flag.reasons ?? [],
-        services: trend?.services ?? 0,
-      }
-    })
-    .sort((a, b) => (b.lossRate ?? -Infinity) - (a.lossRate ?? -Infinity))
+  const items = units.map((unit) => {
+    const joined = unit as Accumulator & { aircraft?: Aircraft, trend?: UnitTrend }
+    const trend = joined.trend
+    return {
+      accumulatorId: unit.id,
+      registration: joined.aircraft?.registration ?? null,
+      type: joined.aircraft?.type ?? null,
+      base: joined.aircraft?.base ?? null,
+      position: unit.position,
+      partNumber: unit.partNumber,
+      serialNumber: unit.serialNumber,
+      unit: pressureUnits.has(unit.partNumber) ? `${pressureUnits.get(unit.partNumber)}/day` : null,
+      lossRate: trend?.lossPerDay ?? null,
+      lossRateStandardError: trend?.fit?.lossRateStandardError ?? null,
+      predictedOutOfLimitsAt: trend?.fit?.predictedOutOfLimitsAt ?? null,
+      nextCheckAt: trend?.flag.nextCheckAt ?? null,
+      flagged: trend?.flagged ?? false,
+      reasons: trend?.flag.reasons ?? [],
+      services: trend?.services ?? 0,
+    }
+  })
+  return { items, total, page, pageSize }
 }
 
 /** One unit's trend with its points and services, from the stored readings. */
@@ -263,4 +284,134 @@ export async function cycleTrends(
       )
     })
     .sort((a, b) => (b.drop ?? -1) - (a.drop ?? -1))
+}
+
+/** The table's order of a system: its drop, largest first; systems without one (too few checks) last. */
+const rankOf = (drop: number | null) => drop ?? -1e9
+
+/** A system's stored trend rewritten from its checks (removed when none is left), in the write that changed them. */
+async function storeCycleTrend(
+  key: { aircraftId: number, system: string },
+  trend: CycleTrend | undefined,
+  transaction?: Transaction,
+): Promise<void> {
+  if (!trend) {
+    await SystemCycleTrend.destroy({ where: key, transaction })
+    return
+  }
+  const latest = trend.checks.at(-1)
+  await SystemCycleTrend.upsert({
+    ...key,
+    accumulatorId: trend.accumulatorId,
+    registration: trend.registration,
+    checks: trend.checks.length,
+    baselineSeconds: trend.baselineSeconds,
+    latestSeconds: trend.latestSeconds,
+    latestLeakRate: latest?.leakRate ?? null,
+    drop: trend.drop,
+    rank: rankOf(trend.drop),
+    flagged: trend.flagged,
+    message: trend.message,
+    firstCheckedAt: trend.checks[0] ? new Date(trend.checks[0].checkedAt) : null,
+    lastCheckedAt: latest ? new Date(latest.checkedAt) : null,
+    computedAt: new Date(),
+  }, { transaction })
+}
+
+/** Every system's stored trend derived again from its checks (a database loaded in bulk, or from before them). */
+export async function rebuildCycleTrends(
+  write: <T>(work: (transaction: Transaction) => Promise<T>) => Promise<T>,
+): Promise<number> {
+  const systems = await CycleCheck.findAll({
+    attributes: ['aircraftId', 'system'],
+    where: { withdrawnAt: null },
+    group: ['aircraftId', 'system'],
+    raw: true,
+  })
+  for (const { aircraftId, system } of systems) {
+    await write(async (transaction) => {
+      const [trend] = await cycleTrends({ aircraftId, system }, transaction)
+      await storeCycleTrend({ aircraftId, system }, trend, transaction)
+    })
+  }
+  return systems.length
+}
+
+const toRow = (row: SystemCycleTrend, series: CycleTrendRow['series']): CycleTrendRow => ({
+  aircraftId: row.aircraftId,
+  registration: row.registration,
+  system: row.system,
+  accumulatorId: row.accumulatorId,
+  checks: row.checks,
+  baselineSeconds: row.baselineSeconds,
+  latestSeconds: row.latestSeconds,
+  latestLeakRate: row.latestLeakRate,
+  drop: row.drop,
+  flagged: row.flagged,
+  message: row.message,
+  lastCheckedAt: row.lastCheckedAt?.toISOString() ?? null,
+  series,
+})
+
+/** Each system's checks in date order, only for the systems asked for (the index on aircraft, system, date). */
+async function seriesOf(keys: { aircraftId: number, system: string }[]): Promise<Map<string, CycleTrendRow['series']>> {
+  const found = new Map<string, CycleTrendRow['series']>()
+  if (!keys.length) return found
+  const checks = await CycleCheck.findAll({
+    where: { withdrawnAt: null, [Op.or]: keys.map(key => ({ aircraftId: key.aircraftId, system: key.system })) },
+    attributes: ['aircraftId', 'system', 'checkedAt', 'intervalSeconds'],
+    order: [['checkedAt', 'ASC'], ['id', 'ASC']],
+    raw: true,
+  })
+  for (const check of checks) {
+    const key = `${check.aircraftId}|${check.system}`
+    const series = found.get(key) ?? []
+    series.push({ checkedAt: new Date(check.checkedAt).toISOString(), intervalSeconds: check.intervalSeconds })
+    found.set(key, series)
+  }
+  return found
+}
+
+/** Flagged systems listed above the table: all of them up to this many, and how many there are. */
+const FLAGGED_SHOWN = 50
+
+/**
+ * One page of the systems' pump-cycle trends, largest drop first, each with a chart series of at most
+ * SERIES_POINTS points; and the flagged systems (up to FLAGGED_SHOWN, with their count). Read from the
+ * stored trends: the cost is one page, whatever the fleet.
+ */
+export async function cycleTrendPage(
+  query: { page: number, pageSize: number, flagged?: boolean },
+): Promise<CycleTrendPage> {
+  const where = query.flagged === undefined ? {} : { flagged: query.flagged }
+  const [total, rows, flaggedCount, flaggedRows] = await Promise.all([
+    SystemCycleTrend.count({ where }),
+    SystemCycleTrend.findAll({
+      where,
+      order: [['rank', 'DESC'], ['aircraftId', 'ASC'], ['system', 'ASC']],
+      limit: query.pageSize,
+      offset: (query.page - 1) * query.pageSize,
+    }),
+    SystemCycleTrend.count({ where: { flagged: true } }),
+    SystemCycleTrend.findAll({
+      where: { flagged: true },
+      order: [['rank', 'DESC'], ['aircraftId', 'ASC'], ['system', 'ASC']],
+      limit: FLAGGED_SHOWN,
+    }),
+  ])
+  const series = await seriesOf(rows)
+  return {
+    items: rows.map(row => toRow(row, downsample(series.get(`${row.aircraftId}|${row.system}`) ?? []))),
+    total,
+    page: query.page,
+    pageSize: query.pageSize,
+    flagged: flaggedRows.map(row => toRow(row, [])),
+    flaggedTotal: flaggedCount,
+    dropShare: Number(useRuntimeConfig().cycleDropShare),
+  }
+}
+
+/** One system's whole series of checks (a chart's "show all"), bounded by that one system's history. */
+export async function systemCycleSeries(aircraftId: number, system: string): Promise<CycleTrendRow['series']> {
+  return (await seriesOf([{ aircraftId, system }])).get(`${aircraftId}|${system}`) ?? []
 }

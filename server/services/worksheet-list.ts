@@ -99,10 +99,27 @@ export function worksheetFilter(query: Partial<Filters>, walkSortOrder = false):
 
 const isDateSort = (sort: Filters['sort']) => sort === 'createdAt' || sort === 'performedAt'
 
+const SORT_COLUMNS: Record<Filters['sort'], string> = {
+  createdAt: 'created_at', performedAt: 'performed_at', state: 'state', workOrder: 'work_order',
+}
+
+/**
+ * Rows beyond the cursor in the list's order: a row comparison, `(sort, id) < (value, id)`, which
+ * SQLite and PostgreSQL both run as one range on the (sort, id) index. (The equivalent OR of two
+ * conditions was applied by PostgreSQL as a filter over every row before the cursor, so a page's
+ * cost grew with its depth.) A cursor on an empty sort value (no performed time yet) keeps the
+ * two-part form, as a row comparison with NULL matches nothing.
+ */
 function keysetCondition(sort: Filters['sort'], ascending: boolean, cursor: Cursor): WhereOptions {
   const value = cursor.value !== null && isDateSort(sort) ? new Date(cursor.value) : cursor.value
   const beyond = ascending ? Op.gt : Op.lt
-  return { [Op.or]: [{ [sort]: { [beyond]: value } }, { [sort]: value, id: { [beyond]: cursor.id } }] }
+  if (value === null)
+    return { [Op.or]: [{ [sort]: { [beyond]: value } }, { [sort]: value, id: { [beyond]: cursor.id } }] }
+  const sequelize = Worksheet.sequelize!
+  const quote = (name: string) => sequelize.getQueryInterface().quoteIdentifier(name)
+  // The list's queries name the table by the model (`Worksheet`), as Sequelize writes them.
+  const row = `(${quote('Worksheet')}.${quote(SORT_COLUMNS[sort])}, ${quote('Worksheet')}.${quote('id')})`
+  return literal(`${row} ${ascending ? '>' : '<'} (${sequelize.escape(value as string)}, ${sequelize.escape(cursor.id)})`) as never
 }
 
 /**

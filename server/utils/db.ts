@@ -3,8 +3,9 @@ import { auditSecretFrom, configureAuditSecret, establishSeal } from '../databas
 import { databaseLocation, isPostgresUrl, openDatabase } from '../database/connection'
 import { listenForSessionChanges } from '../database/session-broadcast'
 import { rebuildTrends } from '../database/trend-store'
-import { Accumulator, UnitTrend } from '../models'
+import { Accumulator, CycleCheck, SystemCycleTrend, UnitTrend } from '../models'
 import { forgetSessions, onSessionChangeBroadcast } from '../services/sessions'
+import { rebuildCycleTrends } from '../services/trends'
 import { migrate } from '../database/migrate'
 import { createWriteQueue, type WriteQueue } from '../database/write-queue'
 
@@ -30,6 +31,10 @@ function open() {
     if ((await UnitTrend.count()) === 0 && (await Accumulator.count()) > 0) {
       const released = await rebuildTrends(write)
       console.info(`Pre-charge trends derived from ${released} released worksheet(s).`)
+    }
+    if ((await SystemCycleTrend.count()) === 0 && (await CycleCheck.count({ where: { withdrawnAt: null } })) > 0) {
+      const systems = await rebuildCycleTrends(write)
+      console.info(`Pump-cycle trends derived for ${systems} system(s).`)
     }
     return { sequelize, write }
   })().catch((error) => {

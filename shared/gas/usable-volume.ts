@@ -169,9 +169,13 @@ function methodText(si: SiConditions, ambient?: Ambient): string {
  */
 export function usableVolume(input: UsableVolumeInput): UsableVolumeResult {
   const si = toSi(input)
+  return usableFromOutcome(input, si, sizeSi(si))
+}
+
+/** The usable-volume answer from a sizing already done (the inverse reuses its own). */
+function usableFromOutcome(input: UsableVolumeInput, si: SiConditions, outcome: SiOutcome): UsableVolumeResult {
   const gasM3 = volumeToCubicMetres(input.gasVolume)
   if (!(gasM3 > 0)) throw new EngineInputError('The gas volume must be above zero.', 'gasVolume')
-  const outcome = sizeSi(si)
   const unit = input.gasVolume.unit
   const temperatureUnit = (input.operatingTemperature ?? input.prechargeTemperature).unit
   const showPressure = (pa: number, like: Pressure) => pascalAbsoluteToPressure(pa, like.unit, like.basis, si.ambientPa)
@@ -255,7 +259,8 @@ export function requiredVolume(input: RequiredVolumeInput): RequiredVolumeResult
     throw new EngineInputError('The volume to deliver must be above zero.', input.usable ? 'usable' : 'applications')
   const outcome = sizeSi(si)
   const gasVolume = cubicMetresToVolume(neededM3 / outcome.usableFraction, unit)
-  const check = usableVolume({ ...input, gasVolume })
+  // The check at the gas volume found reuses the one sizing: every volume scales with the gas volume.
+  const check = usableFromOutcome({ ...input, gasVolume }, si, outcome)
   return {
     gasVolume,
     check,

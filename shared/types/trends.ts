@@ -77,3 +77,33 @@ export interface CycleCheckResults {
   warnings: string[]
   method: string
 }
+
+/** One hydraulic system's pump-cycle trend as the Trends table shows it (from the stored trend). */
+export interface CycleTrendRow {
+  aircraftId: number
+  registration: string
+  system: string
+  accumulatorId: number
+  checks: number
+  baselineSeconds: number | null
+  latestSeconds: number | null
+  latestLeakRate: { value: number, unit: string } | null
+  /** Share by which the latest interval is below the baseline (0.3 = 30 % shorter). */
+  drop: number | null
+  flagged: boolean
+  message: string | null
+  lastCheckedAt: string | null
+  /** The intervals over time for a chart: at most 60 points (baseline and latest kept). */
+  series: { checkedAt: string, intervalSeconds: number }[]
+}
+
+/** A page of the systems' trends, and the flagged ones (bounded), as GET /api/trends/cycles answers. */
+export interface CycleTrendPage {
+  items: CycleTrendRow[]
+  total: number
+  page: number
+  pageSize: number
+  flagged: CycleTrendRow[]
+  flaggedTotal: number
+  dropShare: number
+}

@@ -76,3 +76,19 @@ export function cycleTrend(
       : null,
   }
 }
+
+/** Points a chart gets per system: enough to see a trend on a tablet, bounded whatever the history. */
+export const SERIES_POINTS = 60
+
+/**
+ * A series cut to at most `points`: the baseline checks and the latest always kept, the rest evenly
+ * spaced between them (the full series is one request away, per system).
+ */
+export function downsample<T>(series: T[], points = SERIES_POINTS, keepFirst = 3): T[] {
+  if (series.length <= points) return series
+  const head = series.slice(0, keepFirst)
+  const rest = series.slice(keepFirst)
+  const room = points - keepFirst
+  const picked = Array.from({ length: room }, (_, index) => rest[Math.round((index * (rest.length - 1)) / (room - 1))]!)
+  return [...head, ...picked]
+}

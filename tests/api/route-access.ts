@@ -82,6 +82,7 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'GET /api/tools': 'register.read',
   'POST /api/tools': 'tool.manage',
   'GET /api/trends/cycles': 'trend.read',
+  'GET /api/trends/cycles/series': 'trend.read',
   'GET /api/trends/precharge/[accumulatorId]': 'trend.read',
   'GET /api/trends/precharge': 'trend.read',
   'GET /api/worksheets/[id]': 'worksheet.read',

@@ -172,3 +172,61 @@ describe('alerts are raised by the writes that change a trend', () => {
     expect(after.services.at(-1).worksheetId).toBe(flow.id)
   })
 })
+
+describe('trends bounded by what a person can read', () => {
+  it('pages the systems (largest drop first) with a bounded series each, and lists the flagged ones', async () => {
+    const first = await api('/api/trends/cycles?pageSize=2', { cookie: cookies.engineer })
+    expect(first.status).toBe(200)
+    expect(first.body.items).toHaveLength(2)
+    expect(first.body.total).toBeGreaterThan(2)
+    expect(first.body.items[0].flagged).toBe(true)
+    expect(first.body.flagged.map((row: { system: string }) => row.system)).toContain(first.body.items[0].system)
+    for (const row of first.body.items) {
+      expect(row.series.length).toBeLessThanOrEqual(60)
+      expect(row.series.length).toBe(Math.min(60, row.checks))
+      expect(row).not.toHaveProperty('inputs')
+    }
+    const second = await api('/api/trends/cycles?pageSize=2&page=2', { cookie: cookies.engineer })
+    expect(second.body.items[0].system + second.body.items[0].registration)
+      .not.toBe(first.body.items[0].system + first.body.items[0].registration)
+    expect((await api('/api/trends/cycles?pageSize=101', { cookie: cookies.engineer })).status).toBe(400)
+  })
+
+  it('gives one system\'s whole series on demand', async () => {
+    const [row] = (await api('/api/trends/cycles?pageSize=1', { cookie: cookies.engineer })).body.items
+    const series = await api(`/api/trends/cycles/series?aircraftId=${row.aircraftId}&system=${encodeURIComponent(row.system)}`, { cookie: cookies.engineer })
+    expect(series.status).toBe(200)
+    expect(series.body.items).toHaveLength(row.checks)
+    expect((await api('/api/trends/cycles/series?aircraftId=x&system=', { cookie: cookies.engineer })).status).toBe(400)
+  })
+
+  it('pages the units by loss rate, fastest loss first, with the total', async () => {
+    const first = await api('/api/trends/precharge?pageSize=3', { cookie: cookies.engineer })
+    expect(first.status).toBe(200)
+    expect(first.body.items).toHaveLength(3)
+    expect(first.body.total).toBeGreaterThan(3)
+    const rates = first.body.items.map((row: { lossRate: number | null }) => row.lossRate ?? Number.NEGATIVE_INFINITY)
+    expect([...rates].sort((a, b) => b - a)).toEqual(rates)
+    const all = await api('/api/trends/precharge?pageSize=100', { cookie: cookies.engineer })
+    expect(all.body.items[0].accumulatorId).toBe(first.body.items[0].accumulatorId)
+    expect((await api('/api/trends/precharge?pageSize=500', { cookie: cookies.engineer })).status).toBe(400)
+  })
+
+  it('answers pages and JSON compressed when asked, and plain when not', async () => {
+    const { baseURL } = await import('../support/file-server')
+    const compressed = await fetch(`${baseURL()}/api/trends/precharge?pageSize=50`, {
+      headers: { 'cookie': cookies.engineer!, 'accept-encoding': 'br, gzip' },
+    })
+    expect(compressed.headers.get('content-encoding')).toBe('br')
+    expect(compressed.headers.get('vary')).toMatch(/Accept-Encoding/i)
+    // fetch decodes it: the body is the same JSON.
+    expect((await compressed.json()).items.length).toBeGreaterThan(0)
+    const gzip = await fetch(`${baseURL()}/login`, { headers: { 'accept-encoding': 'gzip' } })
+    expect(gzip.headers.get('content-encoding')).toBe('gzip')
+    expect(await gzip.text()).toMatch(/<html/)
+    const plain = await fetch(`${baseURL()}/api/trends/precharge?pageSize=50`, {
+      headers: { 'cookie': cookies.engineer!, 'accept-encoding': 'identity' },
+    })
+    expect(plain.headers.get('content-encoding')).toBeNull()
+  })
+})
