@@ -92,7 +92,6 @@ export default defineNuxtConfig({
   },
   typescript: { strict: true },
   telemetry: false,
-  eslint: { config: { stylistic: true } },
   // Installable, and usable with no network once used: the built files are precached; pages are fetched
   // from the network first and fall back to the app shell; the session is kept for an offline start. The
   // data a technician needs offline is kept by the app itself in IndexedDB (stores/field-reference.ts).
@@ -105,6 +104,7 @@ export default defineNuxtConfig({
         entries.findIndex(other => url(other) === url(entry)) === index)
     },
   },
+  eslint: { config: { stylistic: true } },
   pwa: {
     registerType: 'autoUpdate',
     strategies: 'generateSW',
