@@ -1,18 +1,20 @@
 /**
- * A database of the demo scenario grown to `count` worksheets for the scale benchmark: the
- * seeded year of released servicing, repeated back in time across the same fleet (each copy
- * shifted so every unit's history reads as a long, regular one), every copy with its two
- * signatures and an audit entry vouching for its content, chained and sealed like the server's.
- * Bulk inserts, not the app's routes: 100,000 worksheets take well under a minute this way.
+ * A database that looks like a fleet for the scale benchmark (see buildScaleDatabase): every row
+ * with its signatures and an audit entry vouching for its content, chained and sealed like the
+ * server's. Bulk inserts, not the app's routes.
  */
 import { execFileSync } from 'node:child_process'
-import type { Sequelize } from 'sequelize'
+import { Op, type Sequelize, type Transaction } from 'sequelize'
+import type { WorksheetContent } from '../../shared/types/worksheet'
 import { appendAudit, auditHash, configureAuditSecret, sealOf } from '../../server/database/audit-chain'
 import { openDatabase } from '../../server/database/connection'
-import { recordHashes } from '../../server/database/record-hash'
+import { recordHashes, type RecordKindName } from '../../server/database/record-hash'
 import { rebuildTrends } from '../../server/database/trend-store'
 import { createWriteQueue } from '../../server/database/write-queue'
-import { AuditEvent, AuditHead, Signature, Worksheet } from '../../server/models'
+import {
+  Accumulator, AccumulatorInstallation, Aircraft, AuditEvent, AuditHead, CycleCheck, listColumns, Signature,
+  SystemCycleTrend, Worksheet,
+} from '../../server/models'
 
 const DAY = 86_400_000
 const BATCH = 1000
@@ -26,6 +28,49 @@ function shifted(content: unknown, offset: number): unknown {
   )
 }
 
+/** Rows the trail vouches for, appended in one go: their record hashes chained from the current head and sealed. */
+async function vouch(
+  kind: RecordKindName,
+  rows: { id: number, at: Date }[],
+  action: string,
+  transaction: Transaction,
+): Promise<void> {
+  if (!rows.length) return
+  const hashes = await recordHashes(kind, rows.map(row => row.id), transaction)
+  const head = (await AuditHead.findByPk(1, { transaction }))!
+  let previous = head.lastHash
+  const events = rows.map((row) => {
+    const entry = {
+      at: row.at,
+      actorId: null,
+      entity: kind,
+      entityId: String(row.id),
+      action,
+      detail: { history: true },
+      recordHash: hashes.get(row.id)!,
+    }
+    const hash = auditHash(entry, previous, 2)
+    const event = { ...entry, previousHash: previous, hash, hashVersion: 2 }
+    previous = hash
+    return event
+  })
+  const created = await AuditEvent.bulkCreate(events, { transaction })
+  const lastEventId = created.at(-1)?.id ?? (await AuditEvent.max<number, AuditEvent>('id', { transaction }))
+  const next = { eventCount: head.eventCount + events.length, lastEventId, lastHash: previous }
+  await head.update({ ...next, seal: sealOf(next), sealedAt: new Date() }, { transaction })
+}
+
+/** At most this much history: a fleet's records for ten years, never a worksheet dated in another century. */
+const HISTORY_YEARS = 10
+
+/**
+ * A database that looks like a fleet of `count` worksheets: the demo fleet (6 aircraft, 21 units, a
+ * year of released work, monthly pump-cycle checks, some open work) copied whole — aircraft, units,
+ * installations, open work — as many times as `count` needs with at most ten years of history per
+ * copy, each year of released work and cycle checks repeated back in time on its own copy's units.
+ * At 100,000 worksheets that is about 480 aircraft, 1,700 units and 80,000 cycle checks. Bulk inserts
+ * in one transaction per thousand rows, each row vouched for by the audit trail.
+ */
 export async function buildScaleDatabase(
   path: string,
   count: number,
@@ -38,90 +83,198 @@ export async function buildScaleDatabase(
   })
   configureAuditSecret(`session:${secret}`)
   const sequelize: Sequelize = await openDatabase(path)
+  const write = createWriteQueue(sequelize)
   try {
     const templates = await Worksheet.findAll({
       where: { state: 'released' },
       order: [['performedAt', 'ASC']],
       include: [{ model: Signature, as: 'signatures' }],
     })
+    const openWork = await Worksheet.findAll({ where: { state: { [Op.ne]: 'released' }, voidedById: null } })
+    const checks = await CycleCheck.findAll({ where: { withdrawnAt: null } })
+    const fleet = await Aircraft.findAll({ order: [['id', 'ASC']] })
+    const units = await Accumulator.findAll({ where: { aircraftId: { [Op.ne]: null } }, order: [['id', 'ASC']] })
+    const installations = await AccumulatorInstallation.findAll({ where: { accumulatorId: units.map(unit => unit.id) } })
+    const span = templates.at(-1)!.performedAt!.getTime() - templates[0]!.performedAt!.getTime() + 60 * DAY
+    const years = Math.max(1, Math.floor((HISTORY_YEARS * 365 * DAY) / span))
     const existing = await Worksheet.count()
     const toAdd = Math.max(0, count - existing)
+    const copies = Math.max(1, Math.ceil((toAdd + templates.length) / (templates.length * years)))
+    log(`  ${copies} copies of the fleet (${copies * fleet.length} aircraft, ${copies * units.length} units), up to ${years} spans of history each`)
+
+    // The fleet copies: copy c's aircraft and units, by the originals' ids.
+    const aircraftOf: Map<number, Aircraft>[] = [new Map(fleet.map(row => [row.id, row]))]
+    const unitOf: Map<number, Accumulator>[] = [new Map(units.map(row => [row.id, row]))]
+    let nextAircraftId = (await Aircraft.max<number, Aircraft>('id'))! + 1
+    let nextUnitId = (await Accumulator.max<number, Accumulator>('id'))! + 1
+    let nextInstallationId = ((await AccumulatorInstallation.max<number, AccumulatorInstallation>('id')) ?? 0) + 1
+    for (let first = 1; first < copies; first += 50) {
+      const last = Math.min(copies, first + 50)
+      const aircraftRows: Record<string, unknown>[] = []
+      const unitRows: Record<string, unknown>[] = []
+      const installationRows: Record<string, unknown>[] = []
+      for (let copy = first; copy < last; copy++) {
+        const aircraftMap = new Map<number, Aircraft>()
+        for (const row of fleet) {
+          const plain = { ...row.get({ plain: true }), id: nextAircraftId++, registration: `${row.registration}-${copy}`, fleetNumber: `${row.fleetNumber}-${copy}` }
+          aircraftRows.push(plain)
+          aircraftMap.set(row.id, plain as unknown as Aircraft)
+        }
+        const unitMap = new Map<number, Accumulator>()
+        for (const row of units) {
+          const plain = { ...row.get({ plain: true }), id: nextUnitId++, aircraftId: aircraftMap.get(row.aircraftId!)!.id, serialNumber: `${row.serialNumber}-${copy}` }
+          unitRows.push(plain)
+          unitMap.set(row.id, plain as unknown as Accumulator)
+        }
+        for (const row of installations) {
+          installationRows.push({
+            ...row.get({ plain: true }),
+            id: nextInstallationId++,
+            accumulatorId: unitMap.get(row.accumulatorId)!.id,
+            aircraftId: aircraftMap.get(row.aircraftId)?.id ?? row.aircraftId,
+          })
+        }
+        aircraftOf.push(aircraftMap)
+        unitOf.push(unitMap)
+      }
+      await write(async (transaction) => {
+        await Aircraft.bulkCreate(aircraftRows as never[], { transaction })
+        await Accumulator.bulkCreate(unitRows as never[], { transaction })
+        await AccumulatorInstallation.bulkCreate(installationRows as never[], { transaction })
+        const at = new Date()
+        await vouch('aircraft', aircraftRows.map(row => ({ id: row.id as number, at })), 'created', transaction)
+        await vouch('accumulator', unitRows.map(row => ({ id: row.id as number, at })), 'created', transaction)
+      })
+    }
+
+    /** A worksheet's content moved to another copy of the fleet. */
+    const onCopy = (content: WorksheetContent, copy: number): WorksheetContent => {
+      if (copy === 0) return content
+      const aircraft = aircraftOf[copy]!.get(content.aircraft.id)
+      const unit = unitOf[copy]!.get(content.accumulator.id)
+      if (!aircraft || !unit) return content
+      return {
+        ...content,
+        aircraft: { ...content.aircraft, id: aircraft.id, registration: aircraft.registration, fleetNumber: aircraft.fleetNumber },
+        accumulator: { ...content.accumulator, id: unit.id, serialNumber: unit.serialNumber },
+      }
+    }
     let nextId = (await Worksheet.max<number, Worksheet>('id'))! + 1
     let nextSignatureId = (await Signature.max<number, Signature>('id'))! + 1
-    const span = templates.at(-1)!.performedAt!.getTime() - templates[0]!.performedAt!.getTime() + 60 * DAY
+    const copyWorksheet = (template: Worksheet, copy: number, offset: number, workOrder: string) => {
+      const id = nextId++
+      const at = (date: Date | null) => (date ? new Date(date.getTime() + offset) : null)
+      const content = onCopy(shifted(template.content, offset) as WorksheetContent, copy)
+      return {
+        ...template.get({ plain: true }),
+        ...listColumns(content, template.results ?? {}),
+        id,
+        signatures: undefined,
+        aircraftId: content.aircraft.id,
+        accumulatorId: content.accumulator.id,
+        workOrder,
+        content,
+        performedAt: at(template.performedAt),
+        submittedAt: at(template.submittedAt),
+        releasedAt: at(template.releasedAt),
+        createdAt: at(template.createdAt),
+        updatedAt: at(template.updatedAt),
+        clientId: null,
+        version: 1,
+      }
+    }
+
+    // Open work on every copy, as each copy's station would have it.
+    for (let first = 1; first < copies; first += 100) {
+      const rows: Record<string, unknown>[] = []
+      for (let copy = first; copy < Math.min(copies, first + 100); copy++)
+        for (const [index, template] of openWork.entries()) rows.push(copyWorksheet(template, copy, 0, `WO-O-${copy}-${index}`))
+      await write(async (transaction) => {
+        await Worksheet.bulkCreate(rows as never[], { transaction })
+        await vouch('worksheet', rows.map(row => ({ id: row.id as number, at: row.createdAt as Date })), 'started', transaction)
+      })
+    }
+
     const started = Date.now()
     for (let done = 0; done < toAdd; done += BATCH) {
       const size = Math.min(BATCH, toAdd - done)
       const worksheets: Record<string, unknown>[] = []
       const signatures: Record<string, unknown>[] = []
       for (let index = 0; index < size; index++) {
-        const copy = done + index
-        const template = templates[copy % templates.length]!
-        // Copy n of a template lies n/templates.length whole spans before it.
-        const offset = -(Math.floor(copy / templates.length) + 1) * span
-        const id = nextId++
-        const at = (date: Date | null) => (date ? new Date(date.getTime() + offset) : null)
-        worksheets.push({
-          ...template.get({ plain: true }),
-          id,
-          signatures: undefined,
-          workOrder: `WO-H-${String(copy).padStart(6, '0')}`,
-          content: shifted(template.content, offset),
-          performedAt: at(template.performedAt),
-          submittedAt: at(template.submittedAt),
-          releasedAt: at(template.releasedAt),
-          createdAt: at(template.createdAt),
-          updatedAt: at(template.updatedAt),
-          version: 1,
-          round: 1,
-        })
+        // Block 0 (copy 0, the latest span) is the seeded year; then every copy's latest span, then the span before …
+        const slot = done + index + templates.length
+        const template = templates[slot % templates.length]!
+        const block = Math.floor(slot / templates.length)
+        const copy = block % copies
+        const offset = -Math.floor(block / copies) * span
+        const row = copyWorksheet(template, copy, offset, `WO-H-${String(done + index).padStart(7, '0')}`)
+        worksheets.push(row)
         for (const signature of template.signatures ?? []) {
           signatures.push({
             ...signature.get({ plain: true }),
             id: nextSignatureId++,
-            worksheetId: id,
-            signedAt: at(signature.signedAt),
+            worksheetId: row.id,
+            signedAt: new Date(signature.signedAt.getTime() + offset),
           })
         }
       }
-      await createWriteQueue(sequelize)(async (transaction) => {
+      await write(async (transaction) => {
         await Worksheet.bulkCreate(worksheets as never[], { transaction })
         await Signature.bulkCreate(signatures as never[], { transaction })
-        const ids = worksheets.map(row => row.id as number)
-        const hashes = await recordHashes('worksheet', ids, transaction)
-        const head = (await AuditHead.findByPk(1, { transaction }))!
-        let previous = head.lastHash
-        const events = worksheets.map((row) => {
-          const entry = {
-            at: row.releasedAt as Date,
-            actorId: null,
-            entity: 'worksheet',
-            entityId: String(row.id),
-            action: 'released',
-            detail: { history: true },
-            recordHash: hashes.get(row.id as number)!,
-          }
-          const hash = auditHash(entry, previous, 2)
-          const event = { ...entry, previousHash: previous, hash, hashVersion: 2 }
-          previous = hash
-          return event
-        })
-        const created = await AuditEvent.bulkCreate(events, { transaction })
-        const lastEventId = created.at(-1)?.id ?? (await AuditEvent.max<number, AuditEvent>('id', { transaction }))
-        const next = { eventCount: head.eventCount + events.length, lastEventId, lastHash: previous }
-        await head.update({ ...next, seal: sealOf(next), sealedAt: new Date() }, { transaction })
+        await vouch('worksheet', worksheets.map(row => ({ id: row.id as number, at: row.releasedAt as Date })), 'released', transaction)
       })
       if ((done / BATCH) % 20 === 0)
         log(`  ${existing + done + size} worksheets (${((Date.now() - started) / 1000).toFixed(0)} s)`)
     }
-    await createWriteQueue(sequelize)(transaction =>
+
+    // A year of monthly pump-cycle checks per system, on every copy, for each span of history the copy has.
+    const spansUsed = Math.ceil((toAdd + templates.length) / (templates.length * copies))
+    let nextCheckId = (await CycleCheck.max<number, CycleCheck>('id'))! + 1
+    let pending: Record<string, unknown>[] = []
+    const flush = async () => {
+      const rows = pending
+      pending = []
+      await write(async (transaction) => {
+        await CycleCheck.bulkCreate(rows as never[], { transaction })
+        await vouch('cycle-check', rows.map(row => ({ id: row.id as number, at: row.createdAt as Date })), 'recorded', transaction)
+      })
+    }
+    let checkCount = 0
+    for (let copy = 0; copy < copies; copy++) {
+      for (let back = 0; back < spansUsed; back++) {
+        if (copy === 0 && back === 0) continue
+        const offset = -back * span
+        for (const check of checks) {
+          const aircraft = aircraftOf[copy]!.get(check.aircraftId)!
+          const unit = unitOf[copy]!.get(check.accumulatorId)!
+          const checkedAt = new Date(check.checkedAt.getTime() + offset)
+          pending.push({
+            ...check.get({ plain: true }),
+            id: nextCheckId++,
+            aircraftId: aircraft.id,
+            accumulatorId: unit.id,
+            checkedAt,
+            inputs: { ...check.inputs, aircraftId: aircraft.id, checkedAt: checkedAt.toISOString().slice(0, 10) },
+            createdAt: checkedAt,
+            updatedAt: null,
+          })
+          checkCount++
+          if (pending.length >= BATCH) await flush()
+        }
+      }
+    }
+    if (pending.length) await flush()
+    log(`  ${checkCount + checks.length} pump-cycle checks`)
+    await write(transaction =>
       appendAudit(
-        { actorId: null, entity: 'system', entityId: 'bench', action: 'history-added', detail: { worksheets: toAdd } },
+        { actorId: null, entity: 'system', entityId: 'bench', action: 'history-added', detail: { worksheets: toAdd, copies } },
         transaction,
       ),
     )
     log('Deriving the stored pre-charge trends…')
-    await rebuildTrends(createWriteQueue(sequelize), log)
+    await rebuildTrends(write, log)
+    // The pump-cycle trends are derived by the server when it starts on this database (server/utils/db.ts).
+    await SystemCycleTrend.destroy({ where: {} })
     await sequelize.query('PRAGMA wal_checkpoint(TRUNCATE)')
     await sequelize.query('ANALYZE')
   }
