@@ -94,7 +94,9 @@ export async function buildScaleDatabase(
     const checks = await CycleCheck.findAll({ where: { withdrawnAt: null } })
     const fleet = await Aircraft.findAll({ order: [['id', 'ASC']] })
     const units = await Accumulator.findAll({ where: { aircraftId: { [Op.ne]: null } }, order: [['id', 'ASC']] })
-    const installations = await AccumulatorInstallation.findAll({ where: { accumulatorId: units.map(unit => unit.id) } })
+    const installations = await AccumulatorInstallation.findAll({
+      where: { accumulatorId: units.map(unit => unit.id) },
+    })
     const span = templates.at(-1)!.performedAt!.getTime() - templates[0]!.performedAt!.getTime() + 60 * DAY
     const years = Math.max(1, Math.floor((HISTORY_YEARS * 365 * DAY) / span))
     const existing = await Worksheet.count()
@@ -155,7 +157,9 @@ export async function buildScaleDatabase(
       if (!aircraft || !unit) return content
       return {
         ...content,
-        aircraft: { ...content.aircraft, id: aircraft.id, registration: aircraft.registration, fleetNumber: aircraft.fleetNumber },
+        aircraft: {
+          ...content.aircraft, id: aircraft.id, registration: aircraft.registration, fleetNumber: aircraft.fleetNumber,
+        },
         accumulator: { ...content.accumulator, id: unit.id, serialNumber: unit.serialNumber },
       }
     }
