@@ -19,6 +19,8 @@ export default defineNitroPlugin((nitroApp) => {
     const accepted = getRequestHeader(event, 'accept-encoding') ?? ''
     const encoding = /\bbr\b/.test(accepted) ? 'br' : /\bgzip\b/.test(accepted) ? 'gzip' : null
     if (!encoding || event.method === 'HEAD' || getResponseHeader(event, 'content-encoding')) return
+    // Nuxt renders an error page by fetching it inside the server and copying its text: that one stays plain.
+    if (getRequestHeader(event, 'x-nuxt-error')) return
     const body = response.body
     let text: string
     if (typeof body === 'string') {

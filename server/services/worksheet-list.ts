@@ -110,16 +110,37 @@ const SORT_COLUMNS: Record<Filters['sort'], string> = {
  * cost grew with its depth.) A cursor on an empty sort value (no performed time yet) keeps the
  * two-part form, as a row comparison with NULL matches nothing.
  */
-function keysetCondition(sort: Filters['sort'], ascending: boolean, cursor: Cursor): WhereOptions {
+function keysetCondition(sort: Filters['sort'], ascending: boolean, cursor: Cursor, inclusive = false): WhereOptions {
   const value = cursor.value !== null && isDateSort(sort) ? new Date(cursor.value) : cursor.value
   const beyond = ascending ? Op.gt : Op.lt
-  if (value === null)
-    return { [Op.or]: [{ [sort]: { [beyond]: value } }, { [sort]: value, id: { [beyond]: cursor.id } }] }
+  if (value === null) {
+    const onward = inclusive ? (ascending ? Op.gte : Op.lte) : beyond
+    return { [Op.or]: [{ [sort]: { [beyond]: value } }, { [sort]: value, id: { [onward]: cursor.id } }] }
+  }
   const sequelize = Worksheet.sequelize!
   const quote = (name: string) => sequelize.getQueryInterface().quoteIdentifier(name)
   // The list's queries name the table by the model (`Worksheet`), as Sequelize writes them.
   const row = `(${quote('Worksheet')}.${quote(SORT_COLUMNS[sort])}, ${quote('Worksheet')}.${quote('id')})`
-  return literal(`${row} ${ascending ? '>' : '<'} (${sequelize.escape(value as string)}, ${sequelize.escape(cursor.id)})`) as never
+  const operator = `${ascending ? '>' : '<'}${inclusive ? '=' : ''}`
+  return literal(`${row} ${operator} (${sequelize.escape(value as string)}, ${sequelize.escape(cursor.id)})`) as never
+}
+
+/**
+ * Where a dense search's first page starts: its first match in the list's order, found through the
+ * search index (reading at most COUNT_CAP matches). Walking the sort order from there finds a page at
+ * once even when every match lies at the far end of the list (a work-order year ten years back).
+ */
+async function firstMatch(filter: WhereOptions, sort: Filters['sort'], ascending: boolean): Promise<Cursor | null> {
+  const sequelize = Worksheet.sequelize!
+  const direction = ascending ? 'ASC' : 'DESC'
+  // SQLite: a unary + keeps the sort column's index out, so the search index finds the matches.
+  const sqlite = sequelize.getDialect() === 'sqlite'
+  const quote = (name: string) => sequelize.getQueryInterface().quoteIdentifier(name)
+  const order: Order = sqlite
+    ? [[literal(`+${quote('Worksheet')}.${quote(SORT_COLUMNS[sort])}`), direction], [literal(`+${quote('Worksheet')}.${quote('id')}`), direction]]
+    : [[sort, direction], ['id', direction]]
+  const [row] = await findRows(filter, order, 1)
+  return row ? { toward: 'after', value: sortValue(row, sort), id: row.id } : null
 }
 
 /**
@@ -200,8 +221,14 @@ export async function listWorksheets(query: WorksheetListQuery): Promise<Workshe
   const filter = worksheetFilter(query)
   // Counted first (a bounded, cheap count): how many match decides how a search is best run.
   const total = await cappedCount(filter)
-  const pageFilter = query.q && total > DENSE_MATCHES ? worksheetFilter(query, true) : filter
-  const where = cursor ? { [Op.and]: [pageFilter, keysetCondition(query.sort, walkAscending, cursor)] } : pageFilter
+  const dense = !!query.q && total > DENSE_MATCHES
+  const pageFilter = dense ? worksheetFilter(query, true) : filter
+  const start = dense && !cursor && total <= COUNT_CAP ? await firstMatch(filter, query.sort, walkAscending) : null
+  const where = cursor
+    ? { [Op.and]: [pageFilter, keysetCondition(query.sort, walkAscending, cursor)] }
+    : start
+      ? { [Op.and]: [pageFilter, keysetCondition(query.sort, walkAscending, start, true)] }
+      : pageFilter
   const direction = walkAscending ? 'ASC' : 'DESC'
   const order: Order = [
     [query.sort, direction],

@@ -6,7 +6,8 @@
 import Papa from 'papaparse'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { api, DEMO, signIn } from '../support/api'
-import { baseURL } from '../support/file-server'
+import { sql } from '../support/database'
+import { baseURL, fileDatabase } from '../support/file-server'
 
 let cookie: string
 beforeAll(async () => {
@@ -108,6 +109,36 @@ describe('search', () => {
         ),
       ).toBe(true)
     }
+  })
+
+  it('a dense search whose matches all lie at the far end of the list pages them all, in order, and back', async () => {
+    // 600 copies of a released worksheet dated ten years back: more than the 500 that make a search "dense".
+    const [template] = await sql<Record<string, unknown>>(fileDatabase(), 'SELECT * FROM worksheets WHERE state = ? ORDER BY id LIMIT 1', ['released'])
+    const columns = Object.keys(template!).filter(name => name !== 'id')
+    for (let first = 0; first < 600; first += 100) {
+      const rows = Array.from({ length: 100 }, (_, index) => first + index)
+      const values = rows.flatMap(number => columns.map((name) => {
+        if (name === 'work_order') return `WO-DENSE-${String(number).padStart(3, '0')}`
+        // Written as Sequelize writes a date (SQLite compares them as text).
+        if (name === 'created_at') return `${new Date(Date.UTC(2016, 0, 1) + number * 3_600_000).toISOString().replace('T', ' ').replace('Z', '')} +00:00`
+        if (name === 'client_id') return null
+        return template![name]
+      }))
+      await sql(
+        fileDatabase(),
+        `INSERT INTO worksheets (${columns.join(', ')}) VALUES ${rows.map(() => `(${columns.map(() => '?').join(', ')})`).join(', ')}`,
+        values,
+      )
+    }
+    const query = 'q=wo-dense&sort=createdAt&direction=desc&pageSize=25'
+    const firstPage = (await api(`/api/worksheets?${query}`, { cookie })).body
+    expect(firstPage.total).toBe(600)
+    expect(firstPage.items[0].workOrder).toBe('WO-DENSE-599')
+    const forwards = await walk(query, 'next')
+    expect(forwards.ids).toHaveLength(600)
+    expect(new Set(forwards.ids).size).toBe(600)
+    const backwards = await walk(query, 'previous', forwards.last.previous)
+    expect([...backwards.ids].reverse()).toEqual(forwards.ids.slice(0, 600 - forwards.last.items.length))
   })
 
   it('takes % and _ as themselves', async () => {

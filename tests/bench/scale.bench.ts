@@ -128,12 +128,16 @@ async function main() {
       if (!next) break
       deepCursor = next
     }
+    const tenth = Math.max(1, Math.round(COUNT / 10))
+    const farPrefix = `wo-h-${String(9 * tenth).padStart(7, '0').slice(0, 7 - Math.round(Math.log10(tenth)))}`
     const list = await phase('lists', async () => [
       ...(await time('list, first page', '/api/worksheets?pageSize=25')),
       ...(await time(`list, page ${deepPages}`, deepPath)),
       ...(await time('list, sorted by work order', '/api/worksheets?pageSize=25&sort=workOrder&direction=asc')),
       ...(await time('list, searched (one work order)', '/api/worksheets?pageSize=25&q=WO-H-012345')),
       ...(await time('list, searched (a registration)', '/api/worksheets?pageSize=25&q=qx-fmc')),
+      // About a tenth of the list, all of it at the far end of the order (the oldest work orders).
+      ...(await time('list, searched (10 % of rows, at the far end)', `/api/worksheets?pageSize=25&q=${farPrefix}`)),
       ...(await time(
         'list, filtered (released, one aircraft)',
         '/api/worksheets?pageSize=25&state=released&aircraftId=3',
