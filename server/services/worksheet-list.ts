@@ -103,6 +103,12 @@ const SORT_COLUMNS: Record<Filters['sort'], string> = {
   createdAt: 'created_at', performedAt: 'performed_at', state: 'state', workOrder: 'work_order',
 }
 
+/** A list column in raw SQL, as the list's queries name the table (by the model, `Worksheet`). */
+function listColumn(column: string): string {
+  const quote = (name: string) => Worksheet.sequelize!.getQueryInterface().quoteIdentifier(name)
+  return `${quote('Worksheet')}.${quote(column)}`
+}
+
 /**
  * Rows beyond the cursor in the list's order: a row comparison, `(sort, id) < (value, id)`, which
  * SQLite and PostgreSQL both run as one range on the (sort, id) index. (The equivalent OR of two
@@ -118,9 +124,7 @@ function keysetCondition(sort: Filters['sort'], ascending: boolean, cursor: Curs
     return { [Op.or]: [{ [sort]: { [beyond]: value } }, { [sort]: value, id: { [onward]: cursor.id } }] }
   }
   const sequelize = Worksheet.sequelize!
-  const quote = (name: string) => sequelize.getQueryInterface().quoteIdentifier(name)
-  // The list's queries name the table by the model (`Worksheet`), as Sequelize writes them.
-  const row = `(${quote('Worksheet')}.${quote(SORT_COLUMNS[sort])}, ${quote('Worksheet')}.${quote('id')})`
+  const row = `(${listColumn(SORT_COLUMNS[sort])}, ${listColumn('id')})`
   const operator = `${ascending ? '>' : '<'}${inclusive ? '=' : ''}`
   return literal(`${row} ${operator} (${sequelize.escape(value as string)}, ${sequelize.escape(cursor.id)})`) as never
 }
@@ -135,9 +139,8 @@ async function firstMatch(filter: WhereOptions, sort: Filters['sort'], ascending
   const direction = ascending ? 'ASC' : 'DESC'
   // SQLite: a unary + keeps the sort column's index out, so the search index finds the matches.
   const sqlite = sequelize.getDialect() === 'sqlite'
-  const quote = (name: string) => sequelize.getQueryInterface().quoteIdentifier(name)
   const order: Order = sqlite
-    ? [[literal(`+${quote('Worksheet')}.${quote(SORT_COLUMNS[sort])}`), direction], [literal(`+${quote('Worksheet')}.${quote('id')}`), direction]]
+    ? [[literal(`+${listColumn(SORT_COLUMNS[sort])}`), direction], [literal(`+${listColumn('id')}`), direction]]
     : [[sort, direction], ['id', direction]]
   const [row] = await findRows(filter, order, 1)
   return row ? { toward: 'after', value: sortValue(row, sort), id: row.id } : null

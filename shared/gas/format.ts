@@ -45,6 +45,12 @@ export function unitLabel(unit: string): string {
   return UNIT_LABEL[unit] ?? unit
 }
 
+/** A flow rate as the engine answers it ({ value, unit: "in3/min" }): "1.33 in³/min". */
+export function formatFlowRate(rate: { value: number, unit: string }, decimals = 2): string {
+  const [volume, per] = rate.unit.split('/')
+  return `${formatDecimalValue(rate.value, decimals)} ${unitLabel(volume ?? '')}${per ? `/${per}` : ''}`
+}
+
 /** Decimals shown per pressure unit: finer than any charging gauge resolves, no finer. */
 const PRESSURE_DECIMALS: Record<PressureUnit, number> = { psi: 1, bar: 2, kPa: 0, MPa: 3 }
 

@@ -6,7 +6,10 @@
  */
 import { formatDecimalValue, unitLabel, pressureUnitLabel } from '../gas/format'
 import type { ElevationUnit, IntervalUnit, PressureBasis, PressureUnit, TemperatureUnit, VolumeUnit } from '../gas/types'
-import { convertPressureDifference, convertTemperature, cubicMetresToVolume, volumeToCubicMetres } from '../gas/units'
+import {
+  convertPressureDifference, convertTemperature, cubicMetresToVolume, elevationToMetres, intervalToSeconds,
+  secondsToInterval, volumeToCubicMetres,
+} from '../gas/units'
 
 export type QuantityKind = 'pressure' | 'temperature' | 'volume' | 'duration' | 'elevation' | 'number'
 export type QuantityUnit = PressureUnit | TemperatureUnit | VolumeUnit | IntervalUnit | ElevationUnit | '%' | 'hPa' | ''
@@ -102,12 +105,12 @@ export function convertEntry(value: number, kind: QuantityKind, from: QuantityUn
       return convertTemperature({ value, unit: from as TemperatureUnit }, to as TemperatureUnit).value
     case 'volume':
       return cubicMetresToVolume(volumeToCubicMetres({ value, unit: from as VolumeUnit }), to as VolumeUnit).value
-    case 'duration': {
-      const seconds: Record<string, number> = { s: 1, min: 60, h: 3600 }
-      return (value * seconds[from]!) / seconds[to]!
+    case 'duration':
+      return secondsToInterval(intervalToSeconds({ value, unit: from as IntervalUnit }), to as IntervalUnit).value
+    case 'elevation': {
+      const metres = elevationToMetres({ value, unit: from as ElevationUnit })
+      return to === 'm' ? metres : metres / elevationToMetres({ value: 1, unit: to as ElevationUnit })
     }
-    case 'elevation':
-      return from === 'ft' && to === 'm' ? value * 0.3048 : from === 'm' && to === 'ft' ? value / 0.3048 : value
     default:
       return value
   }
