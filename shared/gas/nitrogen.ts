@@ -298,7 +298,7 @@ export function nitrogenDensity(pressure: number, temperature: number, internal 
     else low = density
     const slope = rt * (1 + 2 * delta * residual.d + delta * delta * residual.dd)
     const step = error / slope
-    if (slope > 0 && Math.abs(step) <= 1e-12 * density) {
+    if (slope > 0 && Math.abs(step) <= 1e-8 * density) {
       solverStatistics.densityIterations = iteration + 1
       return density - step
     }
@@ -326,14 +326,26 @@ export function nitrogenHeatCapacities(
   density: number,
   temperature: number,
 ): { cv: number, cp: number, ratio: number } {
+  const { cv, cp } = entropyAndHeatCapacities(density, temperature)
+  return { cv, cp, ratio: cp / cv }
+}
+
+/**
+ * Entropy and heat capacities from one evaluation of the Helmholtz energy: what each Newton
+ * step of an isentropic change needs.
+ */
+const entropyState = { entropy: 0, cv: 0, cp: 0 }
+function entropyAndHeatCapacities(density: number, temperature: number): typeof entropyState {
   const delta = density / REDUCING_DENSITY
   const tau = REDUCING_TEMPERATURE / temperature
   const ideal = idealHelmholtz(delta, tau)
   const r = residualHelmholtz(delta, tau, scratch)
   const cv = -NITROGEN_GAS_CONSTANT * tau * tau * (ideal.tt + r.tt)
   const numerator = 1 + delta * r.d - delta * tau * r.dt
-  const cp = cv + (NITROGEN_GAS_CONSTANT * numerator * numerator) / (1 + 2 * delta * r.d + delta * delta * r.dd)
-  return { cv, cp, ratio: cp / cv }
+  entropyState.entropy = NITROGEN_GAS_CONSTANT * (tau * (ideal.t + r.t) - ideal.value - r.value)
+  entropyState.cv = cv
+  entropyState.cp = cv + (NITROGEN_GAS_CONSTANT * numerator * numerator) / (1 + 2 * delta * r.d + delta * delta * r.dd)
+  return entropyState
 }
 
 /** Compressibility factor Z = p/(ρRT). */
@@ -377,9 +389,8 @@ export function nitrogenIsentropicToPressure(
   t = Math.min(Math.max(t, INTERNAL_RANGE.minKelvin), INTERNAL_RANGE.maxKelvin)
   for (let iteration = 0; iteration < 60; iteration++) {
     const rho = nitrogenDensity(pressure, t)
-    const error = nitrogenEntropy(rho, t) - entropy
-    const { cp } = nitrogenHeatCapacities(rho, t)
-    const next = t - (error * t) / cp
+    const state = entropyAndHeatCapacities(rho, t)
+    const next = t - ((state.entropy - entropy) * t) / state.cp
     checkState(next, pressure, true)
     if (Math.abs(next - t) < 1e-10 * t) return { density: nitrogenDensity(pressure, next), temperature: next }
     t = next
@@ -397,9 +408,8 @@ export function nitrogenIsentropicToDensity(
   let t = temperature * Math.pow(targetDensity / density, 0.4)
   t = Math.min(Math.max(t, INTERNAL_RANGE.minKelvin), INTERNAL_RANGE.maxKelvin)
   for (let iteration = 0; iteration < 60; iteration++) {
-    const error = nitrogenEntropy(targetDensity, t) - entropy
-    const { cv } = nitrogenHeatCapacities(targetDensity, t)
-    const next = t - (error * t) / cv
+    const state = entropyAndHeatCapacities(targetDensity, t)
+    const next = t - ((state.entropy - entropy) * t) / state.cv
     checkState(next, targetDensity, true)
     if (Math.abs(next - t) < 1e-10 * t) return { pressure: nitrogenPressure(targetDensity, next), temperature: next }
     t = next
