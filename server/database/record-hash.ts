@@ -117,20 +117,18 @@ export function sha256(text: string): string {
   return createHash('sha256').update(text).digest('hex')
 }
 
-function plain(row: Model, exclude: string[] = [], omitWhenNull: string[] = []): Record<string, unknown> {
+type Row = Record<string, unknown>
+
+function plain(row: Row, exclude: string[] = [], omitWhenNull: string[] = []): Row {
   return Object.fromEntries(
-    Object.entries(row.get({ plain: true }) as Record<string, unknown>).filter(
+    Object.entries(row).filter(
       ([key, value]) => !exclude.includes(key) && !(value === null && omitWhenNull.includes(key)),
     ),
   )
 }
 
 /** The derived columns whose stored value is not what they derive from, as stored; null when all agree. */
-function derivedDisagreements(
-  row: Model,
-  derive: (row: Record<string, unknown>) => Record<string, unknown>,
-): Record<string, unknown> | null {
-  const stored = row.get({ plain: true }) as Record<string, unknown>
+function derivedDisagreements(stored: Row, derive: (row: Row) => Row): Row | null {
   const out = Object.entries(derive(stored)).filter(
     ([column, value]) => String(stored[column] ?? null) !== String(value ?? null),
   )
@@ -168,15 +166,28 @@ export async function recordHashes(
   const hashes = new Map<number, string>()
   for (const row of rows) {
     const id = row.get('id') as number
-    const snapshot: Record<string, unknown> = plain(row, definition.exclude, definition.omitWhenNull)
-    const disagreeing = definition.derived ? derivedDisagreements(row, definition.derived) : null
-    if (disagreeing) snapshot.storedOutOfStep = disagreeing
-    definition.children.forEach((child, index) => {
-      snapshot[child.name] = (childrenOf[index]!.get(id) ?? []).map(candidate => plain(candidate, child.exclude))
-    })
-    hashes.set(id, sha256(JSON.stringify(canonical(snapshot))))
+    const ofRow = Object.fromEntries(definition.children.map((child, index) => [
+      child.name,
+      (childrenOf[index]!.get(id) ?? []).map(candidate => candidate.get({ plain: true }) as Row),
+    ]))
+    hashes.set(id, hashOfRow(kind, row.get({ plain: true }) as Row, ofRow))
   }
   return hashes
+}
+
+/**
+ * The canonical content hash of one record given as the plain row the database answers (and its
+ * children's rows by child name): what `recordHashes` computes after reading it. A bulk writer that
+ * already holds the rows it wrote hashes them without reading them back.
+ */
+export function hashOfRow(kind: RecordKindName, row: Row, children: Record<string, Row[]> = {}): string {
+  const definition: RecordKind = RECORD_KINDS[kind]
+  const snapshot: Row = plain(row, definition.exclude, definition.omitWhenNull)
+  const disagreeing = definition.derived ? derivedDisagreements(row, definition.derived) : null
+  if (disagreeing) snapshot.storedOutOfStep = disagreeing
+  for (const child of definition.children)
+    snapshot[child.name] = (children[child.name] ?? []).map(candidate => plain(candidate, child.exclude))
+  return sha256(JSON.stringify(canonical(snapshot)))
 }
 
 export async function recordHash(kind: RecordKindName, id: number, transaction?: Transaction): Promise<string | null> {

@@ -7,8 +7,8 @@ import { execFileSync } from 'node:child_process'
 import { Op, type Sequelize, type Transaction } from 'sequelize'
 import type { WorksheetContent } from '../../shared/types/worksheet'
 import { appendAudit, auditHash, configureAuditSecret, sealOf } from '../../server/database/audit-chain'
-import { openDatabase } from '../../server/database/connection'
-import { recordHashes, type RecordKindName } from '../../server/database/record-hash'
+import { isPostgresUrl, openDatabase } from '../../server/database/connection'
+import { hashOfRow, recordHashes, type RecordKindName } from '../../server/database/record-hash'
 import { rebuildTrends } from '../../server/database/trend-store'
 import { createWriteQueue } from '../../server/database/write-queue'
 import {
@@ -19,35 +19,53 @@ import {
 const DAY = 86_400_000
 const BATCH = 1000
 
-/** Moves every ISO time stamp inside a worksheet's content by `offset` milliseconds. */
-function shifted(content: unknown, offset: number): unknown {
-  return JSON.parse(JSON.stringify(content), (_key, value) =>
-    typeof value === 'string' && /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}(\.\d+)?Z$/.test(value)
-      ? new Date(Date.parse(value) + offset).toISOString()
-      : value,
-  )
+const ISO_TIME = /"(\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}(?:\.\d+)?Z)"/g
+const textOf = new WeakMap<object, string>()
+
+/** Moves every ISO time stamp inside a worksheet's content by `offset` ms (on its JSON text, kept per template). */
+function shifted(content: object, offset: number): unknown {
+  let text = textOf.get(content)
+  if (text === undefined) textOf.set(content, text = JSON.stringify(content))
+  if (offset === 0) return JSON.parse(text)
+  return JSON.parse(text.replace(ISO_TIME, (_match, time: string) => `"${new Date(Date.parse(time) + offset).toISOString()}"`))
 }
 
-/** Rows the trail vouches for, appended in one go: their record hashes chained from the current head and sealed. */
+type Row = Record<string, unknown>
+/** Kinds whose in-memory hashes were checked once against the same rows read back. */
+const checkedKinds = new Set<RecordKindName>()
+
+/**
+ * Rows the trail vouches for, appended in one go: their record hashes chained from the current head and
+ * sealed. The hashes come from the rows as written (`hashOfRow`); the first batch of each kind is also
+ * read back and hashed as the server does, and the build stops if the two disagree.
+ */
 async function vouch(
   kind: RecordKindName,
-  rows: { id: number, at: Date }[],
+  rows: { row: Row, children?: Record<string, Row[]>, at: Date }[],
   action: string,
   transaction: Transaction,
 ): Promise<void> {
   if (!rows.length) return
-  const hashes = await recordHashes(kind, rows.map(row => row.id), transaction)
+  const hashes = new Map(rows.map(({ row, children }) => [row.id as number, hashOfRow(kind, row, children)]))
+  if (!checkedKinds.has(kind)) {
+    const read = await recordHashes(kind, [...hashes.keys()], transaction)
+    for (const [id, hash] of hashes) {
+      if (read.get(id) !== hash)
+        throw new Error(`The builder's hash of ${kind} ${id} is not the one the server computes from the row it reads.`)
+    }
+    checkedKinds.add(kind)
+  }
   const head = (await AuditHead.findByPk(1, { transaction }))!
   let previous = head.lastHash
-  const events = rows.map((row) => {
+  const events = rows.map(({ row, at }) => {
     const entry = {
-      at: row.at,
+      at,
       actorId: null,
       entity: kind,
       entityId: String(row.id),
       action,
       detail: { history: true },
-      recordHash: hashes.get(row.id)!,
+      recordHash: hashes.get(row.id as number)!,
     }
     const hash = auditHash(entry, previous, 2)
     const event = { ...entry, previousHash: previous, hash, hashVersion: 2 }
@@ -72,17 +90,25 @@ const HISTORY_YEARS = 10
  * in one transaction per thousand rows, each row vouched for by the audit trail.
  */
 export async function buildScaleDatabase(
-  path: string,
+  location: string,
   count: number,
   secret: string,
   log = (line: string) => console.log(line),
 ): Promise<void> {
   // The demo scenario first, seeded by the built server's own task (scripts/task.mjs).
+  const postgres = isPostgresUrl(location)
   execFileSync(process.execPath, ['scripts/task.mjs', 'db:seed'], {
-    stdio: 'inherit', env: { ...process.env, NUXT_DB_PATH: path, NUXT_DATABASE_URL: '', NUXT_SESSION_PASSWORD: secret, NUXT_AUDIT_SECRET: '' },
+    stdio: 'inherit',
+    env: {
+      ...process.env,
+      NUXT_DB_PATH: postgres ? '' : location,
+      NUXT_DATABASE_URL: postgres ? location : '',
+      NUXT_SESSION_PASSWORD: secret,
+      NUXT_AUDIT_SECRET: '',
+    },
   })
   configureAuditSecret(`session:${secret}`)
-  const sequelize: Sequelize = await openDatabase(path)
+  const sequelize: Sequelize = await openDatabase(location)
   const write = createWriteQueue(sequelize)
   try {
     const templates = await Worksheet.findAll({
@@ -144,8 +170,9 @@ export async function buildScaleDatabase(
         await Accumulator.bulkCreate(unitRows as never[], { transaction })
         await AccumulatorInstallation.bulkCreate(installationRows as never[], { transaction })
         const at = new Date()
-        await vouch('aircraft', aircraftRows.map(row => ({ id: row.id as number, at })), 'created', transaction)
-        await vouch('accumulator', unitRows.map(row => ({ id: row.id as number, at })), 'created', transaction)
+        await vouch('aircraft', aircraftRows.map(row => ({ row, at })), 'created', transaction)
+        const installationsOf = (id: unknown) => installationRows.filter(row => row.accumulatorId === id)
+        await vouch('accumulator', unitRows.map(row => ({ row, at, children: { installations: installationsOf(row.id) } })), 'created', transaction)
       })
     }
 
@@ -168,7 +195,7 @@ export async function buildScaleDatabase(
     const copyWorksheet = (template: Worksheet, copy: number, offset: number, workOrder: string) => {
       const id = nextId++
       const at = (date: Date | null) => (date ? new Date(date.getTime() + offset) : null)
-      const content = onCopy(shifted(template.content, offset) as WorksheetContent, copy)
+      const content = onCopy(shifted(template.content as object, offset) as WorksheetContent, copy)
       return {
         ...template.get({ plain: true }),
         ...listColumns(content, template.results ?? {}),
@@ -195,7 +222,7 @@ export async function buildScaleDatabase(
         for (const [index, template] of openWork.entries()) rows.push(copyWorksheet(template, copy, 0, `WO-O-${copy}-${index}`))
       await write(async (transaction) => {
         await Worksheet.bulkCreate(rows as never[], { transaction })
-        await vouch('worksheet', rows.map(row => ({ id: row.id as number, at: row.createdAt as Date })), 'started', transaction)
+        await vouch('worksheet', rows.map(row => ({ row, at: row.createdAt as Date })), 'started', transaction)
       })
     }
 
@@ -204,6 +231,7 @@ export async function buildScaleDatabase(
       const size = Math.min(BATCH, toAdd - done)
       const worksheets: Record<string, unknown>[] = []
       const signatures: Record<string, unknown>[] = []
+      const signaturesOf = new Map<number, Record<string, unknown>[]>()
       for (let index = 0; index < size; index++) {
         // Block 0 (copy 0, the latest span) is the seeded year; then every copy's latest span, then the span before …
         const slot = done + index + templates.length
@@ -213,19 +241,21 @@ export async function buildScaleDatabase(
         const offset = -Math.floor(block / copies) * span
         const row = copyWorksheet(template, copy, offset, `WO-H-${String(done + index).padStart(7, '0')}`)
         worksheets.push(row)
-        for (const signature of template.signatures ?? []) {
-          signatures.push({
-            ...signature.get({ plain: true }),
-            id: nextSignatureId++,
-            worksheetId: row.id,
-            signedAt: new Date(signature.signedAt.getTime() + offset),
-          })
-        }
+        const own = (template.signatures ?? []).map(signature => ({
+          ...signature.get({ plain: true }),
+          id: nextSignatureId++,
+          worksheetId: row.id,
+          signedAt: new Date(signature.signedAt.getTime() + offset),
+        }))
+        signatures.push(...own)
+        signaturesOf.set(row.id, own)
       }
       await write(async (transaction) => {
         await Worksheet.bulkCreate(worksheets as never[], { transaction })
         await Signature.bulkCreate(signatures as never[], { transaction })
-        await vouch('worksheet', worksheets.map(row => ({ id: row.id as number, at: row.releasedAt as Date })), 'released', transaction)
+        await vouch('worksheet', worksheets.map(row => ({
+          row, at: row.releasedAt as Date, children: { signatures: signaturesOf.get(row.id as number) ?? [] },
+        })), 'released', transaction)
       })
       if ((done / BATCH) % 20 === 0)
         log(`  ${existing + done + size} worksheets (${((Date.now() - started) / 1000).toFixed(0)} s)`)
@@ -240,7 +270,7 @@ export async function buildScaleDatabase(
       pending = []
       await write(async (transaction) => {
         await CycleCheck.bulkCreate(rows as never[], { transaction })
-        await vouch('cycle-check', rows.map(row => ({ id: row.id as number, at: row.createdAt as Date })), 'recorded', transaction)
+        await vouch('cycle-check', rows.map(row => ({ row, at: row.createdAt as Date })), 'recorded', transaction)
       })
     }
     let checkCount = 0
@@ -279,7 +309,7 @@ export async function buildScaleDatabase(
     await rebuildTrends(write, log)
     // The pump-cycle trends are derived by the server when it starts on this database (server/utils/db.ts).
     await SystemCycleTrend.destroy({ where: {} })
-    await sequelize.query('PRAGMA wal_checkpoint(TRUNCATE)')
+    if (!postgres) await sequelize.query('PRAGMA wal_checkpoint(TRUNCATE)')
     await sequelize.query('ANALYZE')
   }
   finally {

@@ -35,12 +35,14 @@ async function main() {
   const kept = process.env.SCALE_DATABASE
   const databasePath = kept ?? join(folder, 'scale.sqlite')
   const secretFile = `${databasePath}.secret`
+  // On PostgreSQL (NUXT_DATABASE_URL) the database named there is built afresh each run: give an empty one.
+  const postgresUrl = process.env.NUXT_DATABASE_URL || ''
   let secret = kept && existsSync(secretFile) ? readFileSync(secretFile, 'utf8') : randomBytes(32).toString('hex')
-  if (!kept || !existsSync(databasePath)) {
+  if (postgresUrl || !kept || !existsSync(databasePath)) {
     secret = randomBytes(32).toString('hex')
-    console.log(`Building a database of ${COUNT} worksheets…`)
+    console.log(`Building a database of ${COUNT} worksheets on ${postgresUrl ? 'PostgreSQL' : 'SQLite'}…`)
     const buildStarted = Date.now()
-    await buildScaleDatabase(databasePath, COUNT, secret)
+    await buildScaleDatabase(postgresUrl || databasePath, COUNT, secret)
     if (kept) writeFileSync(secretFile, secret)
     console.log(`Built in ${((Date.now() - buildStarted) / 1000).toFixed(0)} s.`)
   }

@@ -2,7 +2,9 @@ import type { Browser } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { chargeTarget } from '../../shared/gas/charge-target'
 import { formatPressureValue } from '../../shared/gas/format'
+import { signIn } from '../support/api'
 import { launchBrowser, signedInPage } from '../support/browser'
+import { baseURL } from '../support/file-server'
 
 let browser: Browser
 beforeAll(async () => {
@@ -102,6 +104,33 @@ describe('Charge target page', () => {
     await page.getByLabel(/^Reference pre-charge/).fill('99999')
     await expect.poll(() => page.getByTestId('charge-result').innerText()).not.toMatch(/Target at/i)
     expect(await page.getByTestId('target-value').count()).toBe(0)
+    await page.context().close()
+  })
+
+  // Last in the file: it adds 510 aircraft to this file's database.
+  it('finds an aircraft in a fleet larger than the page loads: a search box, and the register asked for the rest', async () => {
+    const admin = await signIn('admin@chargewell.test')
+    const post = async (path: string, csv: string) => {
+      const response = await fetch(`${baseURL()}${path}`, { method: 'POST', headers: { 'content-type': 'text/csv', 'cookie': admin }, body: csv })
+      expect(response.status, await response.text()).toBe(200)
+    }
+    const numbers = Array.from({ length: 510 }, (_, index) => String(index).padStart(3, '0'))
+    await post('/api/aircraft/import', ['registration,fleetNumber,type,base',
+      ...numbers.map(number => `QX-Z${number},Z${number},Tarnwing 72,Skelby`)].join('\n'))
+    await post('/api/accumulators/import', ['partNumber,serialNumber,system,registration,position,installedAt',
+      ...numbers.map(number => `FA-2240-01,SNZ${number},Brake system,QX-Z${number},Normal brake,2026-11-01`)].join('\n'))
+
+    const page = await signedInPage(browser, 'technician@chargewell.test')
+    await page.goto('/charge-target')
+    // 531 units: the page holds the first 500 (by registration), so QX-Z509 is not among them.
+    const search = page.getByTestId('aircraft-search')
+    await expect.poll(() => page.getByRole('button', { name: /^QX-/ }).count()).toBeLessThanOrEqual(24)
+    await search.fill('z509')
+    await page.getByRole('button', { name: /QX-Z509/ }).click()
+    await page.getByRole('button', { name: /Normal brake/ }).click()
+    await expect.poll(() => page.getByTestId('specification-summary').innerText()).toMatch(/FA-2240-01 rev B/)
+    await page.getByLabel(/Gas temperature/).fill('0')
+    await expect.poll(() => page.getByTestId('target-value').innerText()).toMatch(/\d/)
     await page.context().close()
   })
 })
