@@ -2,6 +2,9 @@ import { useIDBKeyval } from '@vueuse/integrations/useIDBKeyval'
 import { defineStore, skipHydrate } from 'pinia'
 import { can } from '#shared/abilities'
 import type { FieldReference } from '#shared/types/field'
+import {
+  applyReferenceUpdate, digestQuery, referenceDigests, type FieldReferenceUpdate,
+} from '#shared/utils/field-reference-delta'
 import { useConnectionStore } from './connection'
 
 const plain = <T>(value: T): T => JSON.parse(JSON.stringify(value))
@@ -10,7 +13,7 @@ const plain = <T>(value: T): T => JSON.parse(JSON.stringify(value))
  * What a technician's device keeps to work with no signal — their station's aircraft and units,
  * the current specifications, the tools with their calibration dates — in IndexedDB, refreshed
  * whenever the connection is there. Kept per user: a shared tablet never offers one technician's
- * station to another.
+ * station to another. Once it holds a copy, a refresh brings only what changed.
  */
 export const useFieldReferenceStore = defineStore('field-reference', () => {
   const stored = import.meta.client
@@ -31,7 +34,13 @@ export const useFieldReferenceStore = defineStore('field-reference', () => {
     refreshing.value = true
     error.value = null
     try {
-      const fresh = await $fetch<FieldReference>('/api/field/reference')
+      // Holding a copy, the device asks only for what changed since (compared by digests).
+      const held = reference.value
+      const fresh = held
+        ? applyReferenceUpdate(held, await $fetch<FieldReferenceUpdate>('/api/field/reference', {
+            query: digestQuery(referenceDigests(held)),
+          }))
+        : await $fetch<FieldReference>('/api/field/reference')
       stored.data.value = { userId: user.value!.id, reference: fresh }
     }
     catch (failure) {

@@ -10,6 +10,10 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { api, DEMO, DEMO_PASSWORD, signIn } from '../support/api'
 import { statusCounts } from '../support/counting'
 import { AMBIENT, expectedTarget, GAS_TEMPERATURE, toolId, unitAt } from '../support/worksheet-flow'
+import {
+  applyReferenceUpdate, digestQuery, referenceDigests, UNIT_BUCKETS, type FieldReferenceUpdate,
+} from '../../shared/utils/field-reference-delta'
+import type { FieldReference } from '../../shared/types/field'
 
 const cookies = {} as Record<keyof typeof DEMO, string>
 beforeAll(async () => {
@@ -76,6 +80,50 @@ describe('the reference data a device keeps', () => {
     expect(reference.specifications.every((item: { status: string }) => item.status === 'current')).toBe(true)
     expect(reference.tools.some((tool: { assetNumber: string }) => tool.assetNumber === 'GA-0141')).toBe(true)
     expect(reference.timeZone).toBeTruthy()
+  })
+
+  it('is refreshed by what changed: nothing when nothing did, one bucket for one unit, the copy then equal to a fresh one', async () => {
+    const full = async () => (await api<FieldReference>('/api/field/reference', { cookie: cookies.technician })).body
+    const since = async (held: FieldReference) => {
+      const answer = await api<FieldReferenceUpdate>(
+        `/api/field/reference?${new URLSearchParams(digestQuery(referenceDigests(held)))}`,
+        { cookie: cookies.technician },
+      )
+      expect(answer.status).toBe(200)
+      return answer.body
+    }
+    const held = await full()
+    const unchanged = await since(held)
+    expect(unchanged.unitBuckets).toEqual({})
+    expect(unchanged.specifications).toBeUndefined()
+    expect(unchanged.tools).toBeUndefined()
+    expect(JSON.stringify(unchanged).length).toBeLessThan(JSON.stringify(held).length / 5)
+
+    // One unit changes (its system is renamed by an admin): only its bucket comes back.
+    const unit = held.units[0]!
+    const renamed = await api(`/api/accumulators/${unit.id}`, {
+      method: 'PATCH', cookie: cookies.admin, body: { system: `${unit.system ?? 'System'} (renamed)` },
+    })
+    expect(renamed.status).toBe(200)
+    const update = await since(held)
+    expect(Object.keys(update.unitBuckets)).toEqual([String(unit.id % UNIT_BUCKETS)])
+    expect(update.specifications).toBeUndefined()
+    const refreshed = applyReferenceUpdate(held, update)
+    const fresh = await full()
+    // The same content; the device lists the units in its own order (registration, then position).
+    const comparable = (reference: FieldReference) =>
+      ({ ...reference, fetchedAt: '', units: [...reference.units].sort((a, b) => a.id - b.id) })
+    expect(comparable(refreshed)).toEqual(comparable(fresh))
+    expect(refreshed.units.find(item => item.id === unit.id)!.system).toMatch(/renamed/)
+    // Put back, for the tests that follow.
+    await api(`/api/accumulators/${unit.id}`, { method: 'PATCH', cookie: cookies.admin, body: { system: unit.system } })
+  })
+
+  it('refuses digests that are not all there', async () => {
+    const answer = await api('/api/field/reference?units=abc&specifications=x&tools=y', { cookie: cookies.technician })
+    expect(answer.status).toBe(400)
+    expect(answer.body.data.issues[0].field).toBe('units')
+    expect((await api('/api/field/reference?tools=y', { cookie: cookies.technician })).status).toBe(400)
   })
 
   it('is only for those who perform work; unknown parameters are refused', async () => {
