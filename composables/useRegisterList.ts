@@ -26,6 +26,6 @@ export function useRegisterList<Row>(
     },
     { deep: true },
   )
-  const list = useFetch<{ total: number, items: Row[] }>(endpoint, { key, query })
+  const list = useFetch<{ total: number, totalCapped?: boolean, items: Row[] }>(endpoint, { key, query })
   return { ...list, page, sorting, pageSize }
 }

@@ -8,6 +8,7 @@ import * as scale from '../migrations/0005-scale'
 import * as traceability from '../migrations/0006-traceability'
 import * as outbox from '../migrations/0007-outbox'
 import * as cycleTrends from '../migrations/0008-cycle-trends'
+import * as millionRows from '../migrations/0009-million-rows'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -19,6 +20,7 @@ const MIGRATIONS = [
   { name: '0006-traceability', ...traceability },
   { name: '0007-outbox', ...outbox },
   { name: '0008-cycle-trends', ...cycleTrends },
+  { name: '0009-million-rows', ...millionRows },
 ]
 
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */

@@ -93,7 +93,7 @@ async function requireAircraft(id: number | null | undefined, field: string) {
 export async function listUnits(query: z.infer<typeof accumulatorQuerySchema>) {
   const where = { true: { aircraftId: { [Op.ne]: null } }, false: { aircraftId: null } }
   const installed = query.installed === undefined ? {} : where[`${query.installed}`]
-  const { total, rows } = await pageOf(Accumulator, {
+  const { total, totalCapped, rows } = await pageOf(Accumulator, {
     where: {
       ...searchWhere(query.q, ['partNumber', 'serialNumber', 'position', 'system', '$aircraft.registration$']),
       ...installed,
@@ -110,7 +110,7 @@ export async function listUnits(query: z.infer<typeof accumulatorQuerySchema>) {
     page: query.page,
     pageSize: query.pageSize,
   })
-  return { total, items: await toInstalledUnits(rows) }
+  return { total, totalCapped, items: await toInstalledUnits(rows) }
 }
 
 /** One unit with where it has been (installations) and its latest worksheets. */

@@ -12,7 +12,7 @@ import { createAudited, findOr404, updateAudited } from './records'
 const CONFLICT = 'Another aircraft already has that registration or fleet number.'
 
 export async function listAircraft(query: z.infer<typeof aircraftQuerySchema>) {
-  const { total, rows } = await pageOf(Aircraft, {
+  const { total, totalCapped, rows } = await pageOf(Aircraft, {
     where: {
       ...searchWhere(query.q, ['registration', 'fleetNumber', 'type', 'base']),
       ...(query.type ? { type: query.type } : {}),
@@ -23,7 +23,7 @@ export async function listAircraft(query: z.infer<typeof aircraftQuerySchema>) {
     page: query.page,
     pageSize: query.pageSize,
   })
-  return { total, items: rows.map(row => row.get({ plain: true })) }
+  return { total, totalCapped, items: rows.map(row => row.get({ plain: true })) }
 }
 
 /** An aircraft with the accumulators installed on it. */

@@ -73,7 +73,7 @@ export function toCycleCheckDto(check: CycleCheck & { aircraft?: Aircraft }): Cy
 }
 
 export async function listCycleChecks(query: z.infer<typeof cycleCheckQuerySchema>) {
-  const { total, rows } = await pageOf(CycleCheck, {
+  const { total, totalCapped, rows } = await pageOf(CycleCheck, {
     where: {
       ...(query.aircraftId ? { aircraftId: query.aircraftId } : {}),
       ...(query.system ? { system: query.system } : {}),
@@ -86,7 +86,7 @@ export async function listCycleChecks(query: z.infer<typeof cycleCheckQuerySchem
     page: query.page,
     pageSize: query.pageSize,
   })
-  return { total, items: rows.map(toCycleCheckDto) }
+  return { total, totalCapped, items: rows.map(toCycleCheckDto) }
 }
 
 async function lockedCheck(id: number, transaction: Transaction): Promise<CycleCheck> {

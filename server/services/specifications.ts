@@ -44,7 +44,7 @@ export function currentSpecification(partNumber: string, transaction?: Transacti
 }
 
 export async function listSpecifications(query: z.infer<typeof specificationQuerySchema>) {
-  const { total, rows } = await pageOf(Specification, {
+  const { total, totalCapped, rows } = await pageOf(Specification, {
     where: {
       ...searchWhere(query.q, ['partNumber', 'title', 'dataReference']),
       ...(query.status === 'all' ? {} : { status: query.status }),
@@ -58,7 +58,7 @@ export async function listSpecifications(query: z.infer<typeof specificationQuer
     page: query.page,
     pageSize: query.pageSize,
   })
-  return { total, items: rows.map(toSpecificationDto) }
+  return { total, totalCapped, items: rows.map(toSpecificationDto) }
 }
 
 export async function specificationById(id: number): Promise<SpecificationDto> {

@@ -26,7 +26,7 @@ export async function listTools(query: z.infer<typeof toolQuerySchema>) {
   const calibration = query.calibration === 'expired'
     ? { calibrationDue: { [Op.lt]: today } }
     : query.calibration === 'valid' ? { calibrationDue: { [Op.gte]: today } } : {}
-  const { total, rows } = await pageOf(Tool, {
+  const { total, totalCapped, rows } = await pageOf(Tool, {
     where: {
       ...searchWhere(query.q, ['assetNumber', 'description']),
       ...(query.kind ? { kind: query.kind } : {}),
@@ -37,7 +37,7 @@ export async function listTools(query: z.infer<typeof toolQuerySchema>) {
     page: query.page,
     pageSize: query.pageSize,
   })
-  return { total, items: rows.map(toToolDto) }
+  return { total, totalCapped, items: rows.map(toToolDto) }
 }
 
 export async function toolById(id: number): Promise<ToolDto> {

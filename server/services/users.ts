@@ -156,8 +156,8 @@ export async function changeOwnPassword(user: User, body: PasswordChangeBody, ev
 /** The audit trail in words, newest first, for the Admin page. */
 export async function auditEvents(
   query: z.infer<typeof auditEventQuerySchema>,
-): Promise<{ total: number, items: AuditEventDto[] }> {
-  const { total, rows } = await pageOf(AuditEvent, {
+): Promise<{ total: number, totalCapped: boolean, items: AuditEventDto[] }> {
+  const { total, totalCapped, rows } = await pageOf(AuditEvent, {
     where: query.entity ? { entity: query.entity } : {},
     order: [['id', 'DESC']],
     page: query.page,
@@ -174,6 +174,7 @@ export async function auditEvents(
   )
   return {
     total,
+    totalCapped,
     items: rows.map(row => ({
       id: row.id,
       at: row.at.toISOString(),

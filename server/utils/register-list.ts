@@ -23,19 +23,48 @@ export function searchWhere(q: string | undefined, fields: string[]): WhereOptio
   }
 }
 
-/** One page of a register and the total that matches. */
+/** A register counts its matches up to this many ("10,000+" beyond): a bounded read, never a scan of the table. */
+export const REGISTER_COUNT_CAP = 10_000
+
+/** Does a where clause name an included model's column (`$aircraft.base$`)? */
+export function namesIncluded(where: unknown): boolean {
+  if (!where || typeof where !== 'object') return false
+  const keys = [...Object.keys(where), ...Object.getOwnPropertySymbols(where)]
+  return keys.some(key => (typeof key === 'string' && key.startsWith('$'))
+    || namesIncluded((where as Record<string | symbol, unknown>)[key]))
+}
+
+/**
+ * One page of a register and how many match, counted up to REGISTER_COUNT_CAP (`totalCapped` beyond):
+ * a full count of a register of a million rows (cycle checks, the audit trail) took half a second.
+ * Pages stop at the cap, so an offset never walks further than it.
+ */
 export async function pageOf<M extends Model>(
   model: ModelStatic<M>,
   options: FindOptions & { page: number, pageSize: number },
-): Promise<{ total: number, rows: M[] }> {
+): Promise<{ total: number, totalCapped: boolean, rows: M[] }> {
   const { page, pageSize, ...find } = options
-  const { rows, count } = await model.findAndCountAll({
-    ...find,
-    limit: pageSize,
-    offset: (page - 1) * pageSize,
-    distinct: true,
+  const offset = (page - 1) * pageSize
+  if (offset >= REGISTER_COUNT_CAP) {
+    throw createError({
+      status: 400,
+      statusMessage: 'Bad Request',
+      message: `Only the first ${REGISTER_COUNT_CAP} matches can be paged through: narrow the search or the filters.`,
+      data: { issues: [{ path: ['page'], field: 'page', message: `At most page ${Math.ceil(REGISTER_COUNT_CAP / pageSize)} at this page size.` }] },
+    })
+  }
+  const rows = await model.findAll({ ...find, limit: pageSize, offset })
+  // The count reads at most cap + 1 keys; an included model joins only where the filter names it
+  // (those are belongs-to links, one row each).
+  const counted = await model.findAll({
+    where: find.where,
+    include: namesIncluded(find.where) ? find.include : undefined,
+    attributes: [model.primaryKeyAttribute],
+    limit: REGISTER_COUNT_CAP + 1,
+    raw: true,
+    subQuery: false,
   })
-  return { total: count, rows }
+  return { total: Math.min(counted.length, REGISTER_COUNT_CAP), totalCapped: counted.length > REGISTER_COUNT_CAP, rows }
 }
 
 /** Runs a write; a unique-constraint clash becomes 409 with a plain reason. */

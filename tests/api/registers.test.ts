@@ -150,6 +150,18 @@ describe('fleet', () => {
     expect((await api('/api/aircraft?sort=colour', { cookie: cookies.technician })).status).toBe(400)
   })
 
+  it('counts at most 10,000 matches and pages no further than that (a bounded read at any size)', async () => {
+    const first = await api('/api/cycle-checks?pageSize=5', { cookie: cookies.technician })
+    expect(first.status).toBe(200)
+    expect(first.body.totalCapped).toBe(false)
+    expect(first.body.total).toBeGreaterThan(5)
+    const beyond = await api('/api/cycle-checks?pageSize=25&page=401', { cookie: cookies.technician })
+    expect(beyond.status).toBe(400)
+    expect(beyond.body.data.issues[0].field).toBe('page')
+    expect(beyond.body.message).toMatch(/first 10000 matches/)
+    expect((await api('/api/cycle-checks?pageSize=25&page=400', { cookie: cookies.technician })).status).toBe(200)
+  })
+
   it('an admin adds an aircraft and moves a unit onto it; the unit keeps its history', async () => {
     expect((await api('/api/aircraft', { cookie: cookies.engineer, body: {} })).status).toBe(403)
     const aircraft = await api('/api/aircraft', {
