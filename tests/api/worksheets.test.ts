@@ -93,12 +93,25 @@ describe('filling a worksheet', () => {
 })
 
 describe('signing, countersign and the permanent record', () => {
-  let worksheetId: number
+  // Each test makes the worksheet it needs: none depends on another having run.
+  /** A worksheet filled in and signed by the technician (awaiting countersign). */
+  async function signedWorksheet(): Promise<number> {
+    const unit = await unitAt(cookies.technician!, 'QX-FMK', /Normal brake/)
+    const flow = await fillWorksheet(cookies.technician!, unit.id)
+    expect((await finishAndSign(cookies.technician!, flow)).status).toBe(200)
+    return flow.id
+  }
+  /** The same, countersigned by the inspector (released). */
+  async function releasedWorksheet(): Promise<number> {
+    const id = await signedWorksheet()
+    const released = await api(`/api/worksheets/${id}/countersign`, { cookie: cookies.inspector, body: { password: DEMO_PASSWORD, certify: true } })
+    expect(released.body.state).toBe('released')
+    return id
+  }
 
   it('the performer signs with their password; inspectors are e-mailed', async () => {
     const unit = await unitAt(cookies.technician!, 'QX-FMK', /Normal brake/)
     const flow = await fillWorksheet(cookies.technician!, unit.id)
-    worksheetId = flow.id
     const wrong = await api(`/api/worksheets/${flow.id}/sign`, { cookie: cookies.technician, body: { password: 'not-mine', certify: true } })
     expect(wrong.status).toBe(401)
     const noIntent = await api(`/api/worksheets/${flow.id}/sign`, { cookie: cookies.technician, body: { password: DEMO_PASSWORD } })
@@ -115,6 +128,7 @@ describe('signing, countersign and the permanent record', () => {
   })
 
   it('no write after signing: 409 with the reason', async () => {
+    const worksheetId = await signedWorksheet()
     const answer = await api(`/api/worksheets/${worksheetId}`, { method: 'PATCH', cookie: cookies.technician, body: { step: 'action', kind: 'vent' } })
     expect(answer.status).toBe(409)
     expect(answer.body.message).toMatch(/signed and can no longer change/)
@@ -122,10 +136,12 @@ describe('signing, countersign and the permanent record', () => {
   })
 
   it('a technician cannot countersign; another technician cannot edit', async () => {
+    const worksheetId = await signedWorksheet()
     expect((await api(`/api/worksheets/${worksheetId}/countersign`, { cookie: cookies.technician, body: { password: DEMO_PASSWORD, certify: true } })).status).toBe(403)
   })
 
   it('the inspector returns it with a reason; the performer is e-mailed, corrects and signs again', async () => {
+    const worksheetId = await signedWorksheet()
     const returned = await api(`/api/worksheets/${worksheetId}/return`, { cookie: cookies.inspector, body: { reason: 'Gas temperature taken in the sun; retake in shade.' } })
     expect(returned.status).toBe(200)
     expect(returned.body).toMatchObject({ state: 'returned', returnReason: 'Gas temperature taken in the sun; retake in shade.' })
@@ -138,6 +154,7 @@ describe('signing, countersign and the permanent record', () => {
   })
 
   it('the inspector countersigns with their password: released, and the PDF holds the readings', async () => {
+    const worksheetId = await signedWorksheet()
     const released = await api(`/api/worksheets/${worksheetId}/countersign`, { cookie: cookies.inspector, body: { password: DEMO_PASSWORD, certify: true } })
     expect(released.status).toBe(200)
     expect(released.body.state).toBe('released')
@@ -170,6 +187,7 @@ describe('signing, countersign and the permanent record', () => {
   })
 
   it('a correction is a new worksheet that points at the released one, and both show the link', async () => {
+    const worksheetId = await releasedWorksheet()
     const original = (await api(`/api/worksheets/${worksheetId}`, { cookie: cookies.technician })).body
     const correction = await api('/api/worksheets', { cookie: cookies.technician, body: { accumulatorId: original.content.accumulator.id, workOrder: 'WO-CORRECTION', reason: 'scheduled', correctsId: worksheetId } })
     expect(correction.status).toBe(201)
@@ -180,6 +198,7 @@ describe('signing, countersign and the permanent record', () => {
   })
 
   it('voiding keeps the record visible, with the reason; a technician cannot void; a released record is never voided', async () => {
+    const worksheetId = await releasedWorksheet()
     const released = await api(`/api/worksheets/${worksheetId}/void`, { cookie: cookies.admin, body: { reason: 'Entered on the wrong aircraft.' } })
     expect(released.status).toBe(409)
     expect(released.body.message).toMatch(/A released record is never voided: a technician records a correction/)

@@ -310,7 +310,8 @@ export async function buildScaleDatabase(
     // The pump-cycle trends are derived by the server when it starts on this database (server/utils/db.ts).
     await SystemCycleTrend.destroy({ where: {} })
     if (!postgres) await sequelize.query('PRAGMA wal_checkpoint(TRUNCATE)')
-    await sequelize.query('ANALYZE')
+    // PostgreSQL: as autovacuum would leave a table loaded in bulk (visibility map set, statistics fresh).
+    await sequelize.query(postgres ? 'VACUUM ANALYZE' : 'ANALYZE')
   }
   finally {
     await sequelize.close()
