@@ -1,4 +1,4 @@
-import { hasSessionCookie } from '../services/sessions'
+import { hasSessionCookie } from '../utils/session-store'
 
 /**
  * Anonymous requests create no session. The session endpoint of nuxt-auth-utils (also asked

@@ -1,4 +1,4 @@
-import { liveSession, SessionEnded } from '../services/sessions'
+import { liveSession, SessionEnded } from '../utils/session-store'
 
 /**
  * `/api/_auth/session` (nuxt-auth-utils) answers from the sealed cookie alone. Here it checks

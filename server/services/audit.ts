@@ -9,7 +9,7 @@ import {
 } from '../database/audit-chain'
 import { lastVouched, type HeldRecord } from '../database/record-guard'
 import { recordHash } from '../database/record-hash'
-import { syncAlert } from '../database/trend-store'
+import { syncAlert } from './unit-trends'
 import type { User } from '../models'
 import { mailIntegrityHold } from './notifications'
 
@@ -25,7 +25,15 @@ export async function verifyTrail(): Promise<AuditVerifyAnswer> {
   return { ...(await verifyAuditChain()), signingKey: auditSigningKey() }
 }
 
+/** The whole chain as signed lines; refused (503) when no audit secret is configured to sign with. */
 export function signedExport(actor: Actor): AsyncGenerator<string> {
+  if (!auditSigningKey()) {
+    throw createError({
+      status: 503,
+      statusMessage: 'Service Unavailable',
+      message: 'No audit secret is configured, so the export cannot be signed.',
+    })
+  }
   return auditExportLines(`${actor.name} <${actor.email}>`)
 }
 

@@ -2,7 +2,7 @@ import { Op } from 'sequelize'
 import type { WorksheetContent } from '#shared/types/worksheet'
 import { can } from '#shared/abilities'
 import type { HeldRecord } from '../database/record-guard'
-import type { AlertChange } from '../database/trend-store'
+import type { AlertChange } from './unit-trends'
 import { Notification, User, type Worksheet } from '../models'
 
 /**

@@ -12,7 +12,7 @@ import type { SpecificationDto } from '#shared/types/registers'
 import { appendAudit } from '../database/audit-chain'
 import { Specification, SpecificationTablePoint, type User } from '../models'
 import { findOr404, unprocessable } from './records'
-import { trendAfterSpecificationChange } from './trends'
+import { specificationChanged } from '../utils/domain-events'
 
 /**
  * Servicing specifications: one current revision per part number. A change to the approved-data
@@ -109,7 +109,7 @@ export async function createSpecification(actor: User, body: SpecificationBody):
     () => writeTransaction(transaction => createRevision(body, null, actor.id, transaction)),
     conflict,
   )
-  await trendAfterSpecificationChange(body.partNumber)
+  await specificationChanged(body.partNumber)
   return created
 }
 
@@ -133,7 +133,7 @@ export async function changeSpecification(actor: User, id: number, changes: z.in
       )
     })
     // A new threshold or check interval changes which units are flagged.
-    await trendAfterSpecificationChange(specification.partNumber)
+    await specificationChanged(specification.partNumber)
     return { revised: false, specification: toSpecificationDto(specification) }
   }
   if (!changes.revision || changes.revision === specification.revision) {
@@ -148,7 +148,7 @@ export async function changeSpecification(actor: User, id: number, changes: z.in
     () => writeTransaction(transaction => createRevision(next, specification.id, actor.id, transaction)),
     'That revision already exists for this part number.',
   )
-  await trendAfterSpecificationChange(specification.partNumber)
+  await specificationChanged(specification.partNumber)
   return { revised: true, specification: created }
 }
 
@@ -179,6 +179,6 @@ export async function importSpecifications(event: H3Event, actor: User) {
         : []
     },
   )
-  for (const partNumber of partNumbers) await trendAfterSpecificationChange(partNumber)
+  for (const partNumber of partNumbers) await specificationChanged(partNumber)
   return report
 }

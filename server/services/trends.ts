@@ -11,7 +11,7 @@ import {
   storeReleasedReadings,
   syncAlert,
   type AlertChange,
-} from '../database/trend-store'
+} from './unit-trends'
 import {
   Accumulator,
   Aircraft,

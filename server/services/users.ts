@@ -7,7 +7,8 @@ import { DEFAULT_PREFERENCES, type UserPreferences } from '#shared/types/user'
 import { describeAuditEvent, type AuditEventDto } from '#shared/utils/audit-words'
 import { appendAudit } from '../database/audit-chain'
 import { AuditEvent, User, UserSession } from '../models'
-import { endAllSessions, reauthenticate, sessionsChangedAfterCommit } from './sessions'
+import { endAllSessions, sessionsChangedAfterCommit } from '../utils/session-store'
+import { reauthenticate } from './sessions'
 
 /**
  * Users as an administrator manages them. Every change is audited as what it is — roles

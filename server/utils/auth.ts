@@ -2,7 +2,7 @@ import type { H3Event } from 'h3'
 import { can, refusal, type Ability } from '#shared/abilities'
 import type { Role } from '#shared/types/user'
 import type { User } from '../models'
-import { liveSession, SessionEnded } from '../services/sessions'
+import { liveSession, SessionEnded } from './session-store'
 
 function unauthorised(message: string) {
   return createError({ status: 401, statusMessage: 'Unauthorized', message })

@@ -1,13 +1,25 @@
 import { Op, type Sequelize, type Transaction } from 'sequelize'
 import { auditSecretFrom, configureAuditSecret, establishSeal } from '../database/audit-chain'
-import { databaseLocation, isPostgresUrl, openDatabase } from '../database/connection'
-import { listenForSessionChanges } from '../database/session-broadcast'
-import { rebuildTrends } from '../database/trend-store'
-import { Accumulator, CycleCheck, SystemCycleTrend, UnitTrend } from '../models'
-import { forgetSessions, onSessionChangeBroadcast } from '../services/sessions'
-import { rebuildCycleTrends } from '../services/trends'
+import { databaseLocation, openDatabase } from '../database/connection'
 import { migrate } from '../database/migrate'
 import { createWriteQueue, type WriteQueue } from '../database/write-queue'
+
+/** What a start step is given: the open, migrated, sealed database. */
+export interface DatabaseStart {
+  sequelize: Sequelize
+  write: WriteQueue
+  location: string
+}
+const startSteps: ((start: DatabaseStart) => Promise<void>)[] = []
+
+/**
+ * Work done once the database is open, migrated and sealed, before any request is served (requests
+ * wait for the same opening). Registered by server/plugins/1.database-start.ts, so this file, below
+ * the services, imports none of them.
+ */
+export function onDatabaseStart(step: (start: DatabaseStart) => Promise<void>): void {
+  startSteps.push(step)
+}
 
 let ready: Promise<{ sequelize: Sequelize, write: WriteQueue }> | undefined
 let dialect = 'sqlite'
@@ -18,7 +30,6 @@ function open() {
     const location = databaseLocation(config)
     const sequelize = await openDatabase(location)
     dialect = sequelize.getDialect()
-    if (isPostgresUrl(location)) onSessionChangeBroadcast(listenForSessionChanges(location, forgetSessions))
     await migrate(sequelize)
     const write = createWriteQueue(sequelize)
     configureAuditSecret(
@@ -27,15 +38,7 @@ function open() {
     // Before any request writes: a chain that was never sealed is baselined and sealed now.
     const { established, baselined } = await write(transaction => establishSeal(transaction))
     if (established) console.info(`Audit chain sealed; ${baselined} record(s) baselined.`)
-    // Stored trends missing (a database from before them, or loaded in bulk): derive them once.
-    if ((await UnitTrend.count()) === 0 && (await Accumulator.count()) > 0) {
-      const released = await rebuildTrends(write)
-      console.info(`Pre-charge trends derived from ${released} released worksheet(s).`)
-    }
-    if ((await SystemCycleTrend.count()) === 0 && (await CycleCheck.count({ where: { withdrawnAt: null } })) > 0) {
-      const systems = await rebuildCycleTrends(write)
-      console.info(`Pump-cycle trends derived for ${systems} system(s).`)
-    }
+    for (const step of startSteps) await step({ sequelize, write, location })
     return { sequelize, write }
   })().catch((error) => {
     ready = undefined

@@ -9,7 +9,7 @@ import type { WorksheetContent } from '../../shared/types/worksheet'
 import { appendAudit, auditHash, configureAuditSecret, sealOf } from '../../server/database/audit-chain'
 import { isPostgresUrl, openDatabase } from '../../server/database/connection'
 import { hashOfRow, recordHashes, type RecordKindName } from '../../server/database/record-hash'
-import { rebuildTrends } from '../../server/database/trend-store'
+import { rebuildTrends } from '../../server/services/unit-trends'
 import { createWriteQueue } from '../../server/database/write-queue'
 import {
   Accumulator, AccumulatorInstallation, Aircraft, AuditEvent, AuditHead, CycleCheck, listColumns, Signature,

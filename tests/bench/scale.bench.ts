@@ -1,7 +1,8 @@
 /**
  * `npm run bench:scale`: Chargewell with a fleet's records for years. Builds a database that looks
  * like a fleet (whole fleet copies, at most ten years of history, open work per copy; see
- * scale-database.ts) of 100,000 worksheets (SCALE_WORKSHEETS to change it) with signatures and a
+ * scale-database.ts) of 100,000 worksheets (SCALE_WORKSHEETS to change it; several sizes, such as
+ * 10000,100000,1000000, are measured in turn and each route's growth printed) with signatures and a
  * valid, sealed audit chain, starts the built server on it, and prints p50/p95 of the reads and
  * the server-rendered pages people open all day,
  * the full CSV export's time and the server's memory growth during it, the calculation route's
@@ -20,7 +21,8 @@ import { freePort } from '../support/ports'
 import { buildScaleDatabase } from './scale-database'
 
 const root = resolve(import.meta.dirname, '../..')
-const COUNT = Number(process.env.SCALE_WORKSHEETS ?? 100_000)
+/** One size or several, comma-separated (e.g. 10000,1000000): several print each route's growth. */
+const COUNTS = (process.env.SCALE_WORKSHEETS ?? '100000').split(',').map(Number)
 const REPEATS = Number(process.env.SCALE_REPEATS ?? 40)
 
 const percentile = (values: number[], share: number) =>
@@ -30,9 +32,30 @@ const rssOf = (pid: number) => Number(readFileSync(`/proc/${pid}/status`, 'utf8'
 async function main() {
   if (process.env.CHARGEWELL_SKIP_BUILD !== '1' || !existsSync(join(root, '.output/server/index.mjs')))
     execFileSync('npx', ['nuxt', 'build'], { cwd: root, stdio: 'inherit' })
+  if (COUNTS.length > 1 && process.env.NUXT_DATABASE_URL)
+    throw new Error('Several sizes build a database each: run one size at a time on PostgreSQL.')
+  if (COUNTS.length > 1 && process.env.SCALE_DATABASE && !process.env.SCALE_DATABASE.includes('{count}'))
+    throw new Error('Several sizes keep a database each: put {count} in SCALE_DATABASE (e.g. /tmp/scale-{count}.sqlite).')
+  const results: { count: number, rows: [string, number, number][] }[] = []
+  for (const count of COUNTS) results.push({ count, rows: await measureAt(count) })
+  if (results.length > 1) {
+    const first = results[0]!
+    const last = results.at(-1)!
+    console.log(`\nGrowth of p50 from ${first.count} to ${last.count} worksheets:\n`)
+    console.log(`| request | p50 at ${first.count} | p50 at ${last.count} | growth |\n|---|---|---|---|`)
+    for (const [label, p50] of first.rows) {
+      const at = last.rows.find(row => row[0].replace(/\d+/g, 'N') === label.replace(/\d+/g, 'N'))
+      if (at) console.log(`| ${label.replace(/\d+/g, 'N')} | ${p50.toFixed(1)} | ${at[1].toFixed(1)} | ${(at[1] / p50).toFixed(2)}× |`)
+    }
+  }
+}
+
+/** Builds (or reuses) a database of `COUNT` worksheets, measures it, prints the figures and answers the rows. */
+async function measureAt(COUNT: number): Promise<[string, number, number][]> {
   const folder = mkdtempSync(join(tmpdir(), 'chargewell-scale-'))
-  // SCALE_DATABASE=<file> keeps the built database (and its secret) to reuse on the next run.
-  const kept = process.env.SCALE_DATABASE
+  // SCALE_DATABASE=<file> keeps the built database (and its secret) to reuse on the next run; {count}
+  // in it stands for the size.
+  const kept = process.env.SCALE_DATABASE?.replaceAll('{count}', String(COUNT))
   const databasePath = kept ?? join(folder, 'scale.sqlite')
   const secretFile = `${databasePath}.secret`
   // On PostgreSQL (NUXT_DATABASE_URL) the database named there is built afresh each run: give an empty one.
@@ -215,6 +238,7 @@ async function main() {
     console.log(
       `scale: list p95 ${percentile(list, 0.95).toFixed(0)} ms; record p95 ${percentile(record, 0.95).toFixed(0)} ms; trends p95 ${percentile(trends, 0.95).toFixed(0)} ms; pages p95 ${percentile(pages, 0.95).toFixed(0)} ms; export ${exportSeconds.toFixed(1)} s`,
     )
+    return rows
   }
   finally {
     server.kill('SIGTERM')

@@ -1,4 +1,4 @@
-import { seedDemo } from '../../database/seed'
+import { seedDemo } from '../../services/demo-seed'
 
 /** `npm run seed`: migrates the configured database and fills it with the invented demo scenario (idempotent). */
 export default defineTask({

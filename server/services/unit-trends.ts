@@ -4,6 +4,7 @@ import { fitPrechargeTrend, normalisePrechargeReading, type PrechargeFit } from 
 import { specificationPressure } from '../../shared/utils/specification-target'
 import { assessUnitTrend, type UnitTrendFlag } from '../../shared/utils/trend-flags'
 import { Accumulator, Aircraft, PrechargeReading, Specification, TrendAlert, UnitTrend, Worksheet } from '../models'
+import { currentSpecification } from './specifications'
 
 /**
  * Trends that cost nothing to read. When a worksheet is released its readings are stored,
@@ -32,10 +33,6 @@ function normalise(reading: PrechargeReading['reading'], specification: Specific
     if (isEngineInputError(error)) return null
     throw error
   }
-}
-
-export function currentSpecification(partNumber: string, transaction?: Transaction): Promise<Specification | null> {
-  return Specification.findOne({ where: { partNumber, status: 'current' }, transaction })
 }
 
 /** A released worksheet's readings: its as-found, and its as-left when a charge or vent started a new segment. */

@@ -18,11 +18,11 @@ import { assessWorksheetReading } from '../../shared/utils/worksheet-results'
 import { gaugeAccuracy } from '../../shared/utils/tool-accuracy'
 import { cycleCheckLeakRate } from '../../shared/utils/cycle-check'
 import type { ToolSnapshot, WorksheetContent, WorksheetResults } from '../../shared/types/worksheet'
-import { appendAudit, baselineRecords } from './audit-chain'
-import { rebuildTrends } from './trend-store'
-import { install } from '../services/accumulators'
-import { createSignature } from '../services/signatures'
-import { frozenContent } from '../services/worksheets'
+import { appendAudit, baselineRecords } from '../database/audit-chain'
+import { rebuildTrends } from './unit-trends'
+import { install } from './accumulators'
+import { createSignature } from './signatures'
+import { frozenContent } from './worksheets'
 import {
   Accumulator,
   Aircraft,
