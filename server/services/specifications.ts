@@ -10,6 +10,7 @@ import { specificationCsvRow } from '#shared/schemas/csv'
 import { SPECIFICATION_LOCAL_FIELDS, specificationSchema } from '#shared/schemas/specifications'
 import type { SpecificationDto } from '#shared/types/registers'
 import { appendAudit } from '../database/audit-chain'
+import { currentSpecification } from '../database/current-specification'
 import { Specification, SpecificationTablePoint, type User } from '../models'
 import { findOr404, unprocessable } from './records'
 import { specificationChanged } from '../utils/domain-events'
@@ -19,6 +20,8 @@ import { specificationChanged } from '../utils/domain-events'
  * figures is a new revision that supersedes the old (worksheets keep the revision they froze);
  * title, check interval and loss threshold change in place.
  */
+
+export { currentSpecification }
 
 const WITH_POINTS = { include: [{ model: SpecificationTablePoint, as: 'tablePoints' }] }
 
@@ -36,11 +39,6 @@ export function toSpecificationDto(specification: Specification): SpecificationD
     pressure: point.pressure,
   }))
   return { ...fields, tablePoints: points.sort((a, b) => a.temperature - b.temperature) }
-}
-
-/** The revision in force for a part number (with its approved-data table), or null when engineering has none. */
-export function currentSpecification(partNumber: string, transaction?: Transaction): Promise<Specification | null> {
-  return Specification.findOne({ where: { partNumber, status: 'current' }, ...WITH_POINTS, transaction })
 }
 
 export async function listSpecifications(query: z.infer<typeof specificationQuerySchema>) {

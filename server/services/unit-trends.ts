@@ -4,7 +4,7 @@ import { fitPrechargeTrend, normalisePrechargeReading, type PrechargeFit } from 
 import { specificationPressure } from '../../shared/utils/specification-target'
 import { assessUnitTrend, type UnitTrendFlag } from '../../shared/utils/trend-flags'
 import { Accumulator, Aircraft, PrechargeReading, Specification, TrendAlert, UnitTrend, Worksheet } from '../models'
-import { currentSpecification } from './specifications'
+import { currentSpecification } from '../database/current-specification'
 
 /**
  * Trends that cost nothing to read. When a worksheet is released its readings are stored,

@@ -113,23 +113,7 @@ describe('search', () => {
 
   it('a dense search whose matches all lie at the far end of the list pages them all, in order, and back', async () => {
     // 600 copies of a released worksheet dated ten years back: more than the 500 that make a search "dense".
-    const [template] = await sql<Record<string, unknown>>(fileDatabase(), 'SELECT * FROM worksheets WHERE state = ? ORDER BY id LIMIT 1', ['released'])
-    const columns = Object.keys(template!).filter(name => name !== 'id')
-    for (let first = 0; first < 600; first += 100) {
-      const rows = Array.from({ length: 100 }, (_, index) => first + index)
-      const values = rows.flatMap(number => columns.map((name) => {
-        if (name === 'work_order') return `WO-DENSE-${String(number).padStart(3, '0')}`
-        // Written as Sequelize writes a date (SQLite compares them as text).
-        if (name === 'created_at') return `${new Date(Date.UTC(2016, 0, 1) + number * 3_600_000).toISOString().replace('T', ' ').replace('Z', '')} +00:00`
-        if (name === 'client_id') return null
-        return template![name]
-      }))
-      await sql(
-        fileDatabase(),
-        `INSERT INTO worksheets (${columns.join(', ')}) VALUES ${rows.map(() => `(${columns.map(() => '?').join(', ')})`).join(', ')}`,
-        values,
-      )
-    }
+    await insertCopies(600, number => `WO-DENSE-${String(number).padStart(3, '0')}`, Date.UTC(2016, 0, 1), 3_600_000)
     const query = 'q=wo-dense&sort=createdAt&direction=desc&pageSize=25'
     const firstPage = (await api(`/api/worksheets?${query}`, { cookie })).body
     expect(firstPage.total).toBe(600)
@@ -144,23 +128,7 @@ describe('search', () => {
   it('a search of more than 10,000 matches, all at the far end, starts at its first match both ways', async () => {
     // 10,100 copies dated eleven years back: beyond the count's cap, so the first match is read from the
     // search indexes (lower(value), created_at, id) instead of walking the whole list first.
-    const [template] = await sql<Record<string, unknown>>(fileDatabase(), 'SELECT * FROM worksheets WHERE state = ? ORDER BY id LIMIT 1', ['released'])
-    const columns = Object.keys(template!).filter(name => name !== 'id')
-    const count = 10_100
-    for (let first = 0; first < count; first += 200) {
-      const rows = Array.from({ length: Math.min(200, count - first) }, (_, index) => first + index)
-      const values = rows.flatMap(number => columns.map((name) => {
-        if (name === 'work_order') return `WO-VAST-${String(number).padStart(5, '0')}`
-        if (name === 'created_at') return `${new Date(Date.UTC(2015, 0, 1) + number * 60_000).toISOString().replace('T', ' ').replace('Z', '')} +00:00`
-        if (name === 'client_id') return null
-        return template![name]
-      }))
-      await sql(
-        fileDatabase(),
-        `INSERT INTO worksheets (${columns.join(', ')}) VALUES ${rows.map(() => `(${columns.map(() => '?').join(', ')})`).join(', ')}`,
-        values,
-      )
-    }
+    await insertCopies(10_100, number => `WO-VAST-${String(number).padStart(5, '0')}`, Date.UTC(2015, 0, 1), 60_000)
     const newest = (await api('/api/worksheets?q=wo-vast&sort=createdAt&direction=desc&pageSize=25', { cookie })).body
     expect(newest.totalCapped).toBe(true)
     expect(newest.items.map((item: { workOrder: string }) => item.workOrder).slice(0, 3))
@@ -179,6 +147,29 @@ describe('search', () => {
     expect((await api('/api/worksheets?q=_', { cookie })).body.total).toBe(0)
   })
 })
+
+/**
+ * `count` copies of the first released worksheet, written straight into the database: work order
+ * `workOrder(n)`, created `from + n * step` ms (as Sequelize writes a date: SQLite compares them as text).
+ */
+async function insertCopies(count: number, workOrder: (number: number) => string, from: number, step: number) {
+  const [template] = await sql<Record<string, unknown>>(fileDatabase(), 'SELECT * FROM worksheets WHERE state = ? ORDER BY id LIMIT 1', ['released'])
+  const columns = Object.keys(template!).filter(name => name !== 'id')
+  for (let first = 0; first < count; first += 200) {
+    const rows = Array.from({ length: Math.min(200, count - first) }, (_, index) => first + index)
+    const values = rows.flatMap(number => columns.map((name) => {
+      if (name === 'work_order') return workOrder(number)
+      if (name === 'created_at') return `${new Date(from + number * step).toISOString().replace('T', ' ').replace('Z', '')} +00:00`
+      if (name === 'client_id') return null
+      return template![name]
+    }))
+    await sql(
+      fileDatabase(),
+      `INSERT INTO worksheets (${columns.join(', ')}) VALUES ${rows.map(() => `(${columns.map(() => '?').join(', ')})`).join(', ')}`,
+      values,
+    )
+  }
+}
 
 describe('the export', () => {
   it('streams every matching row, with no cap', async () => {
