@@ -138,6 +138,13 @@ describe('curve and verdict', () => {
       8,
     )
     expect(curve.low![0]).toBeLessThan(curve.target[0]!)
+    // The curve's ends against a reference library: CoolProp 8.0.0 (HEOS nitrogen, Span et al. 2000), density
+    // held from 1500 psig at 21 °C (and the band's ends from 1450 and 1550 psig) at the standard sea-level
+    // atmosphere, computed for this test: −55 °C 1010.5506 psig, low 979.5134; 70 °C 1811.3963, high 1873.4933.
+    expect(curve.target[0]).toBeCloseTo(1010.5506, 3)
+    expect(curve.low![0]).toBeCloseTo(979.5134, 3)
+    expect(curve.target[125]).toBeCloseTo(1811.3963, 3)
+    expect(curve.high![125]).toBeCloseTo(1873.4933, 3)
   })
 
   it('says low, high or in limits, by how much, and warns within the gauge accuracy of a limit', () => {

@@ -1,5 +1,8 @@
+import { lusolve, multiply, transpose } from 'mathjs'
+import { linearRegression } from 'simple-statistics'
 import { describe, expect, it } from 'vitest'
 import { leakInterval, leakRate, prechargeTrend } from '../../shared/gas/leakage'
+import { assessUnitTrend } from '../../shared/utils/trend-flags'
 
 const psia = (value: number) => ({ value, unit: 'psi' as const, basis: 'absolute' as const })
 const room = { value: 20, unit: 'C' as const }
@@ -99,7 +102,6 @@ describe('pre-charge loss across recharges, and when it is flagged', () => {
   const tolerance = { minus: 50, plus: 50, unit: 'psi' as const }
 
   it('a recharge mid-series: one common loss rate, by hand −0.5 psi/day, forecast from the latest segment', async () => {
-    const { prechargeTrend } = await import('../../shared/gas/leakage')
     const readings = [at(0, 1000), at(30, 985), at(60, 970), at(60, 1000, true), at(90, 985), at(120, 970)]
     const trend = prechargeTrend({ reference, tolerance, readings })
     expect(trend.lossRatePerDay).toBeCloseTo(-0.5, 9)
@@ -117,8 +119,6 @@ describe('pre-charge loss across recharges, and when it is flagged', () => {
   })
 
   it('agrees with simple-statistics on one segment (the package as a reference)', async () => {
-    const { linearRegression } = await import('simple-statistics')
-    const { prechargeTrend } = await import('../../shared/gas/leakage')
     const values = [1004, 998, 1001, 990, 993, 985]
     const trend = prechargeTrend({ reference, readings: values.map((value, index) => at(index * 45, value)) })
     expect(trend.lossRatePerDay).toBeCloseTo(linearRegression(values.map((value, index) => [index * 45, value])).m, 12)
@@ -127,8 +127,6 @@ describe('pre-charge loss across recharges, and when it is flagged', () => {
   it('agrees with a least-squares fit of the full design matrix (one level per segment, one common slope), by mathjs', async () => {
     // Independent of the engine's closed form: solve the normal equations (XᵀX)β = Xᵀy directly, with mathjs as
     // the reference library (the engine does not use it for this fit).
-    const { lusolve, multiply, transpose } = await import('mathjs')
-    const { prechargeTrend } = await import('../../shared/gas/leakage')
     const readings = [
       at(0, 1003),
       at(40, 985),
@@ -156,8 +154,6 @@ describe('pre-charge loss across recharges, and when it is flagged', () => {
   })
 
   it('flags a steady leak; never a tight unit with noisy readings', async () => {
-    const { prechargeTrend } = await import('../../shared/gas/leakage')
-    const { assessUnitTrend } = await import('../../shared/utils/trend-flags')
     const settings = { lossThresholdPerDay: 0.8, checkIntervalDays: 90, lastServiceAt: at(180, 0).takenAt }
     const leak = prechargeTrend({
       reference,

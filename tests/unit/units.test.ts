@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import { ambientPressure, standardAtmospherePressure } from '../../shared/gas/atmosphere'
 import {
-  convertPressure, kelvinToTemperature, pascalAbsoluteToPressure, pressureToPascalAbsolute, temperatureToKelvin,
-  volumeToCubicMetres,
+  convertPressure, kelvinToTemperature, pascalAbsoluteToPressure, pressureToHectopascals, pressureToPascalAbsolute,
+  stationPressureFromHectopascals, temperatureToKelvin, volumeToCubicMetres,
 } from '../../shared/gas/units'
 
 describe('conversion factors', () => {
@@ -62,7 +62,6 @@ describe('standard atmosphere', () => {
 
 describe('barometer readings', () => {
   it('hectopascals to the engine\'s ambient and back', async () => {
-    const { stationPressureFromHectopascals, pressureToHectopascals } = await import('../../shared/gas/units')
     // Source: NIST SP 811 (2008) App. B.9 — 1 hPa = 100 Pa; the standard atmosphere is 1013.25 hPa.
     expect(stationPressureFromHectopascals(1013.25)).toEqual({ value: 101.325, unit: 'kPa', basis: 'absolute' })
     expect(pressureToHectopascals({ value: 14.695949, unit: 'psi', basis: 'absolute' })).toBeCloseTo(1013.25, 2)

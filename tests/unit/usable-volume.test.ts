@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import { optimumPrecharge, requiredVolume, usableVolume, usableVolumeEnvelope } from '../../shared/gas/usable-volume'
+import {
+  dischargeCurve, optimumPrecharge, requiredVolume, usableVolume, usableVolumeEnvelope,
+} from '../../shared/gas/usable-volume'
 
 const psia = (value: number) => ({ value, unit: 'psi' as const, basis: 'absolute' as const })
 const psig = (value: number) => ({ value, unit: 'psi' as const, basis: 'gauge' as const })
@@ -202,7 +204,6 @@ describe('inverse and optimum', () => {
 
 describe('curves for the sizing plots', () => {
   it('the discharge curve runs from the maximum to the minimum pressure, with applications as steps on it', async () => {
-    const { dischargeCurve } = await import('../../shared/gas/usable-volume')
     const curve = dischargeCurve({
       ...textbook,
       discharge: 'isothermal',
