@@ -74,7 +74,7 @@ function searchCondition(q: string, walkSortOrder = false): WhereOptions {
   const postgres = Worksheet.sequelize!.getDialect() === 'postgres'
   return {
     [Op.or]: SEARCHED.map((name) => {
-      if (postgres) return condition(fn('lower', col(name)), { [Op.like]: `${prefix.replace(/[\\%_]/g, match => `\\${match}`)}%` })
+      if (postgres) return condition(fn('lower', col(name)), { [Op.like]: `${escapeLike(prefix)}%` })
       // SQLite: a range on the expression index; U+10FFFF sorts after every character.
       const column = walkSortOrder ? literal(`+lower(\`${name}\`)`) : fn('lower', col(name))
       return condition(column, { [Op.gte]: prefix, [Op.lt]: `${prefix}\u{10FFFF}` })
@@ -161,7 +161,7 @@ async function firstMatchByDate(q: string, ascending: boolean): Promise<Cursor |
   const found: { created_at: Date | string, id: number }[] = []
   for (const column of SEARCHED) {
     const range = postgres
-      ? `lower(${column}) LIKE ${sequelize.escape(`${prefix.replace(/[\\%_]/g, match => `\\${match}`)}%`)}`
+      ? `lower(${column}) LIKE ${sequelize.escape(`${escapeLike(prefix)}%`)}`
       : `lower(\`${column}\`) >= ${sequelize.escape(prefix)} AND lower(\`${column}\`) < ${sequelize.escape(`${prefix}\u{10FFFF}`)}`
     // The search index, not the date index: SQLite is told so; PostgreSQL is given an order no index
     // holds (it walked the date index backwards through 90,000 rows, 715 ms, for matches at the far end).

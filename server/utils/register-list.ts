@@ -13,9 +13,14 @@ import { Worksheet } from '../models'
  * `q` as a case-insensitive "contains" over some columns, on SQLite and PostgreSQL alike; % and _ are taken as
  * themselves.
  */
+/** Text for a LIKE pattern with its % and _ (and the escape character itself) taken as themselves. */
+export function escapeLike(text: string): string {
+  return text.replace(/[\\%_]/g, match => `\\${match}`)
+}
+
 export function searchWhere(q: string | undefined, fields: string[]): WhereOptions {
   if (!q) return {}
-  const pattern = `%${q.replace(/[\\%_]/g, match => `\\${match}`)}%`
+  const pattern = `%${escapeLike(q)}%`
   return {
     [Op.or]: fields.map(field => ({
       [field]: { [likeOperator()]: literal(`${Worksheet.sequelize!.escape(pattern)} ESCAPE '\\'`) },

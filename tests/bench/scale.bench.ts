@@ -16,6 +16,7 @@ import { randomBytes } from 'node:crypto'
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
+import { setTimeout as pause } from 'node:timers/promises'
 import autocannon from 'autocannon'
 import { freePort } from '../support/ports'
 import { buildScaleDatabase } from './scale-database'
@@ -94,7 +95,7 @@ async function measureAt(COUNT: number): Promise<[string, number, number][]> {
       )
       if (ok) break
       if (tries > 300) throw new Error('The server did not start.')
-      await new Promise(wait => setTimeout(wait, 100))
+      await pause(100)
     }
     const login = async (email: string) => {
       const response = await fetch(`${base}/api/auth/login`, {
@@ -119,14 +120,23 @@ async function measureAt(COUNT: number): Promise<[string, number, number][]> {
     const phases: [string, number][] = []
     const loopNow = async () =>
       (JSON.parse((await get('/api/health')).body).eventLoop?.windows ?? []) as { endedAt: string, maxMs: number }[]
+    /**
+     * The server's longest event-loop delay since `from`: read once the server has closed the window
+     * (five seconds) that holds the last request made, asked for every quarter second until it has.
+     */
+    const longestDelaySince = async (from: string): Promise<number> => {
+      const lastRequest = new Date().toISOString()
+      for (;;) {
+        const windows = await loopNow()
+        if (windows.some(window => window.endedAt > lastRequest))
+          return Math.max(0, ...windows.filter(window => window.endedAt > from).map(window => window.maxMs))
+        await pause(250)
+      }
+    }
     const phase = async <T>(name: string, work: () => Promise<T>): Promise<T> => {
       const from = new Date().toISOString()
       const result = await work()
-      await new Promise(wait => setTimeout(wait, 5500))
-      phases.push([
-        name,
-        Math.max(0, ...(await loopNow()).filter(window => window.endedAt > from).map(window => window.maxMs)),
-      ])
+      phases.push([name, await longestDelaySince(from)])
       return result
     }
     const time = async (label: string, path: string | (() => string), repeats = REPEATS) => {
@@ -138,16 +148,14 @@ async function measureAt(COUNT: number): Promise<[string, number, number][]> {
     }
 
     // Each route's and page's first request loads and compiles its code (Nitro loads handlers lazily):
-    // that blocks the event loop once per server start (up to about 70 ms for a page). Measured apart,
-    // then the windows it fell in are left to pass, so the run's figure is the steady state.
+    // that blocks the event loop once per server start (up to about 70 ms for a page). Read apart, once the
+    // window holding it has closed, so the run's own figure is the steady state.
     const coldFrom = new Date().toISOString()
     const warmUp = ['/api/worksheets?pageSize=25', '/api/worksheets?pageSize=25&q=qx', '/api/worksheets/1',
       '/api/trends/precharge', '/api/trends/cycles', '/trends', '/charge-target', '/worksheets',
       '/api/worksheets/export?state=voided']
     for (const path of warmUp) await get(path)
-    await new Promise(wait => setTimeout(wait, 5500))
-    const coldWindows = (await loopNow()).filter(window => window.endedAt > coldFrom)
-    const cold = Math.max(0, ...coldWindows.map(window => window.maxMs))
+    const cold = await longestDelaySince(coldFrom)
     const measuringFrom = new Date().toISOString()
     const first = JSON.parse((await get('/api/worksheets?pageSize=25')).body)
     // A page deep in the list (about 90 % down, at most 500 pages of 25 on), by the cursor the list hands out.
@@ -228,11 +236,7 @@ async function measureAt(COUNT: number): Promise<[string, number, number][]> {
       }),
     })
     // The worst event-loop delay in the windows that ended while the requests above ran.
-    await new Promise(wait => setTimeout(wait, 5500))
-    const health = JSON.parse((await get('/api/health')).body).eventLoop as
-      { windows: { endedAt: string, maxMs: number }[] } | undefined
-    const during = health?.windows.filter(window => window.endedAt > measuringFrom) ?? []
-    const loop = during.length ? { maxDelayMs: Math.max(...during.map(window => window.maxMs)) } : undefined
+    const loopDelay = await longestDelaySince(measuringFrom)
 
     console.log(`\nChargewell at ${COUNT} worksheets (${REPEATS} sequential requests each; 2-core machine):\n`)
     console.log('| request | p50 ms | p95 ms |\n|---|---|---|')
@@ -244,7 +248,7 @@ async function measureAt(COUNT: number): Promise<[string, number, number][]> {
       `throughput: /api/health ${healthLoad.requests.average.toFixed(0)} req/s, /api/calc/charge-target ${calc.requests.average.toFixed(0)} req/s (${(calc.requests.average / healthLoad.requests.average).toFixed(2)}×); non-2xx ${healthLoad.non2xx + calc.non2xx}`,
     )
     console.log(
-      `event loop: longest delay while measuring ${loop ? `${loop.maxDelayMs.toFixed(0)} ms` : 'not reported'}; per phase: ${phases.map(([name, ms]) => `${name} ${ms} ms`).join(', ')}; first requests after start (code loading) ${cold} ms`,
+      `event loop: longest delay while measuring ${loopDelay} ms; per phase: ${phases.map(([name, ms]) => `${name} ${ms} ms`).join(', ')}; first requests after start (code loading) ${cold} ms`,
     )
     console.log(
       `scale: list p95 ${percentile(list, 0.95).toFixed(0)} ms; record p95 ${percentile(record, 0.95).toFixed(0)} ms; trends p95 ${percentile(trends, 0.95).toFixed(0)} ms; pages p95 ${percentile(pages, 0.95).toFixed(0)} ms; export ${exportSeconds.toFixed(1)} s`,
