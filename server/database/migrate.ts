@@ -9,6 +9,7 @@ import * as traceability from '../migrations/0006-traceability'
 import * as outbox from '../migrations/0007-outbox'
 import * as cycleTrends from '../migrations/0008-cycle-trends'
 import * as millionRows from '../migrations/0009-million-rows'
+import * as trendTableOrder from '../migrations/0010-trend-table-order'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -21,6 +22,7 @@ const MIGRATIONS = [
   { name: '0007-outbox', ...outbox },
   { name: '0008-cycle-trends', ...cycleTrends },
   { name: '0009-million-rows', ...millionRows },
+  { name: '0010-trend-table-order', ...trendTableOrder },
 ]
 
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */

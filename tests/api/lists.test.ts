@@ -142,6 +142,30 @@ describe('search', () => {
     expect(released.items[0].workOrder).toBe('WO-VAST-10099')
   })
 
+  it('a dense search of few values, its newest match beyond the newest rows, starts at that match both ways', async () => {
+    // 2,500 copies twelve years back under 50 work orders, the newest of them not the last value in
+    // alphabetical order: on SQLite the first match is found one value at a time in the search index.
+    const value = (number: number) => `WO-FEW-${String((number * 7) % 50).padStart(2, '0')}`
+    await insertCopies(2500, value, Date.UTC(2014, 0, 1), 3_600_000)
+    const query = 'q=wo-few&sort=createdAt&direction=desc&pageSize=100'
+    const first = (await api(`/api/worksheets?${query}`, { cookie })).body
+    expect(first.total).toBe(2500)
+    const newest = first.items.slice(0, 2).map((item: { workOrder: string }) => item.workOrder)
+    expect(newest).toEqual([value(2499), value(2498)])
+    const forwards = await walk(query, 'next')
+    expect(forwards.ids).toHaveLength(2500)
+    expect(new Set(forwards.ids).size).toBe(2500)
+    const oldest = (await api('/api/worksheets?q=wo-few&sort=createdAt&direction=asc&pageSize=3', { cookie })).body
+    expect(oldest.items.map((item: { workOrder: string }) => item.workOrder)).toEqual([value(0), value(1), value(2)])
+  })
+
+  it('counts a row that matches in two columns once', async () => {
+    await insertCopies(30, number => `TWIN-${number}`, Date.UTC(2013, 0, 1), 60_000, number => ({ serial_number: `TWIN-${number}` }))
+    const found = (await api('/api/worksheets?q=twin-&pageSize=50', { cookie })).body
+    expect(found.total).toBe(30)
+    expect(found.items).toHaveLength(30)
+  })
+
   it('takes % and _ as themselves', async () => {
     expect((await api('/api/worksheets?q=%25', { cookie })).body.total).toBe(0)
     expect((await api('/api/worksheets?q=_', { cookie })).body.total).toBe(0)
@@ -150,14 +174,23 @@ describe('search', () => {
 
 /**
  * `count` copies of the first released worksheet, written straight into the database: work order
- * `workOrder(n)`, created `from + n * step` ms (as Sequelize writes a date: SQLite compares them as text).
+ * `workOrder(n)`, created `from + n * step` ms (as Sequelize writes a date: SQLite compares them as text),
+ * other columns as `more(n)` sets them.
  */
-async function insertCopies(count: number, workOrder: (number: number) => string, from: number, step: number) {
+async function insertCopies(
+  count: number,
+  workOrder: (number: number) => string,
+  from: number,
+  step: number,
+  more: (number: number) => Record<string, unknown> = () => ({}),
+) {
   const [template] = await sql<Record<string, unknown>>(fileDatabase(), 'SELECT * FROM worksheets WHERE state = ? ORDER BY id LIMIT 1', ['released'])
   const columns = Object.keys(template!).filter(name => name !== 'id')
   for (let first = 0; first < count; first += 200) {
     const rows = Array.from({ length: Math.min(200, count - first) }, (_, index) => first + index)
     const values = rows.flatMap(number => columns.map((name) => {
+      const set = more(number)
+      if (name in set) return set[name]
       if (name === 'work_order') return workOrder(number)
       if (name === 'created_at') return `${new Date(from + number * step).toISOString().replace('T', ' ').replace('Z', '')} +00:00`
       if (name === 'client_id') return null
