@@ -18,6 +18,7 @@ async function probeWrite(): Promise<void> {
 
 export async function healthReport(): Promise<{ healthy: boolean, report: Record<string, unknown> }> {
   const common = { engineVersion: ENGINE_VERSION, time: new Date().toISOString(), eventLoop: eventLoopDelay() }
+  if (!isReady()) return { healthy: false, report: { status: 'starting', ...common } }
   try {
     const sequelize = await useDB()
     await sequelize.query('SELECT 1')
