@@ -48,6 +48,22 @@ function referenceBand(
  * in the nitrogen equation of state of Span et al. (2000). The tolerance band's ends are
  * carried to the gas temperature the same way as the target.
  */
+/** A state at the reference temperature carried at constant density to the gas temperature, in the reference's unit. */
+function carryToTemperature(
+  law: ReturnType<typeof gasLaw>,
+  pascals: number,
+  referenceK: number,
+  gasK: number,
+  pressure: Pressure,
+  ambientPa: number,
+): Pressure {
+  if (!(pascals > 0))
+    throw new EngineInputError('The low end of the tolerance band is at or below zero absolute.', 'tolerance.minus')
+  const state = stateAtTemperature(law, stateAt(law, pascals, referenceK), gasK)
+  law.checkInput(gasK, state.pressure, 'gasTemperature')
+  return pascalAbsoluteToPressure(state.pressure, pressure.unit, pressure.basis, ambientPa)
+}
+
 export function chargeTarget(input: ChargeTargetInput): ChargeTargetResult {
   const model = input.model ?? 'real'
   const law = gasLaw(model)
@@ -59,15 +75,8 @@ export function chargeTarget(input: ChargeTargetInput): ChargeTargetResult {
   law.checkInput(referenceK, referencePa, 'reference.pressure')
   law.checkInput(gasK, referencePa, 'gasTemperature')
 
-  const carry = (pascals: number) => {
-    if (!(pascals > 0))
-      throw new EngineInputError('The low end of the tolerance band is at or below zero absolute.', 'tolerance.minus')
-    const state = stateAtTemperature(law, stateAt(law, pascals, referenceK), gasK)
-    law.checkInput(gasK, state.pressure, 'gasTemperature')
-    return pascalAbsoluteToPressure(state.pressure, pressure.unit, pressure.basis, ambientPa)
-  }
   const result: ChargeTargetResult = {
-    target: carry(referencePa),
+    target: carryToTemperature(law, referencePa, referenceK, gasK, pressure, ambientPa),
     ambientPressure: pascalAbsoluteToPressure(ambientPa, pressure.unit, 'absolute', ambientPa),
     inputs: input,
     method: `${describeModel(model)}, constant gas mass and volume${model === 'real' ? ' (constant density)' : ' (Gay-Lussac, p/T = const)'}; ${describeAmbient(input.ambient)}`,
@@ -75,8 +84,8 @@ export function chargeTarget(input: ChargeTargetInput): ChargeTargetResult {
   }
   if (input.tolerance) {
     const band = referenceBand(referencePa, pressure, input.tolerance, ambientPa)
-    result.low = carry(band.low)
-    result.high = carry(band.high)
+    result.low = carryToTemperature(law, band.low, referenceK, gasK, pressure, ambientPa)
+    result.high = carryToTemperature(law, band.high, referenceK, gasK, pressure, ambientPa)
   }
   return result
 }

@@ -62,18 +62,33 @@ const GAUSS_EPSILON = [1, 1, 1, 1]
 const POWER_COUNT = POWER_N.length
 const GAUSS_COUNT = GAUSS_N.length
 
-// τ-dependent factors. Every exponent t is a multiple of 1/8, so τ^t comes from a table of
-// τ^(k/8) built by repeated multiplication (one root instead of 36 powers). Two slots are kept:
-// a charge target alternates between the reference and the gas temperature.
+// τ-dependent factors. Every exponent t is a multiple of 1/8, so τ^t is a whole power of τ times one
+// of τ^(k/8), k < 8, both built by repeated multiplication (one root instead of 36 powers). Two slots
+// are kept: a charge target alternates between the reference and the gas temperature.
 const POWER_T_EIGHTHS = POWER_T.map(exponent => Math.round(exponent * 8))
 const GAUSS_T_EIGHTHS = GAUSS_T.map(exponent => Math.round(exponent * 8))
 const MAX_EIGHTHS = Math.max(...POWER_T_EIGHTHS, ...GAUSS_T_EIGHTHS)
-const tauEighths = new Float64Array(MAX_EIGHTHS + 1)
+const tauFractions = new Float64Array(8)
+const tauWholes = new Float64Array((MAX_EIGHTHS >> 3) + 1)
+
+// The power terms share 22 pairs of δ exponents (d, l) among 32 terms: a density solve, which holds τ
+// fixed, sums each pair's τ factors once per temperature and then evaluates 22 terms per step.
+const PAIR_KEYS = [...new Set(POWER_D.map((d, i) => `${d},${POWER_L[i]}`))]
+const PAIR_COUNT = PAIR_KEYS.length
+const PAIR_D = Int32Array.from(PAIR_KEYS, key => Number(key.split(',')[0]))
+const PAIR_L = Int32Array.from(PAIR_KEYS, key => Number(key.split(',')[1]))
+const PAIR_OF = Int32Array.from(POWER_D, (d, i) => PAIR_KEYS.indexOf(`${d},${POWER_L[i]}`))
+const MAX_D = Math.max(...POWER_D, ...GAUSS_D)
+// A Gaussian term with the previous one's ε and η has its δ exponential too (the first two).
+const GAUSS_SHARES_PREVIOUS = GAUSS_ETA.map((eta, i) =>
+  i > 0 && eta === GAUSS_ETA[i - 1] && GAUSS_EPSILON[i] === GAUSS_EPSILON[i - 1])
 
 interface TauSlot {
   tau: number
   /** n·τ^t of each power term */
   power: Float64Array
+  /** Σ n·τ^t of the power terms of each (d, l) pair */
+  pair: Float64Array
   /** n·τ^t·exp(−β(τ−γ)²) of each Gaussian term */
   gauss: Float64Array
   /** t/τ − 2β(τ−γ) of each Gaussian term */
@@ -83,6 +98,7 @@ interface TauSlot {
 const newSlot = (): TauSlot => ({
   tau: Number.NaN,
   power: new Float64Array(POWER_COUNT),
+  pair: new Float64Array(PAIR_COUNT),
   gauss: new Float64Array(GAUSS_COUNT),
   gaussSlope: new Float64Array(GAUSS_COUNT),
 })
@@ -97,13 +113,23 @@ function prepareTau(tau: number): TauSlot {
     return tauSlots[other]!
   }
   const slot = tauSlots[other]!
+  // τ^(k/8) = τ^⌊k/8⌋ · τ^((k mod 8)/8): two short chains of products instead of one of 128.
   const eighth = Math.sqrt(Math.sqrt(Math.sqrt(tau)))
-  tauEighths[0] = 1
-  for (let k = 1; k <= MAX_EIGHTHS; k++) tauEighths[k] = tauEighths[k - 1]! * eighth
-  for (let i = 0; i < POWER_COUNT; i++) slot.power[i] = POWER_N[i]! * tauEighths[POWER_T_EIGHTHS[i]!]!
+  tauFractions[0] = 1
+  for (let k = 1; k < 8; k++) tauFractions[k] = tauFractions[k - 1]! * eighth
+  tauWholes[0] = 1
+  for (let k = 1; k < tauWholes.length; k++) tauWholes[k] = tauWholes[k - 1]! * tau
+  for (let i = 0; i < POWER_COUNT; i++) {
+    const eighths = POWER_T_EIGHTHS[i]!
+    slot.power[i] = POWER_N[i]! * tauWholes[eighths >> 3]! * tauFractions[eighths & 7]!
+  }
+  slot.pair.fill(0)
+  for (let i = 0; i < POWER_COUNT; i++) slot.pair[PAIR_OF[i]!]! += slot.power[i]!
   for (let i = 0; i < GAUSS_COUNT; i++) {
     const offset = tau - GAUSS_GAMMA[i]!
-    slot.gauss[i] = GAUSS_N[i]! * tauEighths[GAUSS_T_EIGHTHS[i]!]! * Math.exp(-GAUSS_BETA[i]! * offset * offset)
+    const eighths = GAUSS_T_EIGHTHS[i]!
+    const tauT = tauWholes[eighths >> 3]! * tauFractions[eighths & 7]!
+    slot.gauss[i] = GAUSS_N[i]! * tauT * Math.exp(-GAUSS_BETA[i]! * offset * offset)
     slot.gaussSlope[i] = GAUSS_T[i]! / tau - 2 * GAUSS_BETA[i]! * offset
   }
   slot.tau = tau
@@ -205,34 +231,37 @@ export function idealHelmholtz(delta: number, tau: number): { value: number, t: 
   return { value, t, tt }
 }
 
-/** ∂αʳ/∂δ and ∂²αʳ/∂δ² only: all a density solve needs. */
+/** δ^k for k = 0…MAX_D at the δ of the last evaluation. */
+const deltaPowers = new Float64Array(MAX_D + 1)
+
+/** ∂αʳ/∂δ and ∂²αʳ/∂δ² only: all a density solve needs (the power terms by their (d, l) pairs). */
 const deltaDerivatives = { d: 0, dd: 0 }
 function residualDeltaDerivatives(delta: number, tau: number): typeof deltaDerivatives {
   const slot = prepareTau(tau)
   prepareDelta(delta)
+  deltaPowers[0] = 1
+  for (let k = 1; k <= MAX_D; k++) deltaPowers[k] = deltaPowers[k - 1]! * delta
   const inverseDelta = 1 / delta
   let d = 0
   let dd = 0
-  for (let i = 0; i < POWER_COUNT; i++) {
-    const exponentD = POWER_D[i]!
-    const exponentL = POWER_L[i]!
+  for (let g = 0; g < PAIR_COUNT; g++) {
+    const exponentD = PAIR_D[g]!
+    const exponentL = PAIR_L[g]!
     const deltaL = deltaPower[exponentL]!
-    let deltaD = delta
-    for (let k = 1; k < exponentD; k++) deltaD *= delta
-    const term = slot.power[i]! * deltaD * expMinusDeltaPower[exponentL]!
+    const term = slot.pair[g]! * deltaPowers[exponentD]! * expMinusDeltaPower[exponentL]!
     const slope = exponentD - exponentL * deltaL
     d += term * slope
     dd += term * (slope * (slope - 1) - exponentL * exponentL * deltaL)
   }
   d *= inverseDelta
   dd *= inverseDelta * inverseDelta
+  let factor = 0
   for (let i = 0; i < GAUSS_COUNT; i++) {
     const exponentD = GAUSS_D[i]!
     const offset = delta - GAUSS_EPSILON[i]!
     const eta = GAUSS_ETA[i]!
-    let deltaD = delta
-    for (let k = 1; k < exponentD; k++) deltaD *= delta
-    const term = slot.gauss[i]! * deltaD * Math.exp(-eta * offset * offset)
+    if (!GAUSS_SHARES_PREVIOUS[i]) factor = Math.exp(-eta * offset * offset)
+    const term = slot.gauss[i]! * deltaPowers[exponentD]! * factor
     const slopeDelta = exponentD * inverseDelta - 2 * eta * offset
     d += term * slopeDelta
     dd += term * (slopeDelta * slopeDelta - exponentD * inverseDelta * inverseDelta - 2 * eta)
