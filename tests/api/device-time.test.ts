@@ -12,7 +12,7 @@ import { join } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { api, DEMO, DEMO_PASSWORD, signIn } from '../support/api'
 import { baseURL } from '../support/file-server'
-import { AMBIENT, expectedTarget, GAS_TEMPERATURE, toolId, unitAt } from '../support/worksheet-flow'
+import { AMBIENT, targetForReadings, GAS_TEMPERATURE, toolId, unitAt } from '../support/worksheet-flow'
 
 let technician: string
 let admin: string
@@ -55,7 +55,7 @@ describe('a step sent online with the device\'s time', () => {
     expect((await step({ step: 'preparation', systemDepressurised: true, aircraftSafe: true, eyeProtection: true, nitrogenOnly: true })).status).toBe(200)
     expect((await step({ step: 'tools', gaugeId: await toolId(technician, 'GA-0141'), cartId: await toolId(technician, 'NC-07') })).status).toBe(200)
     expect((await step({ step: 'conditions', gasTemperature: GAS_TEMPERATURE, temperatureMethod: 'ambient-shade', minutesSinceOperated: 90, ambient: AMBIENT })).status).toBe(200)
-    const target = expectedTarget(created.content.specification).target
+    const target = targetForReadings(created.content.specification).target
     const low = { value: Math.round(target.value) - 150, unit: target.unit, basis: target.basis }
     const right = { value: Math.round(target.value), unit: target.unit, basis: target.basis }
     expect((await step({ step: 'asFound', reading: low }, minutesAgo(30))).status).toBe(422)
@@ -135,7 +135,7 @@ describe('the record says which times rest on a device\'s clock', () => {
     const specification = reference.specifications.find(
       (item: { partNumber: string }) => item.partNumber === installed.partNumber,
     )
-    const target = expectedTarget(specification).target
+    const target = targetForReadings(specification).target
     const reading = { value: Math.round(target.value), unit: target.unit, basis: target.basis }
     const body = {
       clientId: randomUUID(),

@@ -9,7 +9,7 @@ import { randomUUID } from 'node:crypto'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { api, DEMO, DEMO_PASSWORD, signIn } from '../support/api'
 import { statusCounts } from '../support/counting'
-import { AMBIENT, expectedTarget, GAS_TEMPERATURE, toolId, unitAt } from '../support/worksheet-flow'
+import { AMBIENT, targetForReadings, GAS_TEMPERATURE, toolId, unitAt } from '../support/worksheet-flow'
 import {
   applyReferenceUpdate, digestQuery, referenceDigests, UNIT_BUCKETS, type FieldReferenceUpdate,
 } from '../../shared/utils/field-reference-delta'
@@ -30,7 +30,7 @@ async function offlineWorksheet(registration: string, position: RegExp, gauge = 
   const specification = reference.specifications.find(
     (item: { partNumber: string }) => item.partNumber === installed.partNumber,
   )
-  const target = expectedTarget(specification).target
+  const target = targetForReadings(specification).target
   const reading = { value: Math.round(target.value), unit: target.unit, basis: target.basis }
   return {
     unit,

@@ -23,8 +23,12 @@ export async function toolId(cookie: string, assetNumber: string): Promise<numbe
   return tools.find(tool => tool.assetNumber === assetNumber)!.id
 }
 
-/** The target the engine gives for a worksheet's frozen specification at the test's conditions. */
-export function expectedTarget(
+/**
+ * The target the engine gives for a worksheet's frozen specification at the test's conditions: used to
+ * choose readings in or out of limits, never as the value a test expects (those come from outside the
+ * engine, e.g. tests/api/worksheets.test.ts).
+ */
+export function targetForReadings(
   specification: SpecificationDto | Omit<SpecificationDto, 'status'>,
   gasTemperature = GAS_TEMPERATURE,
 ) {
@@ -64,7 +68,7 @@ export async function fillWorksheet(
     minutesSinceOperated: 90,
     ambient: AMBIENT,
   })
-  const target = expectedTarget(created.body.content.specification).target
+  const target = targetForReadings(created.body.content.specification).target
   const reading = {
     value: Math.round(target.value) + (options.asFoundOffset ?? 0),
     unit: target.unit,
