@@ -233,6 +233,11 @@ async function firstMatchByDate(
 ): Promise<{ start: Cursor | null } | { rows: RawRow[] }> {
   const sqlite = Worksheet.sequelize!.getDialect() === 'sqlite'
   const prefix = q.toLowerCase()
+  if (!sqlite) {
+    // PostgreSQL (measured at 100,000 worksheets): the newest rows first, then each column's range.
+    const rows = await probe()
+    if (rows.length) return { rows }
+  }
   const found: DateKey[] = []
   const unresolved: string[] = []
   for (const column of SEARCHED) {
@@ -258,7 +263,7 @@ async function firstMatchByDate(
 }
 
 /** How many rows of the list's date order a dense search tries before it looks up its first match. */
-const PROBE_ROWS = 2000
+const PROBE_ROWS = { sqlite: 2000, postgres: 5000 }
 
 /**
  * A search's page from the first PROBE_ROWS rows of the list in date order (`limit` rows at most), or an
@@ -268,7 +273,7 @@ const PROBE_ROWS = 2000
 async function probePage(pageFilter: WhereOptions, ascending: boolean, limit: number, order: Order): Promise<RawRow[]> {
   const direction = ascending ? 'ASC' : 'DESC'
   const [bound] = await Worksheet.sequelize!.query<{ created_at: Date | string, id: number }>(
-    `SELECT created_at, id FROM worksheets ORDER BY created_at ${direction}, id ${direction} LIMIT 1 OFFSET ${PROBE_ROWS}`,
+    `SELECT created_at, id FROM worksheets ORDER BY created_at ${direction}, id ${direction} LIMIT 1 OFFSET ${PROBE_ROWS[Worksheet.sequelize!.getDialect() === 'sqlite' ? 'sqlite' : 'postgres']}`,
     { type: QueryTypes.SELECT },
   )
   if (!bound) return []
@@ -372,7 +377,10 @@ export async function listWorksheets(query: WorksheetListQuery): Promise<Workshe
   const plainSearch = !!query.q && query.sort === 'createdAt' && Object.keys(query).every(key =>
     ['q', 'sort', 'direction', 'pageSize', 'cursor'].includes(key) || query[key as keyof typeof query] === undefined)
   // Counted first (a bounded, cheap count): how many match decides how a search is best run.
-  const { total, matches } = plainSearch
+  // Column by column on SQLite (index-only ranges); PostgreSQL visits the table for each counted row
+  // either way, and one count of the four-way condition was the faster there.
+  const sqlite = Worksheet.sequelize!.getDialect() === 'sqlite'
+  const { total, matches } = plainSearch && sqlite
     ? await searchCounts(query.q!, filter)
     : { total: await cappedCount(filter), matches: {} }
   const dense = !!query.q && total > DENSE_MATCHES

@@ -386,12 +386,6 @@ export async function buildScaleDatabase(
     }
     if (pending.length) await flush()
     log(`  ${checkCount + checks.length} pump-cycle checks`)
-    await write(transaction =>
-      appendAudit(
-        { actorId: null, entity: 'system', entityId: 'bench', action: 'history-added', detail: { worksheets: toAdd, copies } },
-        transaction,
-      ),
-    )
     const indexing = Date.now()
     for (const definition of indexes) await sequelize.query(definition)
     log(`  ${indexes.length} indexes built in ${((Date.now() - indexing) / 1000).toFixed(1)} s`)
@@ -400,6 +394,12 @@ export async function buildScaleDatabase(
       for (const table of BULK_TABLES)
         await sequelize.query(`SELECT setval(pg_get_serial_sequence('${table}', 'id'), (SELECT max(id) FROM ${table}))`)
     }
+    await write(transaction =>
+      appendAudit(
+        { actorId: null, entity: 'system', entityId: 'bench', action: 'history-added', detail: { worksheets: toAdd, copies } },
+        transaction,
+      ),
+    )
     log('Deriving the stored pre-charge trends…')
     await rebuildTrends(write, log)
     // The pump-cycle trends are derived by the server when it starts on this database (server/utils/db.ts).
