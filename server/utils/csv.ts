@@ -33,9 +33,9 @@ export function sendCsv(event: H3Event, name: string, rows: Record<string, unkno
 }
 
 /**
- * Rows per piece of text a streamed CSV writes: about 35 KB, so each is an ordinary short-lived string. A
- * thousand rows made 150 KB strings, which V8 keeps in its large-object space until a full collection: a
- * million-row export grew the server's memory by 150 MB before it was collected (30 MB in pieces).
+ * Rows per piece of text a streamed CSV writes: about 35 KB, an ordinary short-lived string rather than
+ * one of V8's large objects. (The export's memory growth itself came from the size of its read batches:
+ * see EXPORT_BATCH in server/services/worksheet-list.ts.)
  */
 const STREAM_PIECE_ROWS = 250
 

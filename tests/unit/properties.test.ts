@@ -148,7 +148,16 @@ describe('sizing properties', () => {
     fc.assert(
       fc.property(sizingArbitrary, (case_) => {
         fc.pre(case_.precharge * 0.8 < case_.max * 0.95)
-        const result = usableVolume({ ...sizingInput(case_), perApplication: { value: 0.01, unit: 'L' } })
+        let result: ReturnType<typeof usableVolume>
+        try {
+          result = usableVolume({ ...sizingInput(case_), perApplication: { value: 0.01, unit: 'L' } })
+        }
+        catch (error) {
+          // A pre-charge that, warmed to the operating temperature, reaches the maximum is refused by design
+          // (1732 psig at −20 °C against 2600 psig at 70 °C, found by a run): not a case for this property.
+          fc.pre(!(error instanceof EngineInputError && /reaches the maximum working pressure/.test(error.message)))
+          throw error
+        }
         for (const value of [
           result.usableVolume.value,
           result.gasVolumeAtMax.value,
