@@ -77,9 +77,18 @@ function searchCondition(q: string, walkSortOrder = false, columns = SEARCHED): 
       if (postgres) return condition(fn('lower', col(name)), { [Op.like]: `${escapeLike(prefix)}%` })
       // SQLite: a range on the expression index; U+10FFFF sorts after every character.
       const column = walkSortOrder ? literal(`+lower(\`${name}\`)`) : fn('lower', col(name))
-      return condition(column, { [Op.gte]: prefix, [Op.lt]: `${prefix}\u{10FFFF}` })
+      return condition(column, { [Op.gte]: prefix, [Op.lt]: `${prefix}${LAST_CHARACTER}` })
     }),
   }
+}
+
+/** Sorts after every character: `value < prefix + LAST_CHARACTER` holds for every value starting with prefix. */
+const LAST_CHARACTER = '\u{10FFFF}'
+
+/** SQLite, raw SQL: lower(column) starts with `prefix`, as a range its search index answers. */
+function sqlitePrefixRange(column: string, prefix: string): string {
+  const sequelize = Worksheet.sequelize!
+  return `lower(\`${column}\`) >= ${sequelize.escape(prefix)} AND lower(\`${column}\`) < ${sequelize.escape(`${prefix}${LAST_CHARACTER}`)}`
 }
 
 /** Above this many matches a search is "dense": one page is found quickly by walking the sort order. */
@@ -169,7 +178,7 @@ async function firstMatchByHops(
   const sequelize = Worksheet.sequelize!
   const direction = ascending ? 'ASC' : 'DESC'
   const low = sequelize.escape(prefix)
-  const high = sequelize.escape(`${prefix}\u{10FFFF}`)
+  const high = sequelize.escape(`${prefix}${LAST_CHARACTER}`)
   // Each step's text: the row's date and zero-padded id (text order is key order), U+0001, then the value.
   const step = `created_at || ' ' || printf('%015d', id) || char(1) || lower(\`${column}\`)`
   const from = `FROM worksheets INDEXED BY worksheets_${column}_search`
@@ -179,7 +188,7 @@ async function firstMatchByHops(
     : `lower(\`${column}\`) >= ${low} AND lower(\`${column}\`) < substr(hop.x, instr(hop.x, char(1)) + 1)`
   const [row] = await sequelize.query<{ values: number, key: string | null }>(
     `WITH RECURSIVE hop(x) AS (
-      SELECT * FROM (SELECT ${step} ${from} WHERE lower(\`${column}\`) >= ${low} AND lower(\`${column}\`) < ${high} ${order})
+      SELECT * FROM (SELECT ${step} ${from} WHERE ${sqlitePrefixRange(column, prefix)} ${order})
       UNION ALL
       SELECT (SELECT ${step} ${from} WHERE ${past} ${order}) FROM hop WHERE hop.x IS NOT NULL
       LIMIT ${HOP_VALUES + 1}
@@ -190,7 +199,7 @@ async function firstMatchByHops(
   if (!row || row.values > HOP_VALUES) return undefined
   if (!row.key) return null
   const split = row.key.lastIndexOf(' ')
-  return [iso(row.key.slice(0, split))!, Number(row.key.slice(split + 1))]
+  return [storedDateIso(row.key.slice(0, split))!, Number(row.key.slice(split + 1))]
 }
 
 /** The newest (or oldest) match of one searched column, read from its range of the search index. */
@@ -200,7 +209,7 @@ async function firstMatchInRange(column: string, prefix: string, ascending: bool
   const direction = ascending ? 'ASC' : 'DESC'
   const range = postgres
     ? `lower(${column}) LIKE ${sequelize.escape(`${escapeLike(prefix)}%`)}`
-    : `lower(\`${column}\`) >= ${sequelize.escape(prefix)} AND lower(\`${column}\`) < ${sequelize.escape(`${prefix}\u{10FFFF}`)}`
+    : sqlitePrefixRange(column, prefix)
   // The search index, not the date index: SQLite is told so; PostgreSQL is given an order no index
   // holds (it walked the date index backwards through 90,000 rows, 715 ms, for matches at the far end).
   const order = postgres
@@ -211,7 +220,7 @@ async function firstMatchInRange(column: string, prefix: string, ascending: bool
     + `ORDER BY ${order} LIMIT 1`,
     { type: QueryTypes.SELECT },
   )
-  return row ? [iso(row.created_at)!, row.id] : null
+  return row ? [storedDateIso(row.created_at)!, row.id] : null
 }
 
 const earlier = ([a, x]: DateKey, [b, y]: DateKey) => (a === b ? x - y : a < b ? -1 : 1)
@@ -277,7 +286,7 @@ async function probePage(pageFilter: WhereOptions, ascending: boolean, limit: nu
     { type: QueryTypes.SELECT },
   )
   if (!bound) return []
-  const before = keysetCondition('createdAt', !ascending, { toward: 'after', value: iso(bound.created_at), id: bound.id }, true)
+  const before = keysetCondition('createdAt', !ascending, { toward: 'after', value: storedDateIso(bound.created_at), id: bound.id }, true)
   const rows = await findRows({ [Op.and]: [pageFilter, before] }, order, limit)
   return rows.length >= limit ? rows : []
 }
@@ -290,10 +299,8 @@ type RawRow = Pick<Worksheet, (typeof LIST_ATTRIBUTES)[number] extends infer Key
   performer?: { name: string | null }
 }
 
-const iso = storedDateIso
-
 function sortValue(row: RawRow, sort: Filters['sort']): string | null {
-  return isDateSort(sort) ? iso(row[sort]) : (row[sort] as string)
+  return isDateSort(sort) ? storedDateIso(row[sort]) : (row[sort] as string)
 }
 
 export function toListItem(row: RawRow, performer = row.performer?.name ?? ''): WorksheetListItem {
@@ -312,9 +319,9 @@ export function toListItem(row: RawRow, performer = row.performer?.name ?? ''): 
     asFoundVerdict: row.asFoundVerdict ?? null,
     asLeftVerdict: row.asLeftVerdict ?? null,
     correctsId: row.correctsId ?? null,
-    performedAt: iso(row.performedAt),
-    releasedAt: iso(row.releasedAt),
-    createdAt: iso(row.createdAt)!,
+    performedAt: storedDateIso(row.performedAt),
+    releasedAt: storedDateIso(row.releasedAt),
+    createdAt: storedDateIso(row.createdAt)!,
   }
 }
 

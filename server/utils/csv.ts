@@ -32,21 +32,11 @@ export function sendCsv(event: H3Event, name: string, rows: Record<string, unkno
   return csvText(columns, rows.map(row => columns.map(column => row[column] ?? '')))
 }
 
-/**
- * Rows per piece of text a streamed CSV writes: about 35 KB, an ordinary short-lived string rather than
- * one of V8's large objects. (The export's memory growth itself came from the size of its read batches:
- * see EXPORT_BATCH in server/services/worksheet-list.ts.)
- */
-const STREAM_PIECE_ROWS = 250
-
-/** A CSV download of any size: the header, then each batch of rows as it comes, in pieces. */
+/** A CSV download of any size: the header, then each batch of rows as it comes. */
 export function streamCsv(event: H3Event, name: string, columns: string[], batches: AsyncIterable<unknown[][]>) {
   download(event, name)
   return sendStream(event, Readable.from((async function* () {
     yield csvText(columns, []).replace(/\r\n$/, '')
-    for await (const rows of batches) {
-      for (let first = 0; first < rows.length; first += STREAM_PIECE_ROWS)
-        yield `\r\n${csvText(columns, rows.slice(first, first + STREAM_PIECE_ROWS), { header: false })}`
-    }
+    for await (const rows of batches) if (rows.length) yield `\r\n${csvText(columns, rows, { header: false })}`
   })()))
 }

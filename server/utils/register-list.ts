@@ -9,15 +9,15 @@ import {
 } from 'sequelize'
 import { Worksheet } from '../models'
 
-/**
- * `q` as a case-insensitive "contains" over some columns, on SQLite and PostgreSQL alike; % and _ are taken as
- * themselves.
- */
 /** Text for a LIKE pattern with its % and _ (and the escape character itself) taken as themselves. */
 export function escapeLike(text: string): string {
   return text.replace(/[\\%_]/g, match => `\\${match}`)
 }
 
+/**
+ * `q` as a case-insensitive "contains" over some columns, on SQLite and PostgreSQL alike; % and _ are taken as
+ * themselves.
+ */
 export function searchWhere(q: string | undefined, fields: string[]): WhereOptions {
   if (!q) return {}
   const pattern = `%${escapeLike(q)}%`

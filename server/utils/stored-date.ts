@@ -16,3 +16,8 @@ export function storedDateIso(value: StoredDate | null | undefined): string | nu
   const utc = SQLITE_UTC.exec(value)
   return utc ? `${utc[1]}T${utc[2]}Z` : new Date(value).toISOString()
 }
+
+/** An instant as Sequelize writes it into a SQLite DATE column (what `storedDateIso` reads back). */
+export function sqliteDateText(value: Date): string {
+  return `${value.toISOString().replace('T', ' ').replace('Z', '')} +00:00`
+}

@@ -6,6 +6,7 @@
 import Papa from 'papaparse'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { api, DEMO, signIn } from '../support/api'
+import { sqliteDateText } from '../../server/utils/stored-date'
 import { sql } from '../support/database'
 import { baseURL, fileDatabase } from '../support/file-server'
 
@@ -192,7 +193,7 @@ async function insertCopies(
       const set = more(number)
       if (name in set) return set[name]
       if (name === 'work_order') return workOrder(number)
-      if (name === 'created_at') return `${new Date(from + number * step).toISOString().replace('T', ' ').replace('Z', '')} +00:00`
+      if (name === 'created_at') return sqliteDateText(new Date(from + number * step))
       if (name === 'client_id') return null
       return template![name]
     }))

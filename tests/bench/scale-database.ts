@@ -10,6 +10,7 @@ import type { WorksheetContent } from '../../shared/types/worksheet'
 import { appendAudit, auditHash, configureAuditSecret, sealOf } from '../../server/database/audit-chain'
 import { isPostgresUrl, openDatabase } from '../../server/database/connection'
 import { hashOfRow, recordHashes, type RecordKindName } from '../../server/database/record-hash'
+import { sqliteDateText } from '../../server/utils/stored-date'
 import { rebuildTrends } from '../../server/services/unit-trends'
 import { createWriteQueue } from '../../server/database/write-queue'
 import {
@@ -88,7 +89,7 @@ function sqliteValue(value: unknown, type: unknown): unknown {
     // DATEONLY columns hold the day; DATE columns the UTC instant as 'YYYY-MM-DD HH:MM:SS.SSS +00:00'.
     return type instanceof DataTypes.DATEONLY
       ? value.toISOString().slice(0, 10)
-      : `${value.toISOString().replace('T', ' ').replace('Z', '')} +00:00`
+      : sqliteDateText(value)
   }
   if (type instanceof DataTypes.JSON) return JSON.stringify(value)
   if (typeof value === 'boolean') return value ? 1 : 0
