@@ -4,7 +4,7 @@ import { useForm } from 'vee-validate'
 import type { ZodType, ZodTypeDef } from 'zod'
 import type { WorksheetStepBody } from '#shared/schemas/worksheet'
 import type { WorksheetView } from '#shared/types/worksheet'
-import { useFieldWorkStore } from '~~/stores/field-work'
+import { useDeviceQueueStore } from '~~/stores/device-queue'
 
 export type StepSaveStatus = 'idle' | 'saving' | 'saved' | 'queued' | 'error'
 
@@ -34,7 +34,7 @@ export function useWorksheetSteps(): WorksheetStepsContext {
  * null once the server has it.
  */
 export function useWorksheetStepSave(worksheetId: number | string) {
-  const drafts = useFieldWorkStore()
+  const drafts = useDeviceQueueStore()
   const steps = useWorksheetSteps()
   return async (body: WorksheetStepBody): Promise<string | null> => {
     const { worksheet, queued } = await drafts.saveStep(worksheetId, body)
@@ -53,7 +53,7 @@ export function useWorksheetStepForm<Body extends WorksheetStepBody>(
   schema: ZodType<Body, ZodTypeDef, unknown>,
   initialValues: () => Partial<Body>,
 ) {
-  const drafts = useFieldWorkStore()
+  const drafts = useDeviceQueueStore()
   const saveStep = useWorksheetStepSave(worksheetId)
   const step = (initialValues() as { step: Body['step'] }).step
   const form = useForm({

@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
 
-export type SignatureCapacity = 'performer' | 'inspector'
+import type { SignatureCapacity } from '../../shared/types/worksheet'
 
 /** An electronic signature: who, in what capacity, to what statement, when, in which round. Never updated. */
 export class Signature extends Model<InferAttributes<Signature>, InferCreationAttributes<Signature>> {

@@ -16,7 +16,7 @@ import {
   Worksheet,
   type User,
 } from '../models'
-import { findOr404, unprocessable } from './records'
+import { findOr404, unprocessable } from './audited-writes'
 
 /**
  * Installed accumulators: registered, corrected, moved between aircraft (each installation is

@@ -5,7 +5,7 @@ import { aircraftCsvRow } from '#shared/schemas/csv'
 import type { FleetOptions } from '#shared/types/fleet'
 import { appendAudit } from '../database/audit-chain'
 import { Accumulator, Aircraft, type User } from '../models'
-import { createAudited, findOr404, updateAudited } from './records'
+import { createAudited, findOr404, updateAudited } from './audited-writes'
 
 /** The fleet register: aircraft, their filters and their CSV. */
 

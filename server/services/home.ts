@@ -1,6 +1,6 @@
 import { Op } from 'sequelize'
 import { can } from '#shared/abilities'
-import type { HomeWork, WorkPile } from '#shared/types/work'
+import type { WaitingWork, WorksheetQueue } from '#shared/types/work'
 import { Tool, TrendAlert, Worksheet, type User } from '../models'
 
 /**
@@ -9,7 +9,7 @@ import { Tool, TrendAlert, Worksheet, type User } from '../models'
  */
 const SHOWN = 5
 
-async function pile(where: Record<string, unknown>, oldestFirst = false): Promise<WorkPile> {
+async function worksheetQueue(where: Record<string, unknown>, oldestFirst = false): Promise<WorksheetQueue> {
   const [count, rows] = await Promise.all([
     Worksheet.count({ where }),
     Worksheet.findAll({
@@ -37,20 +37,20 @@ function alertLink(subject: string): string {
   return kind === 'precharge' ? `/trends/units/${id}` : '/trends'
 }
 
-export async function homeWork(user: User): Promise<HomeWork> {
-  const work: HomeWork = {}
+export async function waitingWorkFor(user: User): Promise<WaitingWork> {
+  const work: WaitingWork = {}
   if (can(user.roles, 'worksheet.perform')) {
     const mine = { performerId: user.id }
     const [drafts, returned, submitted] = await Promise.all([
-      pile({ ...mine, state: 'draft' }),
-      pile({ ...mine, state: 'returned' }),
-      pile({ ...mine, state: 'awaiting-countersign' }),
+      worksheetQueue({ ...mine, state: 'draft' }),
+      worksheetQueue({ ...mine, state: 'returned' }),
+      worksheetQueue({ ...mine, state: 'awaiting-countersign' }),
     ])
     Object.assign(work, { drafts, returned, submitted })
   }
   if (can(user.roles, 'worksheet.inspect')) {
     // Independent inspection: never one's own work.
-    work.toCountersign = await pile({ state: 'awaiting-countersign', performerId: { [Op.ne]: user.id } }, true)
+    work.toCountersign = await worksheetQueue({ state: 'awaiting-countersign', performerId: { [Op.ne]: user.id } }, true)
   }
   if (can(user.roles, 'specification.manage') || can(user.roles, 'study.edit')) {
     const open = await TrendAlert.findAll({ where: { clearedAt: null }, order: [['raisedAt', 'DESC']] })

@@ -1,5 +1,5 @@
 import { UniqueConstraintError, type Transaction } from 'sequelize'
-import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT } from '#shared/types/worksheet'
+import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT, type SignatureCapacity } from '#shared/types/worksheet'
 import type { H3Event } from 'h3'
 import { Signature, User } from '../models'
 import { reauthenticate } from './sessions'
@@ -10,8 +10,7 @@ import { reauthenticate } from './sessions'
  * round — the database's unique index refuses a second whatever the interleaving.
  */
 
-export type Capacity = 'performer' | 'inspector'
-const STATEMENT: Record<Capacity, string> = { performer: PERFORMER_STATEMENT, inspector: INSPECTOR_STATEMENT }
+const STATEMENT: Record<SignatureCapacity, string> = { performer: PERFORMER_STATEMENT, inspector: INSPECTOR_STATEMENT }
 
 /** The signer as stored now; a disabled account cannot sign. */
 export async function currentSigner(id: number): Promise<User> {
@@ -39,7 +38,7 @@ export function confirmSigner(event: H3Event, signer: User, password: string): P
 export async function createSignature(
   worksheet: { id: number, round: number },
   signer: Pick<User, 'id' | 'name' | 'authorisationNumber'>,
-  capacity: Capacity,
+  capacity: SignatureCapacity,
   signedAt: Date,
   transaction: Transaction,
 ): Promise<void> {

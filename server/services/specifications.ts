@@ -12,7 +12,7 @@ import type { SpecificationDto } from '#shared/types/registers'
 import { appendAudit } from '../database/audit-chain'
 import { currentSpecification } from '../database/current-specification'
 import { Specification, SpecificationTablePoint, type User } from '../models'
-import { findOr404, unprocessable } from './records'
+import { findOr404, unprocessable } from './audited-writes'
 import { specificationChanged } from '../utils/domain-events'
 
 /**

@@ -7,7 +7,7 @@ import type { StudyDto, StudyListItem } from '#shared/types/study'
 import { computeStudy } from '#shared/utils/study'
 import { appendAudit } from '../database/audit-chain'
 import { SizingStudy, Specification, User } from '../models'
-import { findOr404, unprocessable } from './records'
+import { findOr404, unprocessable } from './audited-writes'
 
 /**
  * Sizing studies: the server computes the results from the inputs with the engine and freezes

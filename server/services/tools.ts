@@ -7,7 +7,7 @@ import { toolSchema } from '#shared/schemas/tools'
 import type { ToolDto } from '#shared/types/registers'
 import { appendAudit } from '../database/audit-chain'
 import { Tool, type User } from '../models'
-import { createAudited, findOr404, updateAudited } from './records'
+import { createAudited, findOr404, updateAudited } from './audited-writes'
 
 /** Gauges and nitrogen carts, with their calibration state at the station today. */
 

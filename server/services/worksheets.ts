@@ -29,7 +29,7 @@ import { stationDate } from '#shared/utils/station-time'
 import { appendAudit } from '../database/audit-chain'
 import { Accumulator, Aircraft, Attachment, Signature, Tool, User, Worksheet, listColumns } from '../models'
 import { askForCountersign, mailAlerts, tellReturned } from './notifications'
-import { notFound, unprocessable } from './records'
+import { notFound, unprocessable } from './audited-writes'
 import { confirmSigner, createSignature, currentSigner } from './signatures'
 import { currentSpecification, toSpecificationDto } from './specifications'
 import { trendAfterCorrection, trendAfterRelease, trendAfterVoid } from './trends'
@@ -205,7 +205,7 @@ const audit = (
 export const frozenContent = freezeWorksheetContent
 
 /** The unit, its aircraft and its specification in force, or 422 naming what is missing. */
-export async function unitToService(accumulatorId: number) {
+export async function unitForNewWorksheet(accumulatorId: number) {
   const accumulator = await Accumulator.findByPk(accumulatorId, { include: [{ model: Aircraft, as: 'aircraft' }] })
   if (!accumulator?.aircraft) unprocessable('That accumulator is not installed on an aircraft.', 'accumulatorId')
   const specification = await currentSpecification(accumulator.partNumber)
@@ -229,7 +229,7 @@ export async function checkCorrection(actor: Actor, correctsId: number | undefin
 /** A new draft's row: the unit, its aircraft and specification frozen, nothing signed. */
 export function draftAttributes(
   actor: Actor,
-  { accumulator, aircraft, specification }: Awaited<ReturnType<typeof unitToService>>,
+  { accumulator, aircraft, specification }: Awaited<ReturnType<typeof unitForNewWorksheet>>,
   body: WorksheetCreateBody,
   state: { content: WorksheetContent, results: WorksheetResults, performedAt: Date, clientId?: string },
 ) {
@@ -256,7 +256,7 @@ export function draftAttributes(
 
 /** Starts a worksheet for an installed unit, freezing its specification; a correction points at a released one. */
 export async function startWorksheet(actor: Actor, body: WorksheetCreateBody): Promise<WorksheetDto> {
-  const unit = await unitToService(body.accumulatorId)
+  const unit = await unitForNewWorksheet(body.accumulatorId)
   const { accumulator, aircraft, specification } = unit
   await checkCorrection(actor, body.correctsId, accumulator.id)
   const id = await writeTransaction(async (transaction) => {

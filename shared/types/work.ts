@@ -9,19 +9,19 @@ export interface WorkItem {
   state: WorksheetState
   at: string
 }
-export interface WorkPile {
+export interface WorksheetQueue {
   count: number
   items: WorkItem[]
 }
 
 /** What waits for the signed-in user, by what their roles do (`GET /api/me/work`). */
-export interface HomeWork {
+export interface WaitingWork {
   /** Technician: their drafts, work returned to them, their work awaiting someone's countersign. */
-  drafts?: WorkPile
-  returned?: WorkPile
-  submitted?: WorkPile
+  drafts?: WorksheetQueue
+  returned?: WorksheetQueue
+  submitted?: WorksheetQueue
   /** Inspector: others' work awaiting their countersign, oldest first. */
-  toCountersign?: WorkPile
+  toCountersign?: WorksheetQueue
   /** Engineer: units and systems the trends flag. */
   alerts?: { count: number, items: { subject: string, message: string, raisedAt: string, to: string }[] }
   /** Admin: gauges and carts out of calibration, or due within 30 days. */

@@ -117,8 +117,11 @@ export const PERFORMER_STATEMENT
 export const INSPECTOR_STATEMENT
   = 'I certify that I have independently inspected the work recorded here, that I did not perform it, and that I found it satisfactory.'
 
+/** In what capacity a person signs a worksheet: the one who did the work, or the independent inspector. */
+export type SignatureCapacity = 'performer' | 'inspector'
+
 export interface SignatureDto {
-  capacity: 'performer' | 'inspector'
+  capacity: SignatureCapacity
   name: string
   authorisationNumber: string | null
   statement: string

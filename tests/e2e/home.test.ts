@@ -18,8 +18,8 @@ describe('the work list on Home', () => {
   it('an inspector sees the worksheets awaiting their countersign and opens one', async () => {
     const page = await signedInPage(browser, 'inspector@chargewell.test')
     await expect.poll(() => page.getByTestId('work-summary').innerText()).toMatch(/\d+ awaiting your countersign/)
-    const pile = page.getByTestId('work-to-countersign')
-    await pile.getByRole('link', { name: /QX-/ }).first().click()
+    const queue = page.getByTestId('work-to-countersign')
+    await queue.getByRole('link', { name: /QX-/ }).first().click()
     await page.waitForURL(url => /\/worksheets\/\d+$/.test(url.pathname))
     await expect.poll(() => page.getByTestId('countersign-panel').isVisible()).toBe(true)
     await page.context().close()

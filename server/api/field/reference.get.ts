@@ -1,6 +1,6 @@
 import { fieldReferenceQuerySchema } from '#shared/schemas/field'
 import { referenceUpdate } from '#shared/utils/field-reference-delta'
-import { fieldReference } from '../../services/field'
+import { fieldReference } from '../../services/device-sync'
 
 /**
  * What a technician's device keeps to work with no signal: the station's units, their specifications,

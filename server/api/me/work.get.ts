@@ -1,9 +1,9 @@
 import { noQuerySchema } from '#shared/schemas/common'
-import { homeWork } from '../../services/home'
+import { waitingWorkFor } from '../../services/home'
 
 /** What waits for the signed-in user: their drafts and returned work, the countersign queue, alerts, tools due. */
 export default defineEventHandler(async (event) => {
   const user = await requireAbility(event, 'account.own')
   await getValidatedQuery(event, validateWith(noQuerySchema))
-  return homeWork(user)
+  return waitingWorkFor(user)
 })

@@ -1,5 +1,5 @@
 import { offlineWorksheetSchema } from '#shared/schemas/worksheet'
-import { syncOfflineWorksheet } from '../../services/field'
+import { syncOfflineWorksheet } from '../../services/device-sync'
 
 /**
  * A worksheet filled on a device with no signal, sent whole: started once (by the device's id),

@@ -40,7 +40,7 @@ export interface SentWorksheet {
   label: string
 }
 
-interface FieldWork {
+interface DeviceQueue {
   /** What the user has typed into each step's form, saved or not, per worksheet (id or client id). */
   values: Record<string, Partial<Record<StepName, Record<string, unknown>>>>
   /** Steps of server worksheets taken offline, oldest first, with the device's time. */
@@ -67,7 +67,7 @@ export interface RefusedStep {
 const without = <T>(record: Record<string, T>, key: string | number): Record<string, T> =>
   Object.fromEntries(Object.entries(record).filter(([candidate]) => candidate !== String(key)))
 
-const EMPTY: FieldWork = { values: {}, pending: [], local: {}, sent: [], settle: {}, refused: [] }
+const EMPTY: DeviceQueue = { values: {}, pending: [], local: {}, sent: [], settle: {}, refused: [] }
 const plain = <T>(value: T): T => JSON.parse(JSON.stringify(value))
 
 /** No answer at all (the browser's own flag is not consulted: it says "online" on Wi-Fi with no internet). */
@@ -95,10 +95,11 @@ function asApiFailure(refusal: StepRefusal) {
  * with no signal, and what became of them. Kept in IndexedDB (so a reload, a dropped connection or a
  * closed tab loses nothing) and sent when the connection returns. Signing always needs the server.
  */
-export const useFieldWorkStore = defineStore('field-work', () => {
+export const useDeviceQueueStore = defineStore('device-queue', () => {
   const stored = import.meta.client
-    ? useIDBKeyval<FieldWork>('chargewell:field-work', plain(EMPTY), {
-        serializer: { read: raw => ({ ...plain(EMPTY), ...(raw as FieldWork) }), write: plain },
+    // The IndexedDB key keeps its first name: a device updated with work still queued finds it there.
+    ? useIDBKeyval<DeviceQueue>('chargewell:field-work', plain(EMPTY), {
+        serializer: { read: raw => ({ ...plain(EMPTY), ...(raw as DeviceQueue) }), write: plain },
       })
     : { data: ref(plain(EMPTY)), isFinished: shallowRef(true) }
   const state = stored.data

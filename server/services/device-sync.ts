@@ -18,7 +18,7 @@ import {
   draftAttributes,
   frozenContent,
   runStep,
-  unitToService,
+  unitForNewWorksheet,
   worksheetById,
 } from './worksheets'
 
@@ -145,7 +145,7 @@ export async function syncOfflineWorksheet(actor: User, body: OfflineWorksheetBo
   if (known) return answerFor(known, actor, body)
   const receivedAt = Date.now()
   const received = new Date(receivedAt).toISOString()
-  const unit = await unitToService(body.accumulatorId)
+  const unit = await unitForNewWorksheet(body.accumulatorId)
   const { accumulator, aircraft, specification } = unit
   await checkCorrection(actor, body.correctsId, accumulator.id)
   const conflicts: string[] = []

@@ -1,5 +1,5 @@
 import { useFieldReferenceStore } from '~~/stores/field-reference'
-import { useFieldWorkStore } from '~~/stores/field-work'
+import { useDeviceQueueStore } from '~~/stores/device-queue'
 
 /**
  * Work on the ramp: from the start, the device keeps its reference data fresh and sends what
@@ -17,6 +17,6 @@ export default defineNuxtPlugin(() => {
     if (!signedIn) return
     keepSession()
     useFieldReferenceStore()
-    useFieldWorkStore()
+    useDeviceQueueStore()
   }, { immediate: true })
 })
