@@ -1,7 +1,9 @@
+import { defineVitestProject } from '@nuxt/test-utils/config'
 import { defineConfig } from 'vitest/config'
 
 /**
- * Three projects: `unit` (the engine and pure logic, plain Node), `api` (routes against the
+ * Four projects: `unit` (the engine and pure logic, plain Node), `nuxt` (stores and composables
+ * inside the Nuxt runtime, in happy-dom, with the server's answers stubbed), `api` (routes against the
  * built server), `e2e` (real Chromium against it). The app is built and a template database
  * seeded once (tests/support/global-setup.ts); each api and e2e file starts its own server on
  * its own copy of that database (tests/support/file-server.ts).
@@ -12,6 +14,21 @@ export default defineConfig({
       {
         test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' },
       },
+      await defineVitestProject({
+        test: {
+          name: 'nuxt',
+          include: ['tests/nuxt/**/*.test.ts'],
+          environment: 'nuxt',
+          setupFiles: ['tests/nuxt/setup.ts'],
+          environmentOptions: {
+            nuxt: {
+              domEnvironment: 'happy-dom',
+              // Its own build folder: the api and e2e set-up builds the app (.nuxt) while these tests run.
+              overrides: { buildDir: 'node_modules/.cache/nuxt-vitest' },
+            },
+          },
+        },
+      }),
       {
         test: {
           name: 'api',

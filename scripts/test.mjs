@@ -1,4 +1,5 @@
-// `npm test`: every test (engine, routes against the built server, real Chromium) on SQLite, then
+// `npm test`: every test (engine and shared rules, stores and composables in the Nuxt runtime, routes
+// against the built server, real Chromium) on SQLite, then
 // the route tests again on PostgreSQL, on a throwaway cluster this script starts and stops
 // (Debian's postgresql package). Where PostgreSQL is not installed that second leg is skipped
 // with a note, unless CHARGEWELL_REQUIRE_POSTGRES=1 (as .ci/run sets), which makes it a failure.
@@ -17,8 +18,13 @@ if (extra.length === 0) {
     if (status !== 0) process.exit(status ?? 1)
   }
 }
-const sqlite = vitest(extra)
-if (sqlite !== 0 || extra.length) process.exit(sqlite)
+if (extra.length) process.exit(vitest(extra))
+// The fast tiers first (the engine and shared rules, then stores and composables in the Nuxt runtime), on
+// their own: the next step builds the app, which rewrites .nuxt/ while the Nuxt tier would be reading it.
+const fast = vitest(['--project', 'unit', '--project', 'nuxt'])
+if (fast !== 0) process.exit(fast)
+const sqlite = vitest(['--project', 'api', '--project', 'e2e'])
+if (sqlite !== 0) process.exit(sqlite)
 
 const installed = existsSync('/usr/lib/postgresql') && readdirSync('/usr/lib/postgresql').length > 0
 if (!process.env.CHARGEWELL_TEST_DATABASE_URL && !installed) {
