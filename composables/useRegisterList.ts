@@ -29,3 +29,6 @@ export function useRegisterList<Row>(
   const list = useFetch<{ total: number, totalCapped?: boolean, items: Row[] }>(endpoint, { key, query })
   return { ...list, page, sorting, pageSize }
 }
+
+/** A register page's list as `RegisterTable` shows it. */
+export type RegisterList<Row> = ReturnType<typeof useRegisterList<Row>>
