@@ -1,7 +1,7 @@
-import { beforeEach, describe, expect, it, vi } from 'vitest'
+import { beforeEach, describe, expect, it } from 'vitest'
 import { effectScope, ref } from 'vue'
 import { useChargeTarget, type ChargeTargetRequest } from '~~/composables/useChargeTarget'
-import { fakeServer, refusal, type SentRequest } from './fake-server'
+import { fakeServer, refusal, type SentRequest, until } from './fake-server'
 
 /**
  * The safety rule of the charge-target figures (composables/useChargeTarget.ts): a figure is shown only while
@@ -43,14 +43,14 @@ describe('charge-target figures', () => {
     const held = heldAnswers()
     const inputs = ref<ChargeTargetRequest | null>(request(15))
     const figures = withScope(() => useChargeTarget(inputs))
-    await vi.waitFor(() => expect(held.asked(15)).toBe(true))
+    await until(() => expect(held.asked(15)).toBe(true))
     inputs.value = request(30)
     held.answer(15, 1461.7)
-    await vi.waitFor(() => expect(held.asked(30)).toBe(true))
+    await until(() => expect(held.asked(30)).toBe(true))
     expect(figures.target.value).toBeNull()
     expect(figures.pending.value).toBe(true)
     held.answer(30, 1536.2)
-    await vi.waitFor(() => expect(figures.target.value).toEqual({ target: { value: 1536.2, unit: 'psi', basis: 'gauge' } }))
+    await until(() => expect(figures.target.value).toEqual({ target: { value: 1536.2, unit: 'psi', basis: 'gauge' } }))
     expect(figures.answered.value).toEqual(request(30))
     // Back to the first inputs: its old answer is not brought back, a new one is asked for.
     inputs.value = request(15)
@@ -64,7 +64,7 @@ describe('charge-target figures', () => {
       })
     })
     const figures = withScope(() => useChargeTarget(ref(request(95))))
-    await vi.waitFor(() => expect(figures.error.value).toBe('A gas temperature is between −55 and 70 °C.'))
+    await until(() => expect(figures.error.value).toBe('A gas temperature is between −55 and 70 °C.'))
     expect(figures.errorField.value).toBe('gasTemperature')
     expect(figures.target.value).toBeNull()
     expect(figures.pending.value).toBe(false)

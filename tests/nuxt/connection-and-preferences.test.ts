@@ -3,7 +3,7 @@ import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { DEFAULT_PREFERENCES, type UserPreferences } from '#shared/types/user'
 import { useConnectionStore } from '~~/stores/connection'
 import { usePreferencesStore } from '~~/stores/preferences'
-import { fakeServer, refusal } from './fake-server'
+import { fakeServer, refusal, until } from './fake-server'
 
 /**
  * The connection store decides "online" by reaching the server, never by the browser's flag; the preferences
@@ -42,7 +42,7 @@ describe('the connection', () => {
     up = true
     // The browser's "online" event is a hint: the store asks the server before believing it.
     window.dispatchEvent(new Event('online'))
-    await vi.waitFor(() => expect(connection.online).toBe(true))
+    await until(() => expect(connection.online).toBe(true))
   })
 
   it('believes a slow server once, and counts it out of reach at the second time-out in a row', async () => {

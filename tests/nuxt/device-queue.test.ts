@@ -7,7 +7,7 @@ import { useConnectionStore } from '~~/stores/connection'
 import { useDeviceQueueStore } from '~~/stores/device-queue'
 import { useFieldReferenceStore } from '~~/stores/field-reference'
 import { AIRCRAFT, CART, GAUGE, SPECIFICATION, STEPS_TO_AS_FOUND, UNIT } from '../support/worksheet-fixtures'
-import { fakeServer, refusal } from './fake-server'
+import { fakeServer, refusal, until } from './fake-server'
 
 /**
  * The device's queue (stores/device-queue.ts) inside the Nuxt runtime, against a fake server and a fake
@@ -31,7 +31,7 @@ const conditions = STEPS_TO_AS_FOUND[2]!
 async function openQueue() {
   setActivePinia(createPinia())
   const queue = useDeviceQueueStore()
-  await vi.waitFor(() => expect(queue.loaded).toBe(true))
+  await until(() => expect(queue.loaded).toBe(true))
   return queue
 }
 
@@ -83,7 +83,7 @@ describe('the device queue', () => {
     server.network.up = true
     // Nobody presses anything: the heartbeat finds the server, and the queue sends itself.
     expect(await connection.check()).toBe(true)
-    await vi.waitFor(() => expect(queue.ownPending).toEqual([]))
+    await until(() => expect(queue.ownPending).toEqual([]))
     const patches = server.sent.filter(request => request.method === 'PATCH')
     expect(patches.map(request => [request.url, (request.body as WorksheetStepBody).step, request.headers['x-taken-at']]))
       .toEqual([
@@ -151,8 +151,8 @@ describe('the device queue', () => {
     server.network.up = false
     await queue.saveStep(41, tools)
     queue.remember(41, 'asFound', { reading: { value: 1450, unit: 'psi', basis: 'gauge' } })
-    await vi.waitFor(async () => expect((await get('chargewell:field-work'))?.pending).toHaveLength(1))
-    await vi.waitFor(async () => expect((await get('chargewell:field-work'))?.values?.[41]).toBeDefined())
+    await until(async () => expect((await get('chargewell:field-work'))?.pending).toHaveLength(1))
+    await until(async () => expect((await get('chargewell:field-work'))?.values?.[41]).toBeDefined())
     const reloaded = await openQueue()
     expect(reloaded.ownPending.map(entry => entry.body)).toEqual([tools])
     expect(reloaded.draftFor(41, 'asFound')).toEqual({ reading: { value: 1450, unit: 'psi', basis: 'gauge' } })
@@ -170,7 +170,7 @@ describe('a worksheet started with no signal', () => {
     }))
     const queue = await openQueue()
     const reference = useFieldReferenceStore()
-    await vi.waitFor(() => expect(reference.reference?.tools).toHaveLength(2))
+    await until(() => expect(reference.reference?.tools).toHaveLength(2))
     return queue
   }
 

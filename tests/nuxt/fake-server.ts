@@ -47,3 +47,11 @@ export function fakeServer() {
     },
   }
 }
+
+/**
+ * Waits until the check passes: a condition, never a time. The ceiling is generous (vitest's own is 1 s) so a
+ * machine with every core busy only makes a test slower, never a failure.
+ */
+export function until<T>(check: () => T | Promise<T>): Promise<T> {
+  return vi.waitFor(check, { timeout: 15_000, interval: 20 })
+}

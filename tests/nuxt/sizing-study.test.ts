@@ -1,10 +1,10 @@
 import { mountSuspended } from '@nuxt/test-utils/runtime'
 import { createPinia, setActivePinia } from 'pinia'
-import { beforeEach, describe, expect, it, vi } from 'vitest'
+import { beforeEach, describe, expect, it } from 'vitest'
 import { defineComponent, h, nextTick } from 'vue'
 import { useSizingStudy, type SizingStudy } from '~~/composables/useSizingStudy'
 import { SPECIFICATION } from '../support/worksheet-fixtures'
-import { fakeServer } from './fake-server'
+import { fakeServer, until } from './fake-server'
 
 /**
  * A sizing study's data (composables/useSizingStudy.ts) in the Nuxt runtime: a unit switch converts the
@@ -65,13 +65,13 @@ describe('a sizing study', () => {
     const answer = (perApplication: number, method: string) =>
       held.get(perApplication)!({ rows: [], method, engineVersion: '0.0.0' })
     const study = await newStudy()
-    await vi.waitFor(() => expect(held.has(2.5)).toBe(true))
+    await until(() => expect(held.has(2.5)).toBe(true))
     study.setFieldValue('perApplication', 3)
     await nextTick()
     answer(2.5, 'for the earlier inputs')
-    await vi.waitFor(() => expect(held.has(3)).toBe(true))
+    await until(() => expect(held.has(3)).toBe(true))
     expect(study.results.value).toBeNull()
     answer(3, 'for these inputs')
-    await vi.waitFor(() => expect(study.results.value?.method).toBe('for these inputs'))
+    await until(() => expect(study.results.value?.method).toBe('for these inputs'))
   })
 })
