@@ -26,4 +26,14 @@ export default withNuxt(
       ],
     },
   },
+  {
+    // The browser's requests go through the composables of their domain (DEVELOPERS.md, "The browser side").
+    files: ['pages/**/*.vue', 'components/**/*.vue', 'layouts/**/*.vue'],
+    rules: {
+      'no-restricted-globals': ['error', ...['$fetch', 'useFetch', 'useLazyFetch', 'useAsyncData'].map(name => ({
+        name,
+        message: 'Ask the composable of this domain (composables/use<Domain>.ts); pages and components do not fetch.',
+      }))],
+    },
+  },
 )

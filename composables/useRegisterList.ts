@@ -32,3 +32,10 @@ export function useRegisterList<Row>(
 
 /** A register page's list as `RegisterTable` shows it. */
 export type RegisterList<Row> = ReturnType<typeof useRegisterList<Row>>
+
+/** A register's CSV import: every line is checked before any is kept (the refusal lists the lines and fields). */
+export function importRegisterCsv(endpoint: string, file: File) {
+  const form = new FormData()
+  form.append('file', file)
+  return $fetch<{ imported: number }>(endpoint, { method: 'POST', body: form })
+}

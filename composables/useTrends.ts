@@ -1,4 +1,5 @@
-import type { CycleTrendPage, FleetTrendRow } from '#shared/types/trends'
+import type { CycleCheckBody } from '#shared/schemas/cycle-check'
+import type { CycleCheckDto, CycleTrendPage, FleetTrendRow, UnitTrendDto } from '#shared/types/trends'
 
 export interface PrechargeTrendFilters {
   type?: string
@@ -42,4 +43,40 @@ export function useCycleTrends() {
     if (list.data.value?.seriesLeftOut) list.refresh()
   })
   return Object.assign(list, { page })
+}
+
+/** One unit's pre-charge history with its fitted loss rate. */
+export function useUnitTrend(id: number) {
+  return useFetch<UnitTrendDto>(`/api/trends/precharge/${id}`, { key: `unit-trend-${id}` })
+}
+
+/** The latest pump cycle checks, newest first. */
+export function useRecentCycleChecks(pageSize = 20) {
+  return useFetch<{ total: number, items: CycleCheckDto[] }>('/api/cycle-checks', {
+    key: 'cycle-checks-recent',
+    query: { pageSize },
+  })
+}
+
+/**
+ * Records a pump cycle check, or corrects `check` on the version the user saw (a check changed since is refused
+ * with 409). The server computes the implied leak rate it answers with.
+ */
+export function saveCycleCheck(body: CycleCheckBody, check?: Pick<CycleCheckDto, 'id' | 'version'> | null) {
+  return check
+    ? $fetch<CycleCheckDto>(`/api/cycle-checks/${check.id}`, {
+        method: 'PATCH',
+        body,
+        headers: { 'if-match': `"${check.version}"` },
+      })
+    : $fetch<CycleCheckDto>('/api/cycle-checks', { method: 'POST', body })
+}
+
+/** Withdraws a check with a reason: it stays on record and no longer counts in the trend. */
+export function withdrawCycleCheck(check: Pick<CycleCheckDto, 'id' | 'version'>, reason: string) {
+  return $fetch<CycleCheckDto>(`/api/cycle-checks/${check.id}/withdraw`, {
+    method: 'POST',
+    body: { reason },
+    headers: { 'if-match': `"${check.version}"` },
+  })
 }

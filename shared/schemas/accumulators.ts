@@ -33,6 +33,8 @@ export const accumulatorMoveSchema = z
       context.addIssue({ code: 'custom', path: ['position'], message: 'Give the new position.' })
   })
 
+export type AccumulatorMoveBody = z.infer<typeof accumulatorMoveSchema>
+
 export const accumulatorUpdateSchema = z
   .object({
     partNumber: text('part number', 60).optional(),

@@ -13,6 +13,8 @@ export const aircraftSchema = z
     active: z.boolean().default(true),
   })
   .strict()
+export type AircraftBody = z.infer<typeof aircraftSchema>
+
 export const aircraftUpdateSchema = aircraftSchema
   .partial()
   .strict()

@@ -26,6 +26,8 @@ export const toolSchema = z
         context.addIssue({ code: 'custom', path: ['accuracy'], message: 'A gauge needs its accuracy.' })
     }
   })
+export type ToolBody = z.infer<typeof toolSchema>
+
 export const toolUpdateSchema = z
   .object({
     description: text('description', 160).optional(),

@@ -6,6 +6,7 @@ export interface SentRequest {
   method: string
   body: unknown
   headers: Record<string, string>
+  query: Record<string, unknown>
 }
 
 type Handler = (request: SentRequest) => unknown
@@ -25,8 +26,15 @@ export function fakeServer() {
   const sent: SentRequest[] = []
   const network = { up: true }
 
-  vi.stubGlobal('$fetch', async (url: string, options: { method?: string, body?: unknown, headers?: Record<string, string> } = {}) => {
-    const request = { url, method: options.method ?? 'GET', body: options.body, headers: options.headers ?? {} }
+  type Options = { method?: string, body?: unknown, headers?: Record<string, string>, query?: Record<string, unknown> }
+  vi.stubGlobal('$fetch', async (url: string, options: Options = {}) => {
+    const request = {
+      url,
+      method: (options.method ?? 'GET').toUpperCase(),
+      body: options.body,
+      headers: options.headers ?? {},
+      query: { ...options.query },
+    }
     if (!network.up) throw new TypeError('fetch failed')
     sent.push(request)
     const handler = handlers.get(`${request.method} ${url}`)

@@ -5,8 +5,8 @@ import { createServer } from 'node:net'
 // database connection before the test server binds it: the server then cannot listen, and the
 // test waits for it in vain. That happened on the PostgreSQL leg, where pools open many
 // connections while files start their servers.
-const FIRST = 20_000
-const LAST = 32_000
+// CHARGEWELL_TEST_PORTS=from-to moves the whole range, so a second checkout's suite can run beside this one.
+const [FIRST, LAST] = (process.env.CHARGEWELL_TEST_PORTS ?? '20000-32000').split('-').map(Number) as [number, number]
 // Each vitest worker draws from its own slice of that range. A probe only proves a port free at
 // that instant: two files in two workers could both probe the same port free before either server
 // binds it (CI saw EADDRINUSE on a test server's port that way). Within a worker, files run one

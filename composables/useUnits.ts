@@ -1,0 +1,67 @@
+import type { AircraftBody } from '#shared/schemas/aircraft'
+import type { AccumulatorMoveBody } from '#shared/schemas/accumulators'
+import type { AircraftDto, FleetOptions, InstalledUnitDto, UnitDetailDto } from '#shared/types/fleet'
+
+/** The most installed units a page loads at once; the picker asks the register for the rest. */
+export const INSTALLED_UNITS_PAGE = 500
+
+/**
+ * The installed accumulators, for the pickers (aircraft, then position): the first page of a large fleet.
+ * `server: false` where they only fill a filter or a form below the fold: fetched by the browser after
+ * the page shows, so the server neither waits for them nor writes hundreds of units into the page.
+ */
+export function useInstalledUnits(options: { server?: boolean } = {}) {
+  const server = options.server ?? true
+  return useFetch('/api/accumulators', {
+    key: 'installed-units',
+    server,
+    lazy: !server,
+    query: { installed: 'true', pageSize: INSTALLED_UNITS_PAGE },
+    transform: (answer: { items: InstalledUnitDto[] }) => answer.items,
+  })
+}
+
+/** Installed units the register finds for a search beyond the page's list (a picker's typed text). */
+export async function findInstalledUnits(query: Record<string, string | number>) {
+  const answer = await $fetch<{ items: InstalledUnitDto[] }>('/api/accumulators', {
+    query: { installed: 'true', pageSize: 100, ...query },
+  })
+  return answer.items
+}
+
+/** The aircraft types and bases the fleet holds, for filter menus (shared by every page that filters by them). */
+export function useFleetOptions() {
+  return useFetch<FleetOptions>('/api/aircraft/options', { key: 'fleet-options', default: () => ({ types: [], bases: [] }) })
+}
+
+/** The fleet register's two lists, filtered, sorted and paged on the server. */
+export function useAircraftRegister(filters: Record<string, unknown>) {
+  return useRegisterList<AircraftDto>('/api/aircraft', 'aircraft-register', filters, 'registration')
+}
+export function useUnitRegister(filters: Record<string, unknown>) {
+  return useRegisterList<InstalledUnitDto>('/api/accumulators', 'unit-register', filters, 'partNumber')
+}
+
+/** Every aircraft by registration, for a move's destination. */
+export function useAircraftChoices() {
+  return useFetch('/api/aircraft', {
+    key: 'aircraft-all',
+    query: { pageSize: 500 },
+    transform: (answer: { items: { id: number, registration: string }[] }) => answer.items,
+  })
+}
+
+/** Adds an aircraft to the fleet. */
+export function addAircraft(body: AircraftBody) {
+  return $fetch<AircraftDto>('/api/aircraft', { method: 'POST', body })
+}
+
+/** One unit with its history; a move (or removal to stores) is read back from the server. */
+export async function useUnit(id: number) {
+  const unit = await useFetch<UnitDetailDto>(`/api/accumulators/${id}`, { key: `unit-${id}` })
+  async function move(body: AccumulatorMoveBody) {
+    await $fetch(`/api/accumulators/${id}`, { method: 'PATCH', body: { move: body } })
+    await unit.refresh()
+  }
+  return { ...unit, move }
+}
