@@ -12,7 +12,8 @@ export default defineConfig({
   test: {
     projects: [
       {
-        test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' },
+        // Ceilings for a machine with every core busy (a slow run is slower, not red); no test waits on time.
+        test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', testTimeout: 30_000 },
       },
       await defineVitestProject({
         test: {
@@ -20,6 +21,9 @@ export default defineConfig({
           include: ['tests/nuxt/**/*.test.ts'],
           environment: 'nuxt',
           setupFiles: ['tests/nuxt/setup.ts'],
+          // The Nuxt runtime's start took over vitest's 10 s hook ceiling with every core busy.
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
           environmentOptions: {
             nuxt: {
               domEnvironment: 'happy-dom',
@@ -37,6 +41,7 @@ export default defineConfig({
           setupFiles: ['tests/support/file-server.ts'],
           testTimeout: 30_000,
           hookTimeout: 60_000,
+          expect: { poll: { timeout: 15_000 } },
         },
       },
       {
@@ -47,6 +52,9 @@ export default defineConfig({
           setupFiles: ['tests/support/file-server.ts'],
           testTimeout: 90_000,
           hookTimeout: 90_000,
+          // A condition a browser test waits on (expect.poll) gets 20 s, not vitest's 1 s: with every core busy a
+          // countersign (a password hash, a PDF) took longer than 1 s. A condition met early returns at once.
+          expect: { poll: { timeout: 20_000 } },
           // One browser at a time on a 2-core machine.
           fileParallelism: false,
         },

@@ -12,9 +12,19 @@ import type {
 /** A decision on a whole worksheet, taken on the version the user saw. */
 export type WorksheetDecision = 'sign' | 'countersign' | 'return' | 'void' | 'discard'
 
-/** One worksheet as the server holds it; its page, print view and steps share the one key. */
-export function useWorksheet(id: number) {
-  return useFetch<WorksheetDto>(`/api/worksheets/${id}`, { key: `worksheet-${id}` })
+/**
+ * One worksheet as the server holds it; its page, print view and steps share the one key. `reload` reads it
+ * again (no answer leaves it as shown) but never goes back: a read answered after a step's save (a slow
+ * connection, a busy server) carries an older version, and showing it would undo that step on screen.
+ */
+export async function useWorksheet(id: number) {
+  const record = await useFetch<WorksheetDto>(`/api/worksheets/${id}`, { key: `worksheet-${id}` })
+  async function reload() {
+    // No answer (no signal): the record on screen stays as it is.
+    const fresh = await $fetch<WorksheetDto>(`/api/worksheets/${id}`).catch(() => null)
+    if (fresh && (!record.data.value || fresh.version >= record.data.value.version)) record.data.value = fresh
+  }
+  return { ...record, reload }
 }
 
 /**

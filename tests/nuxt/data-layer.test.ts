@@ -6,7 +6,7 @@ import { useMySessions } from '~~/composables/useAccount'
 import { useOutbox } from '~~/composables/useAudit'
 import { useUnit } from '~~/composables/useUnits'
 import { useUsers } from '~~/composables/useUsers'
-import { decideWorksheet, useWorksheetList, type WorksheetFilters } from '~~/composables/useWorksheets'
+import { decideWorksheet, useWorksheet, useWorksheetList, type WorksheetFilters } from '~~/composables/useWorksheets'
 import { errorMessage, isConflict } from '~~/utils/api-errors'
 import { fakeServer, refusal, until } from './fake-server'
 
@@ -89,9 +89,9 @@ describe('changes read back from the server', () => {
     })
     const unit = await inPage(() => useUnit(12))
     expect(unit.data.value?.aircraft?.registration).toBe('QX-FMA')
-    await unit.move({ aircraftId: null, position: null, date: '2026-12-04', reason: 'Removed for overhaul' })
+    await unit.move({ aircraftId: null, date: '2026-12-04', reason: 'Removed for overhaul' })
     expect(server.sent.find(request => request.method === 'PATCH')!.body).toEqual({
-      move: { aircraftId: null, position: null, date: '2026-12-04', reason: 'Removed for overhaul' },
+      move: { aircraftId: null, date: '2026-12-04', reason: 'Removed for overhaul' },
     })
     expect(gets('/api/accumulators/12')).toHaveLength(2)
     expect(unit.data.value?.aircraft).toBeNull()
@@ -110,15 +110,15 @@ describe('changes read back from the server', () => {
   })
 
   it('ending another session re-reads the list; a retried message re-reads the outbox', async () => {
-    let sessions = [{ id: 'a', current: true }, { id: 'b', current: false }]
+    let sessions = [{ id: 1, current: true }, { id: 2, current: false }]
     server.on('GET /api/me/sessions', () => sessions)
-    server.on('DELETE /api/me/sessions/b', () => {
-      sessions = sessions.filter(session => session.id !== 'b')
+    server.on('DELETE /api/me/sessions/2', () => {
+      sessions = sessions.filter(session => session.id !== 2)
       return { ended: true }
     })
     const mine = await inPage(() => useMySessions())
-    await mine.end({ id: 'b' })
-    expect(mine.data.value!.map(session => session.id)).toEqual(['a'])
+    await mine.end({ id: 2 })
+    expect(mine.data.value!.map(session => session.id)).toEqual([1])
 
     let status = 'failed'
     server.on('GET /api/admin/outbox', () => ({ notifications: [{ id: 5, status }] }))
@@ -139,5 +139,23 @@ describe('with no signal', () => {
       .catch((error: unknown) => error)
     expect(errorMessage(failure)).toMatch(/^No connection to Chargewell\./)
     expect(errorMessage(failure)).not.toMatch(/fetch/i)
+  })
+})
+
+describe('a worksheet read again', () => {
+  it('never goes back to an older version than the one on screen (a read answered after a step’s save)', async () => {
+    let stored = { id: 9, version: 3, state: 'draft' }
+    server.on('GET /api/worksheets/9', () => stored)
+    const worksheet = await inPage(() => useWorksheet(9))
+    // A step saved since: the page shows the server's answer, version 4.
+    worksheet.data.value = { ...stored, version: 4 } as unknown as typeof worksheet.data.value
+    await worksheet.reload()
+    expect(worksheet.data.value!.version).toBe(4)
+    stored = { ...stored, version: 5 }
+    await worksheet.reload()
+    expect(worksheet.data.value!.version).toBe(5)
+    server.network.up = false
+    await worksheet.reload()
+    expect(worksheet.data.value!.version).toBe(5)
   })
 })
