@@ -11,6 +11,7 @@ import type { InstalledUnitDto } from '#shared/types/fleet'
 import type { SpecificationDto } from '#shared/types/registers'
 import { SYSTEM_PRESSURE } from '#shared/utils/quantity-entry'
 import { specificationTargetRequest } from '#shared/utils/specification-target'
+import { useFieldReferenceStore } from '~~/stores/field-reference'
 import { usePreferencesStore } from '~~/stores/preferences'
 import type { ChargeTargetRequest } from './useChargeTarget'
 
@@ -56,8 +57,16 @@ export async function useChargeTargetPage() {
   // Asked for first, awaited last: everything that needs the component (the form, provide) is set up before the await.
   const installed = useInstalledUnits()
   const current = useCurrentSpecifications()
-  const { data: units, status: unitsStatus, error: unitsError } = installed
-  const { data: specifications, status: specificationsStatus } = current
+  const { status: unitsStatus } = installed
+  const { status: specificationsStatus } = current
+  // With no signal (nothing fetched), the station's units and their specifications as this device holds them.
+  const device = useFieldReferenceStore()
+  const fromDevice = computed(() => !installed.data.value?.length && !!device.reference)
+  const units = computed(() => fromDevice.value ? device.reference!.units : installed.data.value)
+  const specifications = computed(() => current.data.value ?? device.reference?.specifications)
+  const unitsError = computed(() => units.value?.length ? null : installed.error.value)
+  /** When the device's copy was taken, while the lists shown are that copy. */
+  const deviceCopyAsOf = computed(() => fromDevice.value ? device.reference!.fetchedAt : null)
   const store = usePreferencesStore()
   const preferences = computed(() => store.preferences)
   const temperatureUnit = computed(() => preferences.value.temperatureUnit)
@@ -166,7 +175,7 @@ export async function useChargeTargetPage() {
   const answeredTemperature = computed(() => figures.answered.value?.target.body.gasTemperature.value)
 
   const page = {
-    units, unitsStatus, unitsError, specifications, specificationsStatus, temperatureUnit,
+    units, unitsStatus, unitsError, deviceCopyAsOf, specifications, specificationsStatus, temperatureUnit,
     values, errors, fields, setFieldValue, pickedUnit, selectedUnit, specification,
     request, ...figures, refusalFor, hasInputErrors, stepGasTemperature, asFoundCeiling,
     pressureUnit, pressureLabel, showPressure, answeredTemperature,

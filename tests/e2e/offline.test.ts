@@ -143,6 +143,28 @@ describe('a worksheet with no signal', () => {
   })
 })
 
+describe('Charge target with no signal', () => {
+  it('answers on the device from the station copy it holds, with no fetch text anywhere', { timeout: 180_000 }, async () => {
+    // Not opened online before: the page comes from the app shell, and its lists from the device's copy.
+    const page = await readyForTheRamp()
+    await page.context().setOffline(true)
+    await page.goto('/charge-target')
+    await expect.poll(() => page.getByTestId('connection').innerText()).toMatch(/Offline/)
+    await expect.poll(() => page.getByTestId('device-copy').innerText()).toMatch(/your station's units as this device holds them/)
+    await page.getByRole('button', { name: /QX-FMJ/ }).click()
+    await page.getByRole('button', { name: /System 1/ }).click()
+    await page.getByLabel(/Gas temperature/).fill('12')
+    await expect.poll(() => page.getByTestId('target-value').innerText()).toMatch(/\d{3,}/)
+    const at12 = Number((await page.getByTestId('target-value').innerText()).replace(/[^\d.]/g, ''))
+    // Computed again on the device for the new temperature: a warmer gas needs a higher pre-charge.
+    await page.getByLabel(/Gas temperature/).fill('30')
+    await expect.poll(async () => Number((await page.getByTestId('target-value').innerText()).replace(/[^\d.]/g, '')))
+      .toBeGreaterThan(at12)
+    expect(await page.locator('body').innerText()).not.toMatch(/Failed to fetch|\[GET\]|<no response>/)
+    await page.context().close()
+  })
+})
+
 describe('the unit in front of you', () => {
   it('prints a label whose QR code opens the unit\'s page, and the start page finds a unit by its typed serial', async () => {
     const page = await signedInPage(browser, 'technician@chargewell.test')

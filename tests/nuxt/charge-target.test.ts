@@ -1,78 +1,72 @@
 import { beforeEach, describe, expect, it } from 'vitest'
 import { effectScope, ref } from 'vue'
 import { useChargeTarget, type ChargeTargetRequest } from '~~/composables/useChargeTarget'
-import { fakeServer, refusal, type SentRequest, until } from './fake-server'
+import { fakeServer, until } from './fake-server'
 
 /**
- * The safety rule of the charge-target figures (composables/useChargeTarget.ts): a figure is shown only while
- * the inputs on screen are the ones it was computed for. An answer that arrives after the inputs changed is
- * never shown under the new ones; a refusal shows no figure, and names the field.
+ * The charge-target figures (composables/useChargeTarget.ts) are computed on the device by the shared engine:
+ * the same with the network cut, never a request, and always the figure for the inputs on screen (a refusal
+ * shows no figure and names the field).
  */
 
 let server: ReturnType<typeof fakeServer>
 beforeEach(() => {
   server = fakeServer()
+  server.network.up = false
 })
 
-const request = (celsius: number): ChargeTargetRequest => ({
+const psig = (value: number) => ({ value, unit: 'psi', basis: 'gauge' }) as const
+/** 1500 psig at 21 °C, −50/+50 psi, at a station at 420 ft, carried to the gas temperature given. */
+const request = (celsius: number, asFound?: number): ChargeTargetRequest => ({
   target: {
     route: 'charge-target',
-    body: { gasTemperature: { value: celsius, unit: 'C' }, ambient: { elevation: { value: 420, unit: 'ft' } } },
-  } as unknown as ChargeTargetRequest['target'],
+    body: {
+      reference: { pressure: psig(1500), temperature: { value: 21, unit: 'C' } },
+      gasTemperature: { value: celsius, unit: 'C' },
+      ambient: { elevation: { value: 420, unit: 'ft' } },
+      model: 'real',
+      tolerance: { minus: 50, plus: 50, unit: 'psi' },
+    },
+  },
+  ...(asFound ? { asFound: psig(asFound) } : {}),
 })
-
-/** Answers held until the test lets each go, by the gas temperature asked for. */
-function heldAnswers() {
-  const waiting = new Map<number, (value: unknown) => void>()
-  server.on('POST /api/calc/charge-target', ({ body }: SentRequest) => {
-    const celsius = (body as { gasTemperature: { value: number } }).gasTemperature.value
-    return new Promise(resolve => waiting.set(celsius, resolve))
-  })
-  return {
-    asked: (celsius: number) => waiting.has(celsius),
-    answer: (celsius: number, psig: number) => waiting.get(celsius)!({ target: { value: psig, unit: 'psi', basis: 'gauge' } }),
-  }
-}
 
 function withScope<T>(run: () => T): T {
   return effectScope().run(run)!
 }
 
 describe('charge-target figures', () => {
-  it('never shows an answer under inputs changed since it was asked for', async () => {
-    const held = heldAnswers()
+  it('are computed on the device with no signal: the target, its band and the verdict', async () => {
+    const figures = withScope(() => useChargeTarget(ref(request(15, 1400))))
+    // The engine's part for this page loads with the first request.
+    await until(() => expect(figures.target.value).not.toBeNull())
+    // CoolProp 8.0.0 (HEOS nitrogen, Span et al. 2000): 1500 and 1450 psig at 21 °C carried to 15 °C at constant
+    // density, gauge against the standard atmosphere at 420 ft (US Standard Atmosphere 1976).
+    expect(figures.target.value!.target.value).toBeCloseTo(1461.690691, 5)
+    expect(figures.target.value!.low!.value).toBeCloseTo(1413.170298, 5)
+    expect(figures.assessment.value!.verdict).toBe('low')
+    expect(figures.error.value).toBeNull()
+    expect(server.sent).toEqual([])
+  })
+
+  it('follow the inputs at once: a figure is always the one for the inputs on screen', async () => {
     const inputs = ref<ChargeTargetRequest | null>(request(15))
     const figures = withScope(() => useChargeTarget(inputs))
-    await until(() => expect(held.asked(15)).toBe(true))
+    await until(() => expect(figures.target.value).not.toBeNull())
+    const at15 = figures.target.value!.target.value
     inputs.value = request(30)
-    held.answer(15, 1461.7)
-    await until(() => expect(held.asked(30)).toBe(true))
-    expect(figures.target.value).toBeNull()
-    expect(figures.pending.value).toBe(true)
-    held.answer(30, 1536.2)
-    await until(() => expect(figures.target.value).toEqual({ target: { value: 1536.2, unit: 'psi', basis: 'gauge' } }))
+    expect(figures.target.value!.target.value).toBeGreaterThan(at15)
     expect(figures.answered.value).toEqual(request(30))
-    // Back to the first inputs: its old answer is not brought back, a new one is asked for.
-    inputs.value = request(15)
+    inputs.value = null
     expect(figures.target.value).toBeNull()
+    expect(figures.answered.value).toBeNull()
   })
 
-  it('shows no figure for a refused calculation, and names the field the refusal is about', async () => {
-    server.on('POST /api/calc/charge-target', () => {
-      throw Object.assign(refusal(422, 'A gas temperature is between −55 and 70 °C.'), {
-        data: { message: 'A gas temperature is between −55 and 70 °C.', data: { field: 'gasTemperature' } },
-      })
-    })
-    const figures = withScope(() => useChargeTarget(ref(request(95))))
-    await until(() => expect(figures.error.value).toBe('A gas temperature is between −55 and 70 °C.'))
-    expect(figures.errorField.value).toBe('gasTemperature')
+  it('show no figure for input the engine refuses, and name the field the refusal is about', async () => {
+    const figures = withScope(() => useChargeTarget(ref(request(-190))))
+    await until(() => expect(figures.error.value).not.toBeNull())
     expect(figures.target.value).toBeNull()
-    expect(figures.pending.value).toBe(false)
-  })
-
-  it('is not waiting on anything while the inputs are not a request (a field empty or unusable)', async () => {
-    const figures = withScope(() => useChargeTarget(ref(null)))
-    expect(figures.pending.value).toBe(false)
-    expect(server.sent).toEqual([])
+    expect(figures.error.value).toMatch(/^-190.0 °C is outside the real-gas range/)
+    expect(figures.errorField.value).toMatch(/gasTemperature/)
   })
 })

@@ -3,6 +3,8 @@ import { createPinia, setActivePinia } from 'pinia'
 import { beforeEach, describe, expect, it } from 'vitest'
 import { defineComponent, h, nextTick } from 'vue'
 import { useSizingStudy, type SizingStudy } from '~~/composables/useSizingStudy'
+import { studyFormSchema, toStudyInput } from '#shared/schemas/study'
+import { computeStudy } from '#shared/utils/study'
 import { SPECIFICATION } from '../support/worksheet-fixtures'
 import { fakeServer, until } from './fake-server'
 
@@ -56,22 +58,20 @@ describe('a sizing study', () => {
     })
   })
 
-  it('shows results only for the inputs on screen', async () => {
-    // Each request is held, by the volume per application it was asked for, until the test answers it.
-    const held = new Map<number, (value: unknown) => void>()
-    server.on('POST /api/calc/study', ({ body }) => new Promise((resolve) => {
-      held.set((body as { perApplication: { value: number } }).perApplication.value, resolve)
-    }))
-    const answer = (perApplication: number, method: string) =>
-      held.get(perApplication)!({ rows: [], method, engineVersion: '0.0.0' })
+  it('computes its results on the device with no signal, only ever for the inputs on screen', async () => {
+    server.network.up = false
     const study = await newStudy()
-    await until(() => expect(held.has(2.5)).toBe(true))
+    study.setFieldValue('name', 'Brake accumulator, cold soak')
+    await until(() => expect(study.results.value).not.toBeNull())
+    // The wiring, not the engine (tests/api/studies.test.ts checks a study's figures): the form's study is computed.
+    const forInputs = () => computeStudy(toStudyInput(studyFormSchema.parse(study.values)))
+    expect(study.results.value).toEqual(forInputs())
     study.setFieldValue('perApplication', 3)
     await nextTick()
-    answer(2.5, 'for the earlier inputs')
-    await until(() => expect(held.has(3)).toBe(true))
+    // Until it is computed again, the results of 2.5 in³ per application are not shown under 3.
     expect(study.results.value).toBeNull()
-    answer(3, 'for these inputs')
-    await until(() => expect(study.results.value?.method).toBe('for these inputs'))
+    await until(() => expect(study.results.value).not.toBeNull())
+    expect(study.results.value).toEqual(forInputs())
+    expect(server.sent.filter(request => request.url.startsWith('/api/calc'))).toEqual([])
   })
 })
