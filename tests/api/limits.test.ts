@@ -64,7 +64,11 @@ function rawPost(
         incoming.on('data', (chunk) => {
           text += chunk
         })
-        incoming.on('end', () => done({ status: incoming.statusCode ?? 0, text }))
+        incoming.on('end', () => {
+          done({ status: incoming.statusCode ?? 0, text })
+          // A body the server refused unread is never finished by the caller: the request ends here.
+          outgoing.destroy()
+        })
       },
     )
     outgoing.on('error', fail)
@@ -74,18 +78,14 @@ function rawPost(
 
 describe('body limits and numbers JSON should not carry', () => {
   it('refuses an anonymous 50 MB sign-in body with 413, unread', async () => {
-    const started = performance.now()
+    // Ten bytes of the declared 50 MB are sent and the body is never finished: only a server that answers on the
+    // declared length alone answers at all (one that read the body would wait until the test's time-out).
     const answer = await rawPost(
       '/api/auth/login',
       { 'content-type': 'application/json', 'content-length': String(50 * 1024 * 1024) },
-      (body) => {
-        body.write('{"email":"')
-        // Only a little is sent: the server answers on the declared length alone.
-        setTimeout(() => body.end(), 200)
-      },
+      body => body.write('{"email":"'),
     )
     expect(answer.status).toBe(413)
-    expect(performance.now() - started).toBeLessThan(5000)
   })
 
   it('refuses a body nested 2,000 deep (4 KB) before anything parses or walks it', async () => {
