@@ -47,19 +47,17 @@ describe('an SMTP server that hangs', () => {
     const admin = await signIn(DEMO.admin)
     const queue = await get('/api/worksheets?state=awaiting-countersign&pageSize=5', inspector)
     const id = queue.items[0].id as number
-    const started = Date.now()
     const returned = await fetch(`${server.baseURL}/api/worksheets/${id}/return`, {
       method: 'POST',
       headers: { 'content-type': 'application/json', 'cookie': inspector },
       body: JSON.stringify({ reason: 'Gauge photo missing; attach it and sign again.' }),
     })
-    const took = Date.now() - started
     expect(returned.status).toBe(200)
-    // Not held for the SMTP conversation's time limit (the old behaviour waited at least that long).
-    expect(took).toBeLessThan(SMTP_TIMEOUT_SECONDS * 1000 / 2)
     const mine = async () => ((await get('/api/admin/outbox', admin)).notifications as { subject: string, status: string, attempts: number, nextAttemptAt: string | null, error: string | null }[])
       .find(message => message.subject.startsWith(`Worksheet ${id} returned`))
-    expect(await mine()).toBeTruthy()
+    // Not held for the SMTP conversation (no clock read): answered while no attempt has ended — a request that
+    // waited for the hanging relay would have answered after its first attempt timed out and left its error.
+    expect(await mine()).toMatchObject({ error: null })
     onTestFailed(() => console.error(server.log.join('')))
     // The first attempt times out and is put back with its next try.
     await expect.poll(async () => (await mine())?.attempts ?? 0, { timeout: 30_000 }).toBeGreaterThanOrEqual(1)
