@@ -14,9 +14,9 @@ export function useStudyResults(input: Ref<StudyInput | null>) {
   const key = computed(() => (input.value ? JSON.stringify(input.value) : null))
   watchDebounced(key, (current) => {
     if (!current || !input.value) return
-    const computed = calculate(studyInputSchema, input.value, computeStudy, 'precharge')
-    answer.value = computed.result ? { key: current, results: computed.result } : null
-    failure.value = computed.refusal ? { key: current, message: computed.refusal.message } : null
+    const study = calculate(studyInputSchema, input.value, computeStudy, 'precharge')
+    answer.value = study.result ? { key: current, results: study.result } : null
+    failure.value = study.refusal ? { key: current, message: study.refusal.message } : null
   }, { debounce: 150, immediate: true })
   return {
     results: computed(() => (answer.value && answer.value.key === key.value ? answer.value.results : null)),
