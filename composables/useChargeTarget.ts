@@ -1,8 +1,6 @@
 import type { Calculated } from '#shared/utils/calculation'
 import type { ChargeTargetAnswer, ChargeTargetRequest } from '#shared/utils/charge-target-answer'
 
-export type { ChargeTargetRequest } from '#shared/utils/charge-target-answer'
-
 type Answerer = (request: ChargeTargetRequest) => Calculated<ChargeTargetAnswer>
 
 /**

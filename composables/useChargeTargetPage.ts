@@ -13,7 +13,7 @@ import { SYSTEM_PRESSURE } from '#shared/utils/quantity-entry'
 import { specificationTargetRequest } from '#shared/utils/specification-target'
 import { useFieldReferenceStore } from '~~/stores/field-reference'
 import { usePreferencesStore } from '~~/stores/preferences'
-import type { ChargeTargetRequest } from './useChargeTarget'
+import type { ChargeTargetRequest } from '#shared/utils/charge-target-answer'
 
 /** Gas temperatures a unit is serviced at, in any unit (the field converts and words the limit). */
 export const GAS_TEMPERATURE_LIMITS = {

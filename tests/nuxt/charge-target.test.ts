@@ -1,6 +1,7 @@
 import { beforeEach, describe, expect, it } from 'vitest'
 import { effectScope, ref } from 'vue'
-import { useChargeTarget, type ChargeTargetRequest } from '~~/composables/useChargeTarget'
+import type { ChargeTargetRequest } from '#shared/utils/charge-target-answer'
+import { useChargeTarget } from '~~/composables/useChargeTarget'
 import { fakeServer, until } from './fake-server'
 
 /**
