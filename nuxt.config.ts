@@ -50,7 +50,10 @@ export default defineNuxtConfig({
     /** Set to `fake` (development, tests) to start the built-in SMTP catcher on `fakeSmtpPort`. */
     fakeSmtp: '',
     fakeSmtpPort: 2525,
-    publicUrl: 'http://localhost:3000',
+    /** The address users open (labels, e-mail links); empty: a label uses the address its request came to. */
+    publicUrl: '',
+    /** A production server refuses labels that open localhost; the demo and the tests on one machine allow them. */
+    allowLoopbackLabels: false,
     /** A pump cycle interval this share below the system's baseline is flagged. */
     cycleDropShare: 0.25,
     /** Seals the audit chain's head and signs its exports; empty: derived from the session password. */

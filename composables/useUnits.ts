@@ -65,3 +65,16 @@ export async function useUnit(id: number) {
   }
   return { ...unit, move }
 }
+
+/**
+ * A unit's label code (SVG), as an image address; refused with the server's reason when the address it
+ * would open is one only the server's own machine can reach.
+ */
+export function useUnitLabel(id: number) {
+  return useFetch(`/api/accumulators/${id}/label`, {
+    key: `unit-label-${id}`,
+    responseType: 'text',
+    server: false,
+    transform: (svg: string) => `data:image/svg+xml;charset=utf-8,${encodeURIComponent(svg)}`,
+  })
+}

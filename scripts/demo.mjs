@@ -16,6 +16,8 @@ if (!env.NUXT_SESSION_PASSWORD) {
   writeFileSync('.env', `${existsSync('.env') ? readFileSync('.env', 'utf8').trimEnd() + '\n' : ''}NUXT_SESSION_PASSWORD=${env.NUXT_SESSION_PASSWORD}\n`)
   console.log('Generated a session password into .env (git-ignored).')
 }
+// The demo runs on this machine: its labels may open localhost (a production server refuses them).
+env.NUXT_ALLOW_LOOPBACK_LABELS ??= 'true'
 env.NUXT_FAKE_SMTP ??= env.NUXT_SMTP_URL ? '' : 'fake'
 
 const run = (command, args) => execFileSync(command, args, { stdio: 'inherit', env })

@@ -75,6 +75,11 @@ function isOffline(failure: unknown): boolean {
   return (failure as { statusCode?: number })?.statusCode === undefined
 }
 
+/** The server kept a refused step on the record as observed (a step this device took with no signal). */
+function keptAsObservation(failure: unknown): boolean {
+  return (failure as { data?: { data?: { keptAsObservation?: boolean } } })?.data?.data?.keptAsObservation === true
+}
+
 /** A refusal of the shared step rules, shaped like the server's answer so forms show it the same way. */
 function asApiFailure(refusal: StepRefusal) {
   const field = refusal.field
@@ -257,7 +262,13 @@ export const useDeviceQueueStore = defineStore('device-queue', () => {
           // Never dropped with a passing message: kept until the technician has read why.
           state.value.refused = [
             ...state.value.refused,
-            { ...plain(next), refusedAt: new Date().toISOString(), reason: errorMessage(failure) },
+            {
+              ...plain(next),
+              refusedAt: new Date().toISOString(),
+              reason: errorMessage(failure) + (keptAsObservation(failure)
+                ? ' What you entered is kept on the worksheet as observed, with its time; redo the step.'
+                : ''),
+            },
           ]
         }
         state.value.pending = state.value.pending.filter(entry => entry !== next)

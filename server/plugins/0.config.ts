@@ -21,4 +21,8 @@ export default defineNitroPlugin(() => {
     ].join('\n'))
     process.exit(1)
   }
+  if (!useRuntimeConfig().publicUrl) {
+    console.warn('NUXT_PUBLIC_URL is not set: labels open the address they were printed from, and links in e-mails '
+      + 'point at http://localhost:3000. Set it to the address users open Chargewell at.')
+  }
 })

@@ -242,9 +242,9 @@ export async function importUnits(event: H3Event, actor: User) {
  * The QR code of a unit's label: it opens the unit's page, where its worksheets start. An SVG, crisp at any
  * print size.
  */
-export async function unitLabelCode(id: number): Promise<string> {
+export async function unitLabelCode(id: number, address: string): Promise<string> {
   await findOr404(Accumulator, id, 'Accumulator')
-  return QRCode.toString(`${useRuntimeConfig().publicUrl}/fleet/units/${id}`, {
+  return QRCode.toString(`${address}/fleet/units/${id}`, {
     type: 'svg',
     errorCorrectionLevel: 'M',
     margin: 2,

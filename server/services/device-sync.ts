@@ -3,8 +3,8 @@ import { createHash } from 'node:crypto'
 import { Op, UniqueConstraintError } from 'sequelize'
 import type { OfflineWorksheetBody } from '#shared/schemas/worksheet'
 import type { FieldReference, SyncAnswer } from '#shared/types/field'
-import type { WorksheetContent, WorksheetResults } from '#shared/types/worksheet'
-import { STEP_NAMES, StepRefusal } from '#shared/utils/worksheet-steps'
+import type { WorksheetContent, WorksheetObservation, WorksheetResults } from '#shared/types/worksheet'
+import { observationOf, STEP_NAMES, StepRefusal } from '#shared/utils/worksheet-steps'
 import { appendAudit } from '../database/audit-chain'
 import { canonical } from '../database/record-hash'
 import { Accumulator, Aircraft, Specification, SpecificationTablePoint, Tool, Worksheet, type User } from '../models'
@@ -62,6 +62,11 @@ export async function fieldReference(user: User): Promise<FieldReference> {
     timeZone: String(useRuntimeConfig().public.stationTimeZone),
     fetchedAt: new Date().toISOString(),
   }
+}
+
+/** Every gauge the device chose in its steps. */
+function gaugeIdsOf(body: OfflineWorksheetBody): number[] {
+  return body.steps.flatMap(step => (step.body.step === 'tools' ? [step.body.gaugeId] : []))
 }
 
 /** The steps as the device sent them, in a form that compares equal for the same steps. */
@@ -170,19 +175,37 @@ export async function syncOfflineWorksheet(actor: User, body: OfflineWorksheetBo
     },
     results: {},
   }
+  // Every step is replayed; one the rules refuse is kept on the record as observed (a reading cannot be taken
+  // again), and so is every step that needed it. The steps that stand on their own still count.
+  const observations: WorksheetObservation[] = []
+  const gauges = new Map((await Tool.findAll({ where: { id: gaugeIdsOf(body) } })).map(tool => [tool.id, tool]))
+  let gaugeId: number | undefined
+  let first: { step: string, reason: string } | undefined
   for (const [index, step] of body.steps.entries()) {
+    if (step.body.step === 'tools') gaugeId = step.body.gaugeId
+    const time = { ...times.steps[index]!, receivedAt: received }
     try {
-      state = await runStep(state, step.body, { ...times.steps[index]!, receivedAt: received })
+      state = await runStep(state, step.body, time)
     }
     catch (error) {
       if (!(error instanceof StepRefusal)) throw error
-      const left = body.steps.length - index - 1
-      conflicts.push(
-        `${STEP_NAMES[step.body.step]} was not accepted: ${error.message}`
-        + (left ? ` The ${left} step(s) after it were not taken either: do them again.` : ' Do it again.'),
-      )
-      break
+      const reason = first && error.status === 409
+        ? `Taken after the ${first.step} step was refused, and it cannot count without that step. ${first.reason}`
+        : error.message
+      first ??= { step: STEP_NAMES[step.body.step], reason: error.message }
+      const gauge = gaugeId === undefined ? undefined : gauges.get(gaugeId)
+      const inHand = gauge && { id: gauge.id, assetNumber: gauge.assetNumber }
+      observations.push(observationOf(step.body, time, reason, inHand))
     }
+  }
+  if (first) {
+    const redo = [...new Set(observations.map(observation => STEP_NAMES[observation.step as keyof typeof STEP_NAMES]))]
+    conflicts.push(
+      `${first.step} was not accepted: ${first.reason} What was entered for ${redo.join(', ')} is kept on the record as `
+      + `observed, with its time and why it does not count. Redo ${redo.length === 1 ? 'that step' : 'those steps'}: `
+      + `${redo.join(', ')}.`,
+    )
+    state.content = { ...state.content, observations }
   }
   // Each step works on a copy of the content: the record keeps every conflict found on the way.
   state.content = { ...state.content, offline: { ...state.content.offline!, conflicts: [...conflicts] } }

@@ -12,7 +12,7 @@ import { Notification, User, type Worksheet } from '../models'
  */
 
 const GOVERNS = 'The approved maintenance data and local regulations govern.'
-const link = (path: string) => `${useRuntimeConfig().publicUrl}${path}`
+const link = (path: string) => `${publicAddress()}${path}`
 const activeUsers = (except?: number) =>
   User.findAll({ where: { disabled: false, ...(except ? { id: { [Op.ne]: except } } : {}) } })
 

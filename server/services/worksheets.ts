@@ -20,6 +20,7 @@ import {
 import {
   applyStep,
   missingForSignature,
+  observationOf,
   recomputeResults,
   settleUntil,
   StepRefusal,
@@ -65,15 +66,16 @@ function conflict(message: string): never {
 }
 
 /** A step refused by the shared rules, as the API answers it: the reason on the field it names. */
-function asHttpError(refusal: StepRefusal) {
+function asHttpError(refusal: StepRefusal, more: Record<string, unknown> = {}) {
   const field = refusal.field
+  const data = field
+    ? { field, issues: [{ path: field.split('.'), field, message: refusal.message }], ...refusal.extra, ...more }
+    : more
   return createError({
     status: refusal.status,
     statusMessage: refusal.status === 409 ? 'Conflict' : 'Unprocessable Entity',
     message: refusal.message,
-    data: field
-      ? { field, issues: [{ path: field.split('.'), field, message: refusal.message }], ...refusal.extra }
-      : undefined,
+    data: Object.keys(data).length ? data : undefined,
   })
 }
 
@@ -371,7 +373,12 @@ export function claimedStepTime(
   return { at: claimed, receivedAt: received, claimedAt: claimed }
 }
 
-/** Saves one completed step: the server recomputes every figure from the frozen specification. */
+/**
+ * Saves one completed step: the server recomputes every figure from the frozen specification. A step a
+ * device kept while it had no signal (`takenAt`) that the rules refuse now is still an observation made
+ * at the unit: it is kept on the record as observed, with its time, the gauge in hand and the reason,
+ * and the refusal is answered as usual (with `keptAsObservation`) for the technician to redo the step.
+ */
 export async function saveStep(
   actor: Actor,
   id: number,
@@ -379,7 +386,7 @@ export async function saveStep(
   expectedVersion?: number,
   takenAt?: string,
 ): Promise<WorksheetDto> {
-  await writeTransaction(async (transaction) => {
+  const refusal = await writeTransaction(async (transaction) => {
     const worksheet = await lockedWorksheet(id, transaction)
     enforce(canEdit(actor, worksheet))
     checkVersion(worksheet, expectedVersion)
@@ -389,8 +396,17 @@ export async function saveStep(
       next = await runStep(worksheet, step, time)
     }
     catch (error) {
-      if (error instanceof StepRefusal) throw asHttpError(error)
-      throw error
+      if (!(error instanceof StepRefusal)) throw error
+      if (!takenAt) throw asHttpError(error)
+      const observation = observationOf(step, time, error.message, await gaugeInHand(worksheet.content, step))
+      await compareAndSet(
+        worksheet,
+        EDITABLE_STATES,
+        { content: { ...worksheet.content, observations: [...(worksheet.content.observations ?? []), observation] } },
+        transaction,
+      )
+      await audit(actor, worksheet, 'observation-kept', { step: step.step, deviceClaimedAt: time.claimedAt, reason: error.message }, transaction)
+      return error
     }
     await compareAndSet(
       worksheet,
@@ -399,8 +415,17 @@ export async function saveStep(
       transaction,
     )
     await audit(actor, worksheet, 'step-saved', { step: step.step, ...(time.claimedAt ? { deviceClaimedAt: time.claimedAt } : {}) }, transaction)
+    return null
   })
+  if (refusal) throw asHttpError(refusal, { keptAsObservation: true })
   return worksheetById(id)
+}
+
+/** The gauge a step was taken with: the one it names, or the one the worksheet holds. */
+async function gaugeInHand(content: WorksheetContent, step: WorksheetStepBody) {
+  if (step.step !== 'tools') return content.tools ? { id: content.tools.gauge.id, assetNumber: content.tools.gauge.assetNumber } : undefined
+  const tool = await Tool.findByPk(step.gaugeId)
+  return tool ? { id: tool.id, assetNumber: tool.assetNumber } : undefined
 }
 
 /** The results a signature freezes, recomputed now with this engine; 422 naming what is still missing. */

@@ -36,6 +36,24 @@ export interface StepReceipt {
   claimedAt?: string
 }
 
+/**
+ * A step taken on a device with no signal that the server could not count when it arrived (a gauge whose
+ * calibration had lapsed, a reading that needed a step refused before it). A reading is a one-time
+ * observation: it stays on the record as taken, with its time, the gauge in hand and why it does not count.
+ */
+export interface WorksheetObservation {
+  step: string
+  /** What the technician entered, as the device sent it. */
+  values: Record<string, unknown>
+  /** When it was taken: the device's time within the server's bounds; the device's own claim beside it. */
+  takenAt: string
+  claimedAt?: string
+  receivedAt: string
+  /** The gauge the technician had chosen when it was taken. */
+  gauge?: { id: number, assetNumber: string }
+  reason: string
+}
+
 export interface WorksheetContent {
   specification: Omit<SpecificationDto, 'status'>
   aircraft: { id: number, registration: string, fleetNumber: string, type: string }
@@ -74,6 +92,8 @@ export interface WorksheetContent {
    * on a device with no signal). The record's time is the server's; the claim is kept as the device's word.
    */
   timeline?: StepReceipt[]
+  /** Steps taken on a device that could not count when they reached the server: kept, never dropped. */
+  observations?: WorksheetObservation[]
   finish?: {
     valveLeakCheck: boolean
     capFitted: boolean

@@ -65,6 +65,8 @@ export function describeAuditEvent(
       return `started ${what} as a correction of worksheet ${String(detail.correctsId)}`
     case 'worksheet:step-saved':
       return `saved the ${String(detail.step)} step of ${what}`
+    case 'worksheet:observation-kept':
+      return `kept the ${String(detail.step)} step of ${what} as observed, not counted: ${String(detail.reason ?? '')}`
     case 'worksheet:signed':
       return `signed ${what} as performer`
     case 'worksheet:countersigned':

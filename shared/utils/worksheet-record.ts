@@ -1,5 +1,8 @@
 import { formatPressure, formatPressureValue, formatTemperature, unitLabel } from '../gas/format'
-import { PREPARATION_CHECKS, PREPARATION_LABELS, WORKSHEET_STATE_LABELS, type WorksheetDto } from '../types/worksheet'
+import type { Pressure, Temperature } from '../gas/types'
+import {
+  PREPARATION_CHECKS, PREPARATION_LABELS, WORKSHEET_STATE_LABELS, type WorksheetDto, type WorksheetObservation,
+} from '../types/worksheet'
 import type { displayFormat } from './station-time'
 import type { AssessmentSummary } from './worksheet-results'
 import { STEP_NAMES } from './worksheet-steps'
@@ -42,6 +45,35 @@ function readingLines(label: string, reading: WorksheetDto['content']['asFound']
     ...result.assessment.warnings.map(warning => ({ text: `⚠ ${warning}`, tone: 'warning' as const })),
     { text: `${result.method} · engine ${result.engineVersion}`, tone: 'quiet' },
   ]
+}
+
+/** What a step kept as observed said, in words. */
+function observedWords({ step, values }: WorksheetObservation): string {
+  if (step === 'tools') return 'chose the gauge and nitrogen cart'
+  if (step === 'preparation') return 'confirmed the preparation'
+  const pressure = values.reading as Pressure | undefined
+  const temperature = values.gasTemperature as Temperature | undefined
+  const parts = [
+    pressure?.value !== undefined ? `read ${formatPressure(pressure)}` : '',
+    temperature?.value !== undefined ? `gas temperature ${formatTemperature(temperature)}` : '',
+    typeof values.kind === 'string' ? `action ${values.kind}` : '',
+    typeof values.remarks === 'string' && values.remarks ? `remarks “${values.remarks}”` : '',
+  ].filter(Boolean)
+  return parts.join(', ') || 'entered as the step asks'
+}
+
+/** Steps kept as observed, in words: each with its time, the gauge in hand, and why it does not count. */
+export function observationLines(observations: WorksheetObservation[], display: Display): RecordLine[] {
+  return observations.flatMap(observation => [
+    {
+      label: STEP_NAMES[observation.step as keyof typeof STEP_NAMES] ?? observation.step,
+      text: `${observedWords(observation)} — taken ${display.dateTime(observation.takenAt)}`
+        + `${observation.claimedAt && observation.claimedAt !== observation.takenAt ? ` (the device said ${display.dateTime(observation.claimedAt)})` : ''}`
+        + `${observation.gauge ? ` with gauge ${observation.gauge.assetNumber}` : ''}; received ${display.dateTime(observation.receivedAt)}`,
+      tone: 'warning' as const,
+    },
+    { text: `Not counted: ${observation.reason}`, tone: 'quiet' as const },
+  ])
 }
 
 export function worksheetRecordSections(worksheet: WorksheetDto, display: Display): RecordSection[] {
@@ -133,6 +165,12 @@ export function worksheetRecordSections(worksheet: WorksheetDto, display: Displa
         tone: receipt.claimedAt ? 'normal' as const : 'quiet' as const,
       })),
     })
+  }
+
+  // Steps taken on a device that could not count when they reached the server: never dropped, shown as
+  // observed with their time, the gauge in hand and why, beside the steps that count.
+  if (content.observations?.length) {
+    sections.push({ id: 'observations', title: 'Observed on the device, not counted', lines: observationLines(content.observations, display) })
   }
 
   if (worksheet.attachments.length) {

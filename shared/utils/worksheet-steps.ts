@@ -3,7 +3,9 @@ import type { Pressure } from '../gas/types'
 import { convertPressureDifference } from '../gas/units'
 import type { WorksheetStepBody } from '../schemas/worksheet'
 import type { SpecificationDto, ToolDto } from '../types/registers'
-import { PREPARATION_CHECKS, type ToolSnapshot, type WorksheetContent, type WorksheetResults } from '../types/worksheet'
+import {
+  PREPARATION_CHECKS, type ToolSnapshot, type WorksheetContent, type WorksheetObservation, type WorksheetResults,
+} from '../types/worksheet'
 import { stationDisplay } from './station-time'
 import { gaugeAccuracy } from './tool-accuracy'
 import { assessWorksheetReading } from './worksheet-results'
@@ -271,6 +273,28 @@ export function applyStep(
     }
   }
   return { content, results }
+}
+
+/**
+ * A step the server could not count, kept on the record as observed: what was entered, when (the bounded
+ * time and the device's own claim), the gauge in hand and why it does not count.
+ */
+export function observationOf(
+  step: WorksheetStepBody,
+  time: { at: string, receivedAt: string, claimedAt?: string },
+  reason: string,
+  gauge?: { id: number, assetNumber: string },
+): WorksheetObservation {
+  const { step: name, ...values } = step
+  return {
+    step: name,
+    values: structuredClone(values) as Record<string, unknown>,
+    takenAt: time.at,
+    ...(time.claimedAt ? { claimedAt: time.claimedAt } : {}),
+    receivedAt: time.receivedAt,
+    ...(gauge ? { gauge } : {}),
+    reason,
+  }
 }
 
 /** What still stops the performer from signing; empty when the worksheet is complete. */

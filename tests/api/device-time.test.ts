@@ -80,6 +80,35 @@ describe('a step sent online with the device\'s time', () => {
   })
 })
 
+describe('a step kept on a device and refused when it arrives', () => {
+  it('is kept on the record as observed, with its time, the gauge in hand and why; refused online, nothing is kept', async () => {
+    const { id, step } = await started('QX-FMB', /Normal brake/)
+    expect((await step({ step: 'preparation', systemDepressurised: true, aircraftSafe: true, eyeProtection: true, nitrogenOnly: true })).status).toBe(200)
+    const expired = { step: 'tools', gaugeId: await toolId(technician, 'GA-0098'), cartId: await toolId(technician, 'NC-07') }
+    // Online, the technician sees the refusal at once and nothing is kept.
+    expect((await step(expired)).status).toBe(422)
+    expect((await api(`/api/worksheets/${id}`, { cookie: technician })).body.content.observations).toBeUndefined()
+    // Kept on a device with no signal: the choice and the as-found read after it arrive later.
+    const takenAt = new Date(Date.now() - 20_000).toISOString()
+    const refused = await step(expired, takenAt)
+    expect(refused.status).toBe(422)
+    expect(refused.body.data.keptAsObservation).toBe(true)
+    const reading = { value: 1390, unit: 'psi', basis: 'gauge' }
+    const after = await step({ step: 'asFound', reading }, new Date(Date.now() - 10_000).toISOString())
+    expect(after.status).toBe(409)
+    expect(after.body.data.keptAsObservation).toBe(true)
+    const record = (await api(`/api/worksheets/${id}`, { cookie: technician })).body
+    expect(record.content.tools).toBeUndefined()
+    expect(record.results.asFound).toBeUndefined()
+    expect(record.content.observations).toEqual([
+      expect.objectContaining({ step: 'tools', takenAt, claimedAt: takenAt, gauge: expect.objectContaining({ assetNumber: 'GA-0098' }), reason: expect.stringMatching(/^Gauge GA-0098: calibration expired/) }),
+      expect.objectContaining({ step: 'asFound', values: { reading }, reason: 'Record the gauge and cart first.' }),
+    ])
+    const events = (await api('/api/audit/events?entity=worksheet&pageSize=200', { cookie: admin })).body
+    expect(JSON.stringify(events)).toMatch(/kept the tools step of worksheet [^"]{0,80} as observed, not counted: Gauge GA-0098/)
+  })
+})
+
 describe('a worksheet filled offline with a wrong or tampered clock', () => {
   async function offlineBody(startedAt: string, stepTimes: string[], gauge: string) {
     const unit = await unitAt(technician, 'QX-FMA', /Normal brake/)
@@ -123,6 +152,10 @@ describe('a worksheet filled offline with a wrong or tampered clock', () => {
     expect(answer.status).toBe(201)
     expect(answer.body.conflicts.join(' ')).toMatch(/Tools was not accepted: Gauge GA-0152: calibration expired/)
     expect(answer.body.worksheet.content.timeline[0]).toMatchObject({ step: 'preparation', claimedAt: body.steps[0]!.at })
+    // The refused choice stays on the record as observed, with the device's time for it.
+    expect(answer.body.worksheet.content.observations).toEqual([
+      expect.objectContaining({ step: 'tools', claimedAt: body.steps[1]!.at, gauge: expect.objectContaining({ assetNumber: 'GA-0152' }) }),
+    ])
   })
 })
 

@@ -14,6 +14,7 @@ import {
   applyReferenceUpdate, digestQuery, referenceDigests, UNIT_BUCKETS, type FieldReferenceUpdate,
 } from '../../shared/utils/field-reference-delta'
 import type { FieldReference } from '../../shared/types/field'
+import type { WorksheetObservation } from '../../shared/types/worksheet'
 
 const cookies = {} as Record<keyof typeof DEMO, string>
 beforeAll(async () => {
@@ -193,13 +194,24 @@ describe('a worksheet sent from a device', () => {
     const conflicts = answer.body.conflicts as string[]
     expect(conflicts).toHaveLength(2)
     expect(conflicts[0]).toMatch(/revised since the device loaded it \(rev A → rev /)
-    expect(conflicts[1]).toMatch(/^Tools was not accepted: Gauge GA-0098: calibration expired[\s\S]*The 5 step\(s\) after it were not taken either/)
+    expect(conflicts[1]).toMatch(/^Tools was not accepted: Gauge GA-0098: calibration expired[\s\S]*kept on the record as observed[\s\S]*Redo those steps: Tools, As-found, Action, Settle and as-left, Finish\.$/)
     const record = answer.body.worksheet
     expect(record.content.accumulator.id).toBe(unit.id)
     expect(record.content.offline.conflicts).toEqual(conflicts)
     expect(record.content.preparation).toBeTruthy()
     expect(record.content.tools).toBeUndefined()
     expect(record.results.asFound).toBeUndefined()
+    // The conditions stand on their own and count; nothing read after the refused gauge is dropped.
+    expect(record.content.conditions).toMatchObject({ gasTemperature: GAS_TEMPERATURE, minutesSinceOperated: 90 })
+    const observations = record.content.observations as WorksheetObservation[]
+    expect(observations.map(observation => observation.step)).toEqual(['tools', 'asFound', 'action', 'asLeft', 'finish'])
+    const asFound = observations[1]!
+    const sentAsFound = body.steps.find(step => step.body.step === 'asFound')!
+    expect(asFound.values).toEqual({ reading: sentAsFound.body.reading })
+    expect(asFound.takenAt).toBe(new Date(sentAsFound.at).toISOString())
+    expect(asFound.gauge?.assetNumber).toBe('GA-0098')
+    expect(asFound.reason).toMatch(/^Taken after the Tools step was refused, and it cannot count without that step\. Gauge GA-0098: calibration expired/)
+    expect(observations[0]!.reason).toMatch(/^Gauge GA-0098: calibration expired/)
 
     // The steps are done again online; signing waits for the technician to say they read what changed.
     const step = (stepBody: object) =>

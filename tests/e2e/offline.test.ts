@@ -113,7 +113,7 @@ describe('a worksheet with no signal', () => {
     await page.context().close()
   })
 
-  it('shows a conflict: the gauge\'s calibration lapsed before it was used — the later steps must be done again', { timeout: 180_000 }, async () => {
+  it('a gauge whose calibration lapsed while the device was out: nothing read with it is lost, only what the rules require is redone', { timeout: 180_000 }, async () => {
     const page = await readyForTheRamp()
     // The register changes while the device is out: GA-0152's calibration is now recorded as due last week.
     const admin = await signIn(DEMO.admin)
@@ -126,19 +126,31 @@ describe('a worksheet with no signal', () => {
     await page.getByLabel(/Minutes since/).fill('45')
     await page.getByRole('button', { name: 'Save and continue' }).click()
     await expect.poll(() => page.getByRole('heading', { name: /^4 · As-found/ }).isVisible()).toBe(true)
+    // The as-found is read with the gauge the device still believes in: a one-time observation.
+    await page.getByLabel(/As-found reading/).fill('1390')
+    await page.getByRole('button', { name: 'Record as-found' }).click()
+    await expect.poll(() => page.getByTestId('result-as-found').innerText()).toMatch(/Target/)
     await page.context().setOffline(false)
     await page.goto('/device')
     await expect.poll(async () => page.getByText(/change\(s\) to review/).count(), { timeout: 20_000 }).toBeGreaterThan(0)
     await page.getByRole('link', { name: /Worksheet \d+/ }).first().click()
     await page.waitForURL(url => /\/worksheets\/\d+$/.test(url.pathname))
-    await expect.poll(() => page.getByTestId('sync-review').innerText()).toMatch(/Tools was not accepted: Gauge GA-0152: calibration expired[\s\S]*The 1 step\(s\) after it were not taken either: do them again/)
-    // Nothing after the refused step was taken: the tools step is open again.
+    await expect.poll(() => page.getByTestId('sync-review').innerText()).toMatch(/Tools was not accepted: Gauge GA-0152: calibration expired[\s\S]*kept on the record as observed[\s\S]*Redo those steps: Tools, As-found\./)
+    // The as-found stays on the record, with its time, the gauge and why it does not count; the conditions count.
+    await expect.poll(() => page.getByTestId('observations').innerText()).toMatch(/As-found: read 1,?390(\.0)? psig[\s\S]*with gauge GA-0152[\s\S]*Not counted: Taken after the Tools step was refused/)
     const id = Number(new URL(page.url()).pathname.split('/').pop())
     const record = (await api(`/api/worksheets/${id}`, { cookie: await signIn(DEMO.technician) })).body
     expect(record.content.tools).toBeUndefined()
-    expect(record.content.conditions).toBeUndefined()
+    expect(record.content.conditions.gasTemperature).toMatchObject({ value: 10 })
+    expect(record.content.observations.map((observation: { step: string }) => observation.step)).toEqual(['tools', 'asFound'])
+    expect(record.content.observations[1].values.reading).toMatchObject({ value: 1390 })
     await page.getByRole('button', { name: /I have read this/ }).click()
     await expect.poll(() => page.getByTestId('sync-review').count()).toBe(0)
+    // The tools step is open again, and the lapsed gauge is not shown as chosen.
+    await page.getByRole('navigation', { name: 'Worksheet steps' }).getByRole('button', { name: /Tools/ }).click()
+    const lapsed = page.getByRole('button', { name: /GA-0152/ })
+    await expect.poll(() => lapsed.getAttribute('data-blocked')).toBe('true')
+    expect(await lapsed.getAttribute('aria-pressed')).toBe('false')
     await page.context().close()
   })
 })

@@ -57,6 +57,7 @@ await setup({
     NUXT_FAKE_SMTP: 'fake',
     NUXT_FAKE_SMTP_PORT: String(await freePort()),
     NUXT_PUBLIC_URL: `http://127.0.0.1:${port}`,
+    NUXT_ALLOW_LOOPBACK_LABELS: 'true',
   },
 })
 

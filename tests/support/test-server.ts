@@ -67,6 +67,7 @@ export async function startTestServer(env: Record<string, string> = {}): Promise
         NUXT_FAKE_SMTP: 'fake',
         NUXT_FAKE_SMTP_PORT: String(smtpPort),
         NUXT_PUBLIC_URL: baseURL,
+        NUXT_ALLOW_LOOPBACK_LABELS: 'true',
         ...env,
       },
       stdio: ['ignore', 'pipe', 'pipe'],
