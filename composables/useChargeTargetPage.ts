@@ -55,18 +55,13 @@ function curvesFor(
  */
 export async function useChargeTargetPage() {
   // Asked for first, awaited last: everything that needs the component (the form, provide) is set up before the await.
-  const installed = useInstalledUnits()
+  const station = useStationUnits()
+  const { installed, status: unitsStatus, units, error: unitsError, asOf: deviceCopyAsOf } = station
   const current = useCurrentSpecifications()
-  const { status: unitsStatus } = installed
   const { status: specificationsStatus } = current
-  // With no signal (nothing fetched), the station's units and their specifications as this device holds them.
+  // With no signal, the specifications as this device holds them.
   const device = useFieldReferenceStore()
-  const fromDevice = computed(() => !installed.data.value?.length && !!device.reference)
-  const units = computed(() => fromDevice.value ? device.reference!.units : installed.data.value)
   const specifications = computed(() => current.data.value ?? device.reference?.specifications)
-  const unitsError = computed(() => units.value?.length ? null : installed.error.value)
-  /** When the device's copy was taken, while the lists shown are that copy. */
-  const deviceCopyAsOf = computed(() => fromDevice.value ? device.reference!.fetchedAt : null)
   const store = usePreferencesStore()
   const preferences = computed(() => store.preferences)
   const temperatureUnit = computed(() => preferences.value.temperatureUnit)

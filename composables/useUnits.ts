@@ -1,6 +1,7 @@
 import type { AircraftBody } from '#shared/schemas/aircraft'
 import type { AccumulatorMoveBody } from '#shared/schemas/accumulators'
 import type { AircraftDto, FleetOptions, InstalledUnitDto, UnitDetailDto } from '#shared/types/fleet'
+import { useFieldReferenceStore } from '~~/stores/field-reference'
 
 /** The most installed units a page loads at once; the picker asks the register for the rest. */
 export const INSTALLED_UNITS_PAGE = 500
@@ -19,6 +20,27 @@ export function useInstalledUnits(options: { server?: boolean } = {}) {
     query: { installed: 'true', pageSize: INSTALLED_UNITS_PAGE },
     transform: (answer: { items: InstalledUnitDto[] }) => answer.items,
   })
+}
+
+/**
+ * The installed units a page offers, wherever they come from: the server's list, or — with no answer (no
+ * signal on the ramp) — the station's units as this device holds them, with the time that copy was taken.
+ * A connection that drops after the list came does not swap it (and lose what was picked). `installed` is
+ * the request itself, to await where the page renders on the server.
+ */
+export function useStationUnits() {
+  const installed = useInstalledUnits()
+  const device = useFieldReferenceStore()
+  const fromDevice = computed(() => !installed.data.value?.length && !!device.reference)
+  const units = computed<InstalledUnitDto[] | undefined>(() =>
+    fromDevice.value ? device.reference!.units : (installed.data.value ?? undefined))
+  /** When the device's copy was taken, while the units shown are that copy. */
+  const asOf = computed(() => fromDevice.value ? device.reference!.fetchedAt : null)
+  const error = computed(() => units.value?.length ? null : installed.error.value)
+  /** The current specification for a part number: the server's, or the one the device holds. */
+  const specificationFor = (partNumber: string | undefined) =>
+    device.reference?.specifications.find(candidate => candidate.partNumber === partNumber)
+  return { installed, status: installed.status, units, fromDevice, asOf, error, specificationFor }
 }
 
 /** Installed units the register finds for a search beyond the page's list (a picker's typed text). */
@@ -56,14 +78,22 @@ export function addAircraft(body: AircraftBody) {
   return $fetch<AircraftDto>('/api/aircraft', { method: 'POST', body })
 }
 
-/** One unit with its history; a move (or removal to stores) is read back from the server. */
+/**
+ * One unit with its history; a move (or removal to stores) is read back from the server. With no signal
+ * (a label scanned on the ramp), `onDevice` is the unit as the device's station copy holds it, if it does.
+ */
 export async function useUnit(id: number) {
+  const device = useFieldReferenceStore()
   const unit = await useFetch<UnitDetailDto>(`/api/accumulators/${id}`, { key: `unit-${id}` })
   async function move(body: AccumulatorMoveBody) {
     await $fetch(`/api/accumulators/${id}`, { method: 'PATCH', body: { move: body } })
     await unit.refresh()
   }
-  return { ...unit, move }
+  const onDevice = computed(() => unit.error.value && isNoAnswer(unit.error.value)
+    ? device.reference?.units.find(candidate => candidate.id === id) ?? null
+    : null)
+  const onDeviceAsOf = computed(() => onDevice.value ? device.reference!.fetchedAt : null)
+  return { ...unit, move, onDevice, onDeviceAsOf }
 }
 
 /**

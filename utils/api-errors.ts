@@ -6,10 +6,19 @@ interface ApiFailure {
   statusCode?: number
 }
 
-/** The plain message of a failed API call. */
+/** The browser's words for a request that got no answer at all, wherever they end up (useFetch wraps them as a 500). */
+const NO_ANSWER = /<no response>|Failed to fetch|NetworkError|Load failed|fetch failed/
+
+/** A request that got no answer: no network, or the server out of reach. */
+export function isNoAnswer(failure: unknown): boolean {
+  const error = failure as ApiFailure
+  return NO_ANSWER.test(error?.message ?? '') || (error?.statusCode === undefined && !!error?.message?.includes('fetch'))
+}
+
+/** The plain message of a failed API call; never the browser's fetch text. */
 export function errorMessage(failure: unknown): string {
   const error = failure as ApiFailure
-  if (error?.statusCode === undefined && error?.message?.includes('fetch'))
+  if (isNoAnswer(failure))
     return 'No connection to Chargewell. Check the network and try again; nothing you entered is lost.'
   return error?.data?.message ?? error?.message ?? 'Something went wrong.'
 }

@@ -33,16 +33,9 @@ function lyingConnectionFlag() {
 async function readyForTheRamp(email = 'technician@chargewell.test'): Promise<Page> {
   const page = await signedInPage(browser, email)
   await page.context().addInitScript(lyingConnectionFlag)
-  await page.waitForFunction(() => navigator.serviceWorker?.controller, null, { timeout: 30_000 })
-  // Visited once online, as a technician does at the start of a shift.
-  await page.goto('/worksheets/new')
-  await expect.poll(() => page.evaluate(() => new Promise<boolean>((resolve) => {
-    const request = indexedDB.open('keyval-store')
-    request.onsuccess = () => {
-      const read = request.result.transaction('keyval').objectStore('keyval').get('chargewell:field-reference')
-      read.onsuccess = () => resolve(!!read.result?.reference?.units?.length)
-    }
-  })), { timeout: 15_000 }).toBe(true)
+  // The device's own signal that it holds what offline work needs (the app and the station's data), in the header.
+  await page.reload()
+  await expect.poll(() => page.getByTestId('connection').getAttribute('data-ready'), { timeout: 30_000 }).toBe('true')
   return page
 }
 

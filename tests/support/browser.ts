@@ -32,12 +32,15 @@ export function waitForHydration(page: Page): Page {
   return page
 }
 
-/** A new tablet-sized page signed in as `email`. */
+/** A new tablet-sized page (or `viewport`) signed in as `email`. */
+export const PHONE = { width: 390, height: 844 }
+
 export async function signedInPage(
-  browser: Browser, email: string, password = 'chargewell-demo', options: { locale?: string } = {},
+  browser: Browser, email: string, password = 'chargewell-demo',
+  options: { locale?: string, viewport?: { width: number, height: number } } = {},
 ): Promise<Page> {
   const context = await browser.newContext({
-    baseURL: baseURL(), viewport: { width: 1180, height: 820 }, locale: options.locale,
+    baseURL: baseURL(), viewport: options.viewport ?? { width: 1180, height: 820 }, locale: options.locale,
   })
   const page = waitForHydration(await context.newPage())
   // When a test fails, say what the browser saw go wrong (answers of 400 and up, console errors).
@@ -53,6 +56,7 @@ export async function signedInPage(
   await page.getByLabel('Password').fill(password)
   await page.getByRole('button', { name: 'Sign in' }).click()
   await page.waitForURL(url => url.pathname === '/')
-  await page.getByRole('navigation', { name: 'Main' }).getByRole('link').first().waitFor()
+  // Attached, not visible: at phone size the navigation sits behind the Menu button.
+  await page.locator('#main-navigation a').first().waitFor({ state: 'attached' })
   return page
 }
