@@ -101,16 +101,20 @@ export default defineNuxtConfig({
   hooks: {
     // The PWA plugin adds the web manifest to the precache list once per build pass: keep each URL once.
     'pwa:beforeBuildServiceWorker': (options) => {
-      const entries = options.workbox.additionalManifestEntries ?? []
+      const entries = options.injectManifest.additionalManifestEntries ?? []
       const url = (entry: (typeof entries)[number]) => (typeof entry === 'string' ? entry : entry.url)
-      options.workbox.additionalManifestEntries = entries.filter((entry, index) =>
+      options.injectManifest.additionalManifestEntries = entries.filter((entry, index) =>
         entries.findIndex(other => url(other) === url(entry)) === index)
     },
   },
   eslint: { config: { stylistic: true } },
   pwa: {
     registerType: 'autoUpdate',
-    strategies: 'generateSW',
+    // Our own service worker (service-worker/sw.ts): the precache and page caching, and the queue sent by
+    // background sync when the connection returns with the app closed.
+    strategies: 'injectManifest',
+    srcDir: 'service-worker',
+    filename: 'sw.ts',
     manifest: {
       name: 'Chargewell',
       short_name: 'Chargewell',
@@ -125,24 +129,11 @@ export default defineNuxtConfig({
         { src: '/icon-maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
       ],
     },
-    workbox: {
+    injectManifest: {
       // The fonts the pages draw with: Source Sans 3 in its latin subsets, as woff2, in the three weights used
       // (every browser that runs the app reads woff2; other subsets load only for text that needs them).
       globPatterns: ['**/*.{js,css,svg,png,ico}', '**/source-sans-3-latin-{400,600,700}-normal.*.woff2', '**/source-sans-3-latin-ext-{400,600,700}-normal.*.woff2'],
-      navigateFallback: null,
       additionalManifestEntries: [{ url: '/app-shell', revision: String(Date.now()) }],
-      runtimeCaching: [
-        {
-          urlPattern: ({ request }) => request.mode === 'navigate',
-          handler: 'NetworkFirst',
-          options: { cacheName: 'chargewell-pages', networkTimeoutSeconds: 6, expiration: { maxEntries: 40 }, precacheFallback: { fallbackURL: '/app-shell' } },
-        },
-        {
-          urlPattern: ({ url }) => url.pathname === '/api/_auth/session' || url.pathname === '/api/me',
-          handler: 'NetworkFirst',
-          options: { cacheName: 'chargewell-session', networkTimeoutSeconds: 6 },
-        },
-      ],
     },
     client: { installPrompt: false, periodicSyncForUpdates: 3600 },
     devOptions: { enabled: false },

@@ -1,83 +1,45 @@
 import { useIDBKeyval } from '@vueuse/integrations/useIDBKeyval'
+import { del, get, set } from 'idb-keyval'
 import { defineStore, skipHydrate } from 'pinia'
 import type { Pressure } from '#shared/gas/types'
 import type { WorksheetCreateBody, WorksheetStepBody } from '#shared/schemas/worksheet'
-import type { FieldReference, SyncAnswer } from '#shared/types/field'
+import {
+  DEVICE_QUEUE_KEY, DEVICE_QUEUE_LOCK, DEVICE_QUEUE_SYNC_TAG, EMPTY_DEVICE_QUEUE,
+  type DeviceQueue, type QueuedPhoto, type SentWorksheet,
+} from '#shared/types/device-queue'
+import type { FieldReference } from '#shared/types/field'
 import type { InstalledUnitDto } from '#shared/types/fleet'
 import type { SpecificationDto } from '#shared/types/registers'
-import type { WorksheetContent, WorksheetDto, WorksheetResults, WorksheetView } from '#shared/types/worksheet'
+import type { WorksheetDto, WorksheetView } from '#shared/types/worksheet'
 import { stationDate } from '#shared/utils/station-time'
 import { applyStep, freezeWorksheetContent, settleUntil, StepRefusal } from '#shared/utils/worksheet-steps'
 import { useConnectionStore } from './connection'
 import { useFieldReferenceStore } from './field-reference'
 
 type StepName = WorksheetStepBody['step']
-
-/** A worksheet started on this device with no signal, kept here until the server has it. */
-export interface LocalWorksheet {
-  clientId: string
-  performer: { id: number, name: string }
-  accumulatorId: number
-  specificationId: number
-  workOrder: string
-  reason: WorksheetCreateBody['reason']
-  correctsId?: number
-  startedAt: string
-  /** Every step as taken, with the device's time: the server replays them in order. */
-  steps: { at: string, body: WorksheetStepBody }[]
-  content: WorksheetContent
-  results: WorksheetResults
-  /** The server refused the whole worksheet (the unit no longer installed …): why, for the technician. */
-  failure?: string
-}
-
-/** A worksheet the server now holds, and what it could not accept as the device had it. */
-export interface SentWorksheet {
-  clientId: string
-  worksheetId: number
-  conflicts: string[]
-  sentAt: string
-  label: string
-}
-
-interface DeviceQueue {
-  /** What the user has typed into each step's form, saved or not, per worksheet (id or client id). */
-  values: Record<string, Partial<Record<StepName, Record<string, unknown>>>>
-  /** Steps of server worksheets taken offline, oldest first, with the device's time. */
-  pending: { worksheetId: number, userId: number, body: WorksheetStepBody, queuedAt: string }[]
-  local: Record<string, LocalWorksheet>
-  sent: SentWorksheet[]
-  /** Readings taken while the gas settles, for the forecast (advice, kept on the device). */
-  settle: Record<string, { at: string, pressure: Pressure }[]>
-  /** Steps taken here that the server refused when sent: kept, with why, until the technician has seen them. */
-  refused: RefusedStep[]
-}
-
-/** A step kept on the device that the server refused: what it was, when it was taken, and the server's reason. */
-export interface RefusedStep {
-  worksheetId: number
-  userId: number
-  body: WorksheetStepBody
-  queuedAt: string
-  refusedAt: string
-  reason: string
-}
+export type { LocalWorksheet, QueuedPhoto, RefusedStep, SentWorksheet } from '#shared/types/device-queue'
 
 /** The record without one key (a new object: the store is watched deeply). */
 const without = <T>(record: Record<string, T>, key: string | number): Record<string, T> =>
   Object.fromEntries(Object.entries(record).filter(([candidate]) => candidate !== String(key)))
 
-const EMPTY: DeviceQueue = { values: {}, pending: [], local: {}, sent: [], settle: {}, refused: [] }
+const EMPTY: DeviceQueue = EMPTY_DEVICE_QUEUE
 const plain = <T>(value: T): T => JSON.parse(JSON.stringify(value))
 
 /** No answer at all (the browser's own flag is not consulted: it says "online" on Wi-Fi with no internet). */
-function isOffline(failure: unknown): boolean {
-  return (failure as { statusCode?: number })?.statusCode === undefined
+const noAnswer = (failure: unknown) => (failure as { statusCode?: number })?.statusCode === undefined
+
+/** Runs `send` holding the queue's Web Lock (shared with the service worker); at once where locks are missing. */
+function withSendLock<T>(send: () => Promise<T>): Promise<T> {
+  return navigator.locks ? navigator.locks.request(DEVICE_QUEUE_LOCK, send) as Promise<T> : send()
 }
 
-/** The server kept a refused step on the record as observed (a step this device took with no signal). */
-function keptAsObservation(failure: unknown): boolean {
-  return (failure as { data?: { data?: { keptAsObservation?: boolean } } })?.data?.data?.keptAsObservation === true
+/** Asks the service worker to send the queue when the connection returns, whether or not the app is open then. */
+function askToSendLater() {
+  type WithSync = ServiceWorkerRegistration & { sync?: { register: (tag: string) => Promise<void> } }
+  navigator.serviceWorker?.ready
+    .then(registration => (registration as WithSync).sync?.register(DEVICE_QUEUE_SYNC_TAG))
+    .catch(() => { /* no background sync in this browser: the page sends when it is open */ })
 }
 
 /** A refusal of the shared step rules, shaped like the server's answer so forms show it the same way. */
@@ -103,7 +65,7 @@ function asApiFailure(refusal: StepRefusal) {
 export const useDeviceQueueStore = defineStore('device-queue', () => {
   const stored = import.meta.client
     // The IndexedDB key keeps its first name: a device updated with work still queued finds it there.
-    ? useIDBKeyval<DeviceQueue>('chargewell:field-work', plain(EMPTY), {
+    ? useIDBKeyval<DeviceQueue>(DEVICE_QUEUE_KEY, plain(EMPTY), {
         serializer: { read: raw => ({ ...plain(EMPTY), ...(raw as DeviceQueue) }), write: plain },
       })
     : { data: ref(plain(EMPTY)), isFinished: shallowRef(true) }
@@ -133,6 +95,12 @@ export const useDeviceQueueStore = defineStore('device-queue', () => {
   const localWorksheets = computed(() =>
     Object.values(state.value.local).filter(local => local.performer.id === user.value?.id),
   )
+  /** The user's own photos kept here, waiting to be sent (or refused, with why). */
+  const ownPhotos = computed(() => state.value.photos.filter(photo => photo.userId === user.value?.id))
+  /** Everything of the user's still to be sent: steps, worksheets, photos. */
+  const leftToSend = computed(() => ownPending.value.length
+    + localWorksheets.value.filter(local => !local.failure).length
+    + ownPhotos.value.filter(photo => !photo.failure).length)
   const waiting = computed(() => ({
     steps: ownPending.value.length,
     worksheets: localWorksheets.value.filter(local => !local.failure).length,
@@ -209,6 +177,7 @@ export const useDeviceQueueStore = defineStore('device-queue', () => {
       local.content = next.content
       local.results = next.results
       local.steps.push({ at: now, body: plain(body) })
+      askToSendLater()
     }
     catch (error) {
       if (error instanceof StepRefusal) throw asApiFailure(error)
@@ -232,85 +201,82 @@ export const useDeviceQueueStore = defineStore('device-queue', () => {
       return { worksheet, queued: false }
     }
     catch (failure) {
-      if (!isOffline(failure)) throw failure
+      if (!noAnswer(failure)) throw failure
       state.value.pending = [
         ...state.value.pending.filter(entry => !(entry.worksheetId === worksheetId && entry.body.step === body.step)),
         { worksheetId, userId: user.value?.id ?? 0, body: plain(body), queuedAt: new Date().toISOString() },
       ]
+      askToSendLater()
       return { queued: true }
     }
   }
 
-  /** Sends what waits, in order: steps of server worksheets (with the time each was taken), then whole worksheets. */
+  /**
+   * Sends what waits (shared/utils/device-send.ts): steps of server worksheets with the time each was taken,
+   * whole worksheets, then photos. Under a Web Lock, so the page and the service worker never send at once;
+   * if the service worker sent while this page held an older copy, the copy IndexedDB holds is taken first.
+   */
   async function flush(): Promise<SentWorksheet[]> {
-    if (syncing.value || !online.value) return []
+    const userId = user.value?.id
+    if (syncing.value || !online.value || !userId || !leftToSend.value) return []
     syncing.value = true
     lastError.value = null
-    const sentNow: SentWorksheet[] = []
     try {
-      while (ownPending.value.length) {
-        const next = ownPending.value[0]!
-        try {
-          await $fetch(`/api/worksheets/${next.worksheetId}`, {
-            method: 'PATCH',
-            body: next.body,
-            headers: { 'x-taken-at': next.queuedAt },
-          })
-        }
-        catch (failure) {
-          if (isOffline(failure)) return sentNow
-          // Never dropped with a passing message: kept until the technician has read why.
-          state.value.refused = [
-            ...state.value.refused,
-            {
-              ...plain(next),
-              refusedAt: new Date().toISOString(),
-              reason: errorMessage(failure) + (keptAsObservation(failure)
-                ? ' What you entered is kept on the worksheet as observed, with its time; redo the step.'
-                : ''),
-            },
-          ]
-        }
-        state.value.pending = state.value.pending.filter(entry => entry !== next)
-      }
-      for (const local of localWorksheets.value.filter(candidate => !candidate.failure)) {
-        try {
-          const {
-            clientId,
-            performer: _performer,
-            content: _content,
-            results: _results,
-            failure: _failure,
-            ...body
-          } = plain(local)
-          const answer = await $fetch<SyncAnswer>('/api/worksheets/sync', {
-            method: 'POST',
-            body: { clientId, ...body },
-          })
-          const label = `${local.content.aircraft.registration} · ${local.content.accumulator.position} · ${local.workOrder}`
-          const sent = {
-            clientId,
-            worksheetId: answer.worksheet.id,
-            conflicts: answer.conflicts,
-            sentAt: new Date().toISOString(),
-            label,
-          }
-          state.value.sent = [sent, ...state.value.sent.filter(entry => entry.clientId !== clientId)].slice(0, 20)
-          state.value.values[answer.worksheet.id] = state.value.values[clientId] ?? {}
-          if (state.value.settle[clientId]) state.value.settle[answer.worksheet.id] = state.value.settle[clientId]!
-          discardLocal(clientId)
-          sentNow.push(sent)
-        }
-        catch (failure) {
-          if (isOffline(failure)) return sentNow
-          local.failure = errorMessage(failure)
-        }
-      }
+      return await withSendLock(async () => {
+        const held = await get<DeviceQueue>(DEVICE_QUEUE_KEY)
+        const workerSent = held && (held.workerRevision ?? 0) !== (state.value.workerRevision ?? 0)
+        if (workerSent) state.value = { ...plain(EMPTY), ...held }
+        const queue = plain(state.value)
+        // The sender loads when there is something to send, not with every page.
+        const { sendDeviceQueue } = await import('#shared/utils/device-send')
+        return sendDeviceQueue(queue, userId, {
+          json: (path, init) => $fetch(path, { ...init, method: init.method as 'PATCH' | 'POST', body: init.body as Record<string, unknown> }),
+          form: (path, form) => $fetch(path, { method: 'POST', body: form }),
+          photo: key => get<Blob>(key).then(blob => blob ?? null),
+          dropPhoto: key => del(key),
+          save: (changed) => {
+            state.value = plain(changed)
+          },
+        })
+      })
+    }
+    catch (failure) {
+      lastError.value = errorMessage(failure)
+      return []
     }
     finally {
       syncing.value = false
     }
-    return sentNow
+  }
+
+  /**
+   * Keeps a gauge photo on this device, to be sent with the queue (a worksheet started here, or no signal). The
+   * service worker is asked to send the queue when the connection returns, app open or not.
+   */
+  async function keepPhoto(worksheet: number | string, file: File, replacesId?: number): Promise<QueuedPhoto> {
+    const id = crypto.randomUUID()
+    const blobKey = `chargewell:photo:${id}`
+    await set(blobKey, file)
+    const photo: QueuedPhoto = {
+      id,
+      worksheet,
+      userId: user.value?.id ?? 0,
+      name: file.name,
+      type: file.type,
+      takenAt: new Date().toISOString(),
+      blobKey,
+      ...(replacesId ? { replacesId } : {}),
+    }
+    state.value.photos = [...state.value.photos, photo]
+    askToSendLater()
+    return photo
+  }
+  const photosFor = (worksheet: number | string) => state.value.photos.filter(photo => photo.worksheet === worksheet)
+  /** A kept photo's file (for its thumbnail), or null. */
+  const photoFile = (photo: QueuedPhoto) => get<Blob>(photo.blobKey).then(blob => blob ?? null)
+  async function dropPhoto(photo: QueuedPhoto) {
+    state.value.photos = state.value.photos.filter(candidate => candidate.id !== photo.id)
+    await del(photo.blobKey)
   }
 
   /** Drops a worksheet kept here (once sent, or the technician's decision after a refusal they have read). */
@@ -343,6 +309,13 @@ export const useDeviceQueueStore = defineStore('device-queue', () => {
   }
 
   if (import.meta.client) {
+    // The service worker asks an open page to send (it sends itself only when no page is open).
+    navigator.serviceWorker?.addEventListener('message', async (event) => {
+      if (event.data?.type !== 'send-queue') return
+      if (loaded.value) await flush()
+      // Tells the service worker what is left, so a sync that sent nothing is tried again later.
+      event.ports[0]?.postMessage({ left: loaded.value ? leftToSend.value : 1 })
+    })
     watch(online, isOnline => isOnline && loaded.value && flush())
     watch(loaded, isLoaded => isLoaded && online.value && flush())
   }
@@ -357,6 +330,8 @@ export const useDeviceQueueStore = defineStore('device-queue', () => {
     waiting,
     localWorksheets,
     ownPending,
+    ownPhotos,
+    leftToSend,
     ownRefused,
     acknowledgeRefused,
     draftFor,
@@ -367,6 +342,10 @@ export const useDeviceQueueStore = defineStore('device-queue', () => {
     startLocal,
     saveStep,
     flush,
+    keepPhoto,
+    photosFor,
+    photoFile,
+    dropPhoto,
     discardLocal,
     settleReadings,
     addSettleReading,
