@@ -68,6 +68,9 @@ describe('every page with no signal, at phone size', () => {
         const text = await page.locator('body').innerText()
         expect(text.match(RAW_FETCH_TEXT) && text, `${path} shows fetch text`).toBeNull()
         expect(text, `${path}: the banner says what the device holds`).toMatch(/No connection to Chargewell\.[\s\S]*(Ready offline|Not ready offline)/)
+        // The lists a technician walks out with come from the device's copy, with its time.
+        if (path === '/fleet') expect(text).toMatch(/installed units as this device holds them, as of|holds no copy of the fleet/)
+        if (path === '/worksheets') expect(text).toMatch(/Worksheets on this device/)
       }
       await page.context().close()
     })
