@@ -4,6 +4,8 @@ import { useForm } from 'vee-validate'
 import type { ZodType, ZodTypeDef } from 'zod'
 import type { WorksheetStepBody } from '#shared/schemas/worksheet'
 import type { WorksheetView } from '#shared/types/worksheet'
+import type { Pressure, Temperature } from '#shared/gas/types'
+import { assessWorksheetReading, type AssessmentSummary } from '#shared/utils/worksheet-results'
 import { useDeviceQueueStore } from '~~/stores/device-queue'
 
 export type StepSaveStatus = 'idle' | 'saving' | 'saved' | 'queued' | 'error'
@@ -91,4 +93,30 @@ export function useWorksheetStepForm<Body extends WorksheetStepBody>(
   }
 
   return { ...form, save, status, message, confirmation, clearRefusal }
+}
+
+/**
+ * The figure for a reading as it is typed, worked out on this device by the shared engine from the worksheet's
+ * frozen specification, conditions and gauge — the same computation the server runs when the step is saved
+ * (and the server's answer is what the record keeps). Null while the inputs give no figure.
+ */
+export function useReadingPreview(
+  worksheet: () => WorksheetView,
+  reading: () => Pressure | undefined,
+  gasTemperature: () => Temperature | undefined,
+) {
+  return computed<AssessmentSummary | null>(() => {
+    const { content } = worksheet()
+    const typed = reading()
+    const temperature = gasTemperature()
+    const usable = (value: number | undefined) => typeof value === 'number' && Number.isFinite(value)
+    if (!content.conditions || !typed || !usable(typed.value) || !temperature || !usable(temperature.value)) return null
+    try {
+      const { specification, conditions, tools } = content
+      return assessWorksheetReading(specification, typed, temperature, conditions.ambient, tools?.gauge)
+    }
+    catch {
+      return null
+    }
+  })
 }

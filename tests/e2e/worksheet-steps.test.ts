@@ -89,6 +89,31 @@ describe('per-step refusals', () => {
     await page.context().close()
   })
 
+  it('the as-found figure shows as the reading is typed, worked out on the device; once recorded, the server\'s', async () => {
+    const page = await signedInPage(browser, 'technician@chargewell.test')
+    await openNewWorksheet(page, /QX-FMK/, /System 1/)
+    await page.getByLabel(/Gas temperature/).fill('12')
+    await page.getByLabel(/Minutes since/).fill('60')
+    await page.getByRole('button', { name: 'Save and continue' }).click()
+    // The conditions are saved (the page moved on); from here nothing may be sent until the reading is recorded.
+    await expect.poll(() => page.getByRole('heading', { name: /^4 · As-found/ }).isVisible()).toBe(true)
+    const patches: string[] = []
+    page.on('request', request => request.method() === 'PATCH' && patches.push(request.url()))
+    await page.getByLabel(/As-found reading/).fill('1420')
+    // Before anything is sent: the target, limits and verdict for 1420 at 12 °C, from the engine in the page.
+    await expect.poll(() => page.getByTestId('result-not-recorded-yet').innerText()).toMatch(/1,?420[\s\S]*at 12[\s\S]*Target/)
+    const typed = await page.getByTestId('result-not-recorded-yet').innerText()
+    expect(patches).toEqual([])
+    await page.getByLabel(/As-found reading/).fill('1300')
+    await expect.poll(() => page.getByTestId('result-not-recorded-yet').innerText()).not.toBe(typed)
+    await page.getByRole('button', { name: 'Record as-found' }).click()
+    // Recorded: the server's figure stands in its place, and agrees with the device's.
+    await expect.poll(() => page.getByTestId('result-as-found').isVisible()).toBe(true)
+    await expect.poll(() => page.getByTestId('result-not-recorded-yet').count()).toBe(0)
+    expect(await page.getByTestId('result-as-found').innerText()).toMatch(/Low/)
+    await page.context().close()
+  })
+
   it('Finish is refused without the leak check and the cap, on each box; ticks made before the as-left are kept', async () => {
     const page = await signedInPage(browser, 'technician@chargewell.test')
     await openNewWorksheet(page, /QX-FMK/, /System 2/)
