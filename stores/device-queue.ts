@@ -12,7 +12,8 @@ import type { InstalledUnitDto } from '#shared/types/fleet'
 import type { SpecificationDto } from '#shared/types/registers'
 import type { WorksheetDto, WorksheetView } from '#shared/types/worksheet'
 import { stationDate } from '#shared/utils/station-time'
-import { applyStep, freezeWorksheetContent, settleUntil, StepRefusal } from '#shared/utils/worksheet-steps'
+import { freezeWorksheetContent, settleUntil } from '#shared/utils/worksheet-content'
+import type { StepRefusal } from '#shared/utils/worksheet-steps'
 import { useConnectionStore } from './connection'
 import { useFieldReferenceStore } from './field-reference'
 
@@ -162,7 +163,13 @@ export const useDeviceQueueStore = defineStore('device-queue', () => {
    * Runs a step on a worksheet kept here, by the same rules the server runs, with the device's clock and tool
    * register.
    */
-  function saveLocalStep(clientId: string, body: WorksheetStepBody, reference: FieldReference | null): WorksheetView {
+  async function saveLocalStep(
+    clientId: string,
+    body: WorksheetStepBody,
+    reference: FieldReference | null,
+  ): Promise<WorksheetView> {
+    // The rules (and the engine they run) load with the first step taken here, not with every page.
+    const { applyStep, StepRefusal } = await import('#shared/utils/worksheet-steps')
     const local = state.value.local[clientId]
     if (!local) throw new Error('That worksheet is no longer on this device.')
     const now = new Date().toISOString()
@@ -195,7 +202,7 @@ export const useDeviceQueueStore = defineStore('device-queue', () => {
     body: WorksheetStepBody,
   ): Promise<{ worksheet?: WorksheetView, queued: boolean }> {
     if (typeof worksheetId === 'string')
-      return { worksheet: saveLocalStep(worksheetId, body, useFieldReferenceStore().reference), queued: false }
+      return { worksheet: await saveLocalStep(worksheetId, body, useFieldReferenceStore().reference), queued: false }
     try {
       const worksheet = await $fetch<WorksheetDto>(`/api/worksheets/${worksheetId}`, { method: 'PATCH', body })
       return { worksheet, queued: false }

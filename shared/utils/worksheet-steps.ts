@@ -2,11 +2,12 @@ import { isEngineInputError } from '../gas/errors'
 import type { Pressure } from '../gas/types'
 import { convertPressureDifference } from '../gas/units'
 import type { WorksheetStepBody } from '../schemas/worksheet'
-import type { SpecificationDto, ToolDto } from '../types/registers'
+import type { ToolDto } from '../types/registers'
 import {
   PREPARATION_CHECKS, type ToolSnapshot, type WorksheetContent, type WorksheetObservation, type WorksheetResults,
 } from '../types/worksheet'
 import { stationDisplay } from './station-time'
+import { settleUntil } from './worksheet-content'
 import { gaugeAccuracy } from './tool-accuracy'
 import { assessWorksheetReading } from './worksheet-results'
 
@@ -68,12 +69,6 @@ export class StepRefusal extends Error {
 
 function refuse(message: string, field?: string, status: 409 | 422 = 422, extra: Record<string, unknown> = {}): never {
   throw new StepRefusal(message, field, status, extra)
-}
-
-/** When the settle time after a charge or vent ends (null after no action). */
-export function settleUntil(content: WorksheetContent): string | null {
-  if (!content.action || content.action.kind === 'none') return null
-  return new Date(Date.parse(content.action.recordedAt) + content.specification.settleMinutes * 60_000).toISOString()
 }
 
 /**
@@ -332,26 +327,4 @@ export function recomputeResults(content: WorksheetContent): WorksheetResults {
   return results
 }
 
-/** The unit, its aircraft and the specification in force, as a worksheet freezes them (server and device alike). */
-export function freezeWorksheetContent(
-  accumulator: { id: number, partNumber: string, serialNumber: string, position: string | null },
-  aircraft: { id: number, registration: string, fleetNumber: string, type: string },
-  specification: SpecificationDto | Omit<SpecificationDto, 'status'>,
-): WorksheetContent {
-  const { status: _status, ...frozen } = specification as SpecificationDto
-  return {
-    specification: frozen,
-    aircraft: {
-      id: aircraft.id,
-      registration: aircraft.registration,
-      fleetNumber: aircraft.fleetNumber,
-      type: aircraft.type,
-    },
-    accumulator: {
-      id: accumulator.id,
-      partNumber: accumulator.partNumber,
-      serialNumber: accumulator.serialNumber,
-      position: accumulator.position ?? '',
-    },
-  }
-}
+export { freezeWorksheetContent, settleUntil } from './worksheet-content'
