@@ -156,7 +156,7 @@ describe('a worksheet with no signal', () => {
 })
 
 describe('sent in the background', () => {
-  it('a worksheet filled with no signal is sent by the service worker after the app is closed and the network returns', { timeout: 180_000 }, async () => {
+  it('a worksheet completed with no signal is sent by the service worker after the app is closed and the network returns', { timeout: 180_000 }, async () => {
     const page = await readyForTheRamp()
     const context = page.context()
     await fillOffline(page, /QX-FMA/, /Normal brake/, 'WO-RAMP-0003')
@@ -164,6 +164,20 @@ describe('sent in the background', () => {
     await page.getByLabel(/Minutes since/).fill('50')
     await page.getByRole('button', { name: 'Save and continue' }).click()
     await expect.poll(() => page.getByRole('heading', { name: /^4 · As-found/ }).isVisible()).toBe(true)
+    // Completed on the device, to the last step before signing.
+    await page.getByLabel(/As-found reading/).fill('1000')
+    await page.getByRole('button', { name: 'Record as-found' }).click()
+    await expect.poll(() => page.getByTestId('result-as-found').innerText()).toMatch(/Target/)
+    await page.getByRole('button', { name: 'Next: Action' }).click()
+    await page.getByRole('button', { name: /No action/ }).click()
+    await page.getByRole('dialog').getByTestId('confirm-yes').click()
+    await page.getByRole('button', { name: 'Record as-left' }).click()
+    await expect.poll(() => page.getByTestId('result-as-left').isVisible()).toBe(true)
+    await page.getByRole('button', { name: 'Next: Finish' }).click()
+    await page.getByRole('button', { name: /Charging valve leak-checked/ }).click()
+    await page.getByRole('button', { name: /Valve cap refitted/ }).click()
+    await page.getByRole('button', { name: 'Save and continue' }).click()
+    await expect.poll(() => page.getByTestId('local-banner').innerText()).toMatch(/Ready to sign[\s\S]*needs the connection/)
     await expect.poll(() => page.getByTestId('connection').innerText()).toMatch(/1 worksheet waiting to send/)
     // The app is closed while there is no network; then the network returns. No page of the app is open to send
     // the queue: only the service worker can.
@@ -190,6 +204,10 @@ describe('sent in the background', () => {
     const record = (await api(`/api/worksheets/${id}`, { cookie })).body
     expect(record.content.conditions.gasTemperature).toMatchObject({ value: 14 })
     expect(record.content.tools.gauge.assetNumber).toBe('GA-0141')
+    // Every step replayed and recomputed by the server: ready for the technician to sign.
+    expect(record.results.asFound.engineVersion).toBeTruthy()
+    expect(record.results.asLeft.assessment.verdict).toBeTruthy()
+    expect(record.content.finish).toMatchObject({ valveLeakCheck: true, capFitted: true })
     // Opened again, the device knows it was sent: nothing waits.
     const again = await context.newPage()
     await again.goto(`${baseURL()}/device`)

@@ -30,7 +30,9 @@ describe('the phone', () => {
     await page.goto(`/worksheets/${created.body.id}`)
     const heading = page.getByRole('heading', { name: '1 · Preparation' })
     await heading.waitFor()
-    expect(inView(await heading.boundingBox()), 'the current step\'s heading on the first screen').toBe(true)
+    const box = await heading.boundingBox()
+    console.info(`phone: the step heading at y = ${Math.round(box?.y ?? -1)} px of ${PHONE.height}`)
+    expect(inView(box), 'the current step\'s heading on the first screen').toBe(true)
     // The list is folded: its buttons are hidden until asked for, and choosing a step folds it again.
     const toggle = page.getByTestId('steps-toggle')
     expect(await toggle.innerText()).toMatch(/All steps · 0 of 8 done/)
