@@ -421,9 +421,15 @@ export async function saveStep(
   return worksheetById(id)
 }
 
-/** The gauge a step was taken with: the one it names, or the one the worksheet holds. */
+/**
+ * The gauge a step was taken with: the one it names; else the one the worksheet holds, or the one chosen in a
+ * tools step kept as observed (the device went on with it).
+ */
 async function gaugeInHand(content: WorksheetContent, step: WorksheetStepBody) {
-  if (step.step !== 'tools') return content.tools ? { id: content.tools.gauge.id, assetNumber: content.tools.gauge.assetNumber } : undefined
+  if (step.step !== 'tools') {
+    const held = content.tools?.gauge ?? [...(content.observations ?? [])].reverse().find(kept => kept.step === 'tools')?.gauge
+    return held ? { id: held.id, assetNumber: held.assetNumber } : undefined
+  }
   const tool = await Tool.findByPk(step.gaugeId)
   return tool ? { id: tool.id, assetNumber: tool.assetNumber } : undefined
 }

@@ -102,7 +102,7 @@ describe('a step kept on a device and refused when it arrives', () => {
     expect(record.results.asFound).toBeUndefined()
     expect(record.content.observations).toEqual([
       expect.objectContaining({ step: 'tools', takenAt, claimedAt: takenAt, gauge: expect.objectContaining({ assetNumber: 'GA-0098' }), reason: expect.stringMatching(/^Gauge GA-0098: calibration expired/) }),
-      expect.objectContaining({ step: 'asFound', values: { reading }, reason: 'Record the gauge and cart first.' }),
+      expect.objectContaining({ step: 'asFound', values: { reading }, gauge: expect.objectContaining({ assetNumber: 'GA-0098' }), reason: 'Record the gauge and cart first.' }),
     ])
     const events = (await api('/api/audit/events?entity=worksheet&pageSize=200', { cookie: admin })).body
     expect(JSON.stringify(events)).toMatch(/kept the tools step of worksheet [^"]{0,80} as observed, not counted: Gauge GA-0098/)
