@@ -351,7 +351,8 @@ export function claimProblem(claim: number, receivedAt: number, earliest: number
 
 /**
  * When an online step was taken: the server's receipt; or, for a step a device kept while it had no
- * signal (`x-taken-at`), the device's claim when it is within bounds — else 422, nothing saved.
+ * signal (`x-taken-at`), the device's claim when it is within bounds — else 422, not counted (the step
+ * is kept on the record as observed, by `saveStep`).
  */
 export function claimedStepTime(
   worksheet: Pick<Worksheet, 'content' | 'createdAt'>,
@@ -363,14 +364,23 @@ export function claimedStepTime(
   if (!takenAt) return { at: received, receivedAt: received }
   const claim = Date.parse(takenAt)
   const problem = claimProblem(claim, receivedAt, earliestClaim(worksheet.content, worksheet.createdAt))
-  if (problem)
-    unprocessable(
-      `The time this device gives for the step (${takenAt}) ${problem}. Nothing was saved: check the device's clock `
+  if (problem) {
+    throw new DeviceTimeRefusal(
+      `The time this device gives for the step (${takenAt}) ${problem}. It was not counted: check the device's clock `
       + 'and take the step again.',
       field,
+      { at: received, receivedAt: received, claimedAt: takenAt },
     )
+  }
   const claimed = new Date(claim).toISOString()
   return { at: claimed, receivedAt: received, claimedAt: claimed }
+}
+
+/** A device's time for a step that is out of bounds: refused (422) with the receipt, to keep what was read. */
+class DeviceTimeRefusal extends StepRefusal {
+  constructor(message: string, field: string, readonly time: { at: string, receivedAt: string, claimedAt: string }) {
+    super(message, field, 422)
+  }
 }
 
 /**
@@ -390,14 +400,17 @@ export async function saveStep(
     const worksheet = await lockedWorksheet(id, transaction)
     enforce(canEdit(actor, worksheet))
     checkVersion(worksheet, expectedVersion)
-    const time = claimedStepTime(worksheet, takenAt)
+    let time = { at: '', receivedAt: '' } as ReturnType<typeof claimedStepTime>
     let next
     try {
+      time = claimedStepTime(worksheet, takenAt)
       next = await runStep(worksheet, step, time)
     }
     catch (error) {
       if (!(error instanceof StepRefusal)) throw error
       if (!takenAt) throw asHttpError(error)
+      // A time out of bounds keeps the reading too, at the server's receipt with the device's claim beside it.
+      if (error instanceof DeviceTimeRefusal) time = error.time
       const observation = observationOf(step, time, error.message, await gaugeInHand(worksheet.content, step))
       await compareAndSet(
         worksheet,

@@ -34,20 +34,27 @@ async function started(registration = 'QX-FMA', position = /Normal brake/) {
 }
 
 describe('a step sent online with the device\'s time', () => {
-  it('an expired gauge dated back to before its expiry is refused, and nothing is saved', async () => {
+  it('an expired gauge dated back to before its expiry is refused: not counted, kept as observed', async () => {
     const { id, step } = await started()
     expect((await step({ step: 'preparation', systemDepressurised: true, aircraftSafe: true, eyeProtection: true, nitrogenOnly: true })).status).toBe(200)
     const expired = { step: 'tools', gaugeId: await toolId(technician, 'GA-0098'), cartId: await toolId(technician, 'NC-07') }
     expect((await step(expired)).status).toBe(422)
     const backdated = await step(expired, '2026-11-01T08:00:00Z')
     expect(backdated.status).toBe(422)
-    expect(backdated.body.message).toMatch(/more than 72 hours before the server received it[\s\S]*Nothing was saved/)
+    expect(backdated.body.message).toMatch(/more than 72 hours before the server received it[\s\S]*It was not counted/)
+    expect(backdated.body.data.keptAsObservation).toBe(true)
     // Within the span but before the worksheet was started on the server: refused the same way.
     const beforeStart = await step(expired, minutesAgo(30))
     expect(beforeStart.status).toBe(422)
     expect(beforeStart.body.message).toMatch(/before the worksheet was started/)
     expect(backdated.body.data.issues[0].field).toBe('x-taken-at')
-    expect((await api(`/api/worksheets/${id}`, { cookie: technician })).body.content.tools).toBeUndefined()
+    const record = (await api(`/api/worksheets/${id}`, { cookie: technician })).body
+    expect(record.content.tools).toBeUndefined()
+    // Not counted, and not lost either: both sends are on the record as observed, at the server's receipt with the
+    // device's claim beside it.
+    expect(record.content.observations.map((kept: { claimedAt: string }) => kept.claimedAt))
+      .toEqual(['2026-11-01T08:00:00Z', expect.any(String)])
+    expect(Date.parse(record.content.observations[0].takenAt)).toBeGreaterThan(Date.now() - 3_600_000)
   })
 
   it('dating the charge back does not shorten the settle time', async () => {
