@@ -65,6 +65,33 @@ async function fillOffline(page: Page, registration: RegExp, position: RegExp, w
   await page.getByRole('button', { name: 'Save and continue' }).click()
 }
 
+/**
+ * From the as-found to the last step before signing, on the device: the reading, its verdict worked out there,
+ * "No action", the as-left, the finishing checks (and a photo, taken with no signal, when given); ready to sign.
+ */
+type Photo = { name: string, mimeType: string, buffer: Buffer }
+async function completeOnDevice(page: Page, asFound: string, photo?: Photo) {
+  await page.getByLabel(/As-found reading/).fill(asFound)
+  await page.getByRole('button', { name: 'Record as-found' }).click()
+  // The verdict is worked out on the device by the shared engine.
+  await expect.poll(() => page.getByTestId('result-as-found').innerText()).toMatch(/Target/)
+  await page.getByRole('button', { name: 'Next: Action' }).click()
+  await page.getByRole('button', { name: /No action/ }).click()
+  await page.getByRole('dialog').getByTestId('confirm-yes').click()
+  await page.getByRole('button', { name: 'Record as-left' }).click()
+  await expect.poll(() => page.getByTestId('result-as-left').isVisible()).toBe(true)
+  await page.getByRole('button', { name: 'Next: Finish' }).click()
+  await page.getByRole('button', { name: /Charging valve leak-checked/ }).click()
+  await page.getByRole('button', { name: /Valve cap refitted/ }).click()
+  if (photo) {
+    // The gauge photo is taken with no signal: kept on the device, sent with the worksheet.
+    await page.getByLabel(/Gauge photo/).setInputFiles(photo)
+    await expect.poll(() => page.getByTestId('kept-photos').innerText()).toContain(photo.name)
+  }
+  await page.getByRole('button', { name: 'Save and continue' }).click()
+  await expect.poll(() => page.getByTestId('local-banner').innerText()).toMatch(/Ready to sign[\s\S]*needs the connection/)
+}
+
 describe('a worksheet with no signal', () => {
   it('starts, fills and completes on the device, waits to be signed, then syncs and is recomputed by the server', { timeout: 180_000 }, async () => {
     const page = await readyForTheRamp()
@@ -72,23 +99,7 @@ describe('a worksheet with no signal', () => {
     await page.getByLabel(/Gas temperature/).fill('12')
     await page.getByLabel(/Minutes since/).fill('60')
     await page.getByRole('button', { name: 'Save and continue' }).click()
-    await page.getByLabel(/As-found reading/).fill('1420')
-    await page.getByRole('button', { name: 'Record as-found' }).click()
-    // The verdict is worked out on the device by the shared engine.
-    await expect.poll(() => page.getByTestId('result-as-found').innerText()).toMatch(/Target/)
-    await page.getByRole('button', { name: 'Next: Action' }).click()
-    await page.getByRole('button', { name: /No action/ }).click()
-    await page.getByRole('dialog').getByTestId('confirm-yes').click()
-    await page.getByRole('button', { name: 'Record as-left' }).click()
-    await expect.poll(() => page.getByTestId('result-as-left').isVisible()).toBe(true)
-    await page.getByRole('button', { name: 'Next: Finish' }).click()
-    await page.getByRole('button', { name: /Charging valve leak-checked/ }).click()
-    await page.getByRole('button', { name: /Valve cap refitted/ }).click()
-    // The gauge photo is taken with no signal: kept on the device, sent with the worksheet.
-    await page.getByLabel(/Gauge photo/).setInputFiles({ name: 'gauge-ramp.png', mimeType: 'image/png', buffer: PNG })
-    await expect.poll(() => page.getByTestId('kept-photos').innerText()).toMatch(/gauge-ramp\.png/)
-    await page.getByRole('button', { name: 'Save and continue' }).click()
-    await expect.poll(() => page.getByTestId('local-banner').innerText()).toMatch(/Ready to sign[\s\S]*needs the connection/)
+    await completeOnDevice(page, '1420', { name: 'gauge-ramp.png', mimeType: 'image/png', buffer: PNG })
     await expect.poll(() => page.getByTestId('connection').innerText()).toMatch(/Offline[\s·]*1 worksheet waiting to send/)
     await page.goto('/device')
     await expect.poll(() => page.getByTestId('queue').innerText()).toMatch(/QX-FMJ · System 1, aft equipment bay · WO-RAMP-0001/)
@@ -165,19 +176,7 @@ describe('sent in the background', () => {
     await page.getByRole('button', { name: 'Save and continue' }).click()
     await expect.poll(() => page.getByRole('heading', { name: /^4 · As-found/ }).isVisible()).toBe(true)
     // Completed on the device, to the last step before signing.
-    await page.getByLabel(/As-found reading/).fill('1000')
-    await page.getByRole('button', { name: 'Record as-found' }).click()
-    await expect.poll(() => page.getByTestId('result-as-found').innerText()).toMatch(/Target/)
-    await page.getByRole('button', { name: 'Next: Action' }).click()
-    await page.getByRole('button', { name: /No action/ }).click()
-    await page.getByRole('dialog').getByTestId('confirm-yes').click()
-    await page.getByRole('button', { name: 'Record as-left' }).click()
-    await expect.poll(() => page.getByTestId('result-as-left').isVisible()).toBe(true)
-    await page.getByRole('button', { name: 'Next: Finish' }).click()
-    await page.getByRole('button', { name: /Charging valve leak-checked/ }).click()
-    await page.getByRole('button', { name: /Valve cap refitted/ }).click()
-    await page.getByRole('button', { name: 'Save and continue' }).click()
-    await expect.poll(() => page.getByTestId('local-banner').innerText()).toMatch(/Ready to sign[\s\S]*needs the connection/)
+    await completeOnDevice(page, '1000')
     await expect.poll(() => page.getByTestId('connection').innerText()).toMatch(/1 worksheet waiting to send/)
     // The app is closed while there is no network; then the network returns. No page of the app is open to send
     // the queue: only the service worker can.
