@@ -66,6 +66,9 @@ export default defineNuxtConfig({
     deviceClockSpanHours: 72,
     /** Behind a reverse proxy: take the client address from X-Forwarded-For. */
     trustProxy: false,
+    /** The operator and station printed on every record (NUXT_OPERATOR_NAME, NUXT_STATION_NAME). */
+    operatorName: '',
+    stationName: '',
     public: {
       /** The station's time zone (IANA name): dates on screen and "today" are the station's. */
       stationTimeZone: 'UTC',

@@ -18,6 +18,8 @@ if (!env.NUXT_SESSION_PASSWORD) {
 }
 // The demo runs on this machine: its labels may open localhost (a production server refuses them).
 env.NUXT_ALLOW_LOOPBACK_LABELS ??= 'true'
+env.NUXT_OPERATOR_NAME ??= 'Fellmoor Regional'
+env.NUXT_STATION_NAME ??= 'Fellmoor main base'
 env.NUXT_FAKE_SMTP ??= env.NUXT_SMTP_URL ? '' : 'fake'
 
 const run = (command, args) => execFileSync(command, args, { stdio: 'inherit', env })

@@ -10,6 +10,7 @@ import * as outbox from '../migrations/0007-outbox'
 import * as cycleTrends from '../migrations/0008-cycle-trends'
 import * as millionRows from '../migrations/0009-million-rows'
 import * as trendTableOrder from '../migrations/0010-trend-table-order'
+import * as passkeySignatures from '../migrations/0011-passkey-signatures'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -23,6 +24,7 @@ const MIGRATIONS = [
   { name: '0008-cycle-trends', ...cycleTrends },
   { name: '0009-million-rows', ...millionRows },
   { name: '0010-trend-table-order', ...trendTableOrder },
+  { name: '0011-passkey-signatures', ...passkeySignatures },
 ]
 
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */

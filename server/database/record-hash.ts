@@ -27,6 +27,8 @@ interface Child {
   foreignKey: string
   name: string
   exclude?: string[]
+  /** Columns added later, left out while empty so records written before them keep their hash. */
+  omitWhenNull?: string[]
 }
 /** `omitWhenNull`: columns added later, left out while empty so records written before them keep their hash. */
 interface RecordKind {
@@ -61,7 +63,12 @@ export const RECORD_KINDS = {
     omitWhenNull: ['clientId'],
     derived: row => listColumns(row.content as Record<string, unknown>, row.results as Record<string, unknown>),
     children: [
-      { model: Signature as ModelStatic<Model>, foreignKey: 'worksheetId', name: 'signatures' },
+      {
+        model: Signature as ModelStatic<Model>,
+        foreignKey: 'worksheetId',
+        name: 'signatures',
+        omitWhenNull: ['method', 'passkeyId', 'payload', 'signedFields', 'assertion'],
+      },
       { model: Attachment as ModelStatic<Model>, foreignKey: 'worksheetId', name: 'attachments' },
     ],
   },
@@ -186,7 +193,8 @@ export function hashOfRow(kind: RecordKindName, row: Row, children: Record<strin
   const disagreeing = definition.derived ? derivedDisagreements(row, definition.derived) : null
   if (disagreeing) snapshot.storedOutOfStep = disagreeing
   for (const child of definition.children)
-    snapshot[child.name] = (children[child.name] ?? []).map(candidate => plain(candidate, child.exclude))
+    snapshot[child.name] = (children[child.name] ?? [])
+      .map(candidate => plain(candidate, child.exclude, child.omitWhenNull))
   return sha256(JSON.stringify(canonical(snapshot)))
 }
 

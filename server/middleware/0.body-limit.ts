@@ -11,6 +11,7 @@ const KIB = 1024
 function limitFor(path: string, uploadMaxBytes: number): number {
   if (path.startsWith('/api/auth/')) return 4 * KIB
   if (path.startsWith('/api/attachments')) return uploadMaxBytes + 64 * KIB
+  if (path.startsWith('/api/records/verify')) return 40 * 1024 * KIB
   if (/^\/api\/[a-z-]+\/import(?:\?|$)/.test(path)) return 4 * 1024 * KIB
   return 256 * KIB
 }

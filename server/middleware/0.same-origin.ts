@@ -38,7 +38,10 @@ export default defineEventHandler((event) => {
   const hasBody = Number(getRequestHeader(event, 'content-length') ?? 0) > 0 || !!getRequestHeader(event, 'transfer-encoding')
   if (!hasBody && !type) return
   const path = event.path.split('?')[0]!
-  const allowed = type === 'application/json' || (UPLOADS.test(path) && (type === 'multipart/form-data' || type === 'text/csv'))
+  const allowed = type === 'application/json'
+    || (UPLOADS.test(path) && (type === 'multipart/form-data' || type === 'text/csv'))
+    // A record PDF dropped on the verify page changes nothing; it is only read.
+    || (path === '/api/records/verify' && type === 'application/pdf')
   if (!allowed)
     throw createError({
       status: 415,

@@ -8,7 +8,9 @@ import { AuditHead } from './audit-head'
 import { CycleCheck } from './cycle-check'
 import { LoginAttempt } from './login-attempt'
 import { Notification } from './notification'
+import { Passkey } from './passkey'
 import { PrechargeReading } from './precharge-reading'
+import { Setting } from './setting'
 import { Signature } from './signature'
 import { SizingStudy } from './sizing-study'
 import { Specification } from './specification'
@@ -31,7 +33,9 @@ export {
   CycleCheck,
   LoginAttempt,
   Notification,
+  Passkey,
   PrechargeReading,
+  Setting,
   Signature,
   SizingStudy,
   Specification,
@@ -57,6 +61,8 @@ export function initModels(sequelize: Sequelize): void {
     Accumulator,
     AccumulatorInstallation,
     Tool,
+    Passkey,
+    Setting,
     Worksheet,
     Signature,
     Attachment,
@@ -87,6 +93,8 @@ export function initModels(sequelize: Sequelize): void {
   Worksheet.hasMany(Signature, { as: 'signatures', foreignKey: 'worksheetId' })
   Worksheet.hasMany(Attachment, { as: 'attachments', foreignKey: 'worksheetId' })
   Signature.belongsTo(User, { as: 'user', foreignKey: 'userId' })
+  Signature.belongsTo(Passkey, { as: 'passkey', foreignKey: 'passkeyId' })
+  User.hasMany(Passkey, { as: 'passkeys', foreignKey: 'userId' })
   SizingStudy.belongsTo(Specification, { as: 'specification', foreignKey: 'specificationId' })
   CycleCheck.belongsTo(Aircraft, { as: 'aircraft', foreignKey: 'aircraftId' })
   CycleCheck.belongsTo(Accumulator, { as: 'accumulator', foreignKey: 'accumulatorId' })

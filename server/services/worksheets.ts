@@ -1,9 +1,12 @@
+import type { AuthenticationResponseJSON } from '@simplewebauthn/types'
 import type { H3Event } from 'h3'
 import { Op, type Transaction } from 'sequelize'
 import { ENGINE_VERSION } from '#shared/gas/version'
 import type { WorksheetCreateBody, WorksheetStepBody } from '#shared/schemas/worksheet'
+import type { SigningOptionsDto } from '#shared/types/signing'
 import {
   WORKSHEET_STATE_LABELS,
+  type SignatureCapacity,
   type WorksheetContent,
   type WorksheetDto,
   type WorksheetState,
@@ -28,10 +31,13 @@ import {
 } from '#shared/utils/worksheet-steps'
 import { stationDate } from '#shared/utils/station-time'
 import { appendAudit } from '../database/audit-chain'
-import { Accumulator, Aircraft, Attachment, Signature, Tool, User, Worksheet, listColumns } from '../models'
+import { challengeOf, keyFingerprint, type SignedRecordSource } from '../utils/record-proof'
+import { Accumulator, Aircraft, Attachment, Passkey, Signature, Tool, User, Worksheet, listColumns } from '../models'
 import { askForCountersign, mailAlerts, tellReturned } from './notifications'
 import { notFound, unprocessable } from './audited-writes'
-import { confirmSigner, createSignature, currentSigner } from './signatures'
+import { signingRequestOptions, verifySigningAssertion } from './passkeys'
+import { signingPolicy } from './signing-policy'
+import { confirmSigner, createSignature, currentSigner, signingMethod, signingProof, type SignedAs } from './signatures'
 import { currentSpecification, toSpecificationDto } from './specifications'
 import { trendAfterCorrection, trendAfterRelease, trendAfterVoid } from './trends'
 
@@ -45,10 +51,11 @@ import { trendAfterCorrection, trendAfterRelease, trendAfterVoid } from './trend
 
 type Actor = Pick<User, 'id' | 'name' | 'roles' | 'authorisationNumber'>
 
-/** The request a signature comes with, and the password the signer re-entered in it. */
+/** The request a signature comes with, and the signer's proof: the password re-entered, or a passkey's assertion. */
 export interface SignerProof {
   event: H3Event
-  password: string
+  password?: string
+  passkey?: AuthenticationResponseJSON
 }
 
 /** Throws a rule's refusal as an HTTP error (403 or 409 with the reason). */
@@ -82,7 +89,7 @@ function asHttpError(refusal: StepRefusal, more: Record<string, unknown> = {}) {
 export async function findWorksheet(id: number, transaction?: Transaction): Promise<Worksheet> {
   const worksheet = await Worksheet.findByPk(id, {
     include: [
-      { model: Signature, as: 'signatures' },
+      { model: Signature, as: 'signatures', include: [{ model: Passkey, as: 'passkey' }] },
       { model: Attachment, as: 'attachments' },
       { model: User, as: 'performer', attributes: ['id', 'name'] },
     ],
@@ -127,13 +134,16 @@ export async function toWorksheetDto(worksheet: Worksheet): Promise<WorksheetDto
       statement: signature.statement,
       signedAt: signature.signedAt.toISOString(),
       round: signature.round,
+      method: signature.method ?? null,
+      keyFingerprint: signature.passkey ? keyFingerprint(signature.passkey.publicKey) : null,
     })),
-    attachments: attachments.map(({ id, kind, originalName, mimeType, sizeBytes }) => ({
+    attachments: attachments.map(({ id, kind, originalName, mimeType, sizeBytes, sha256 }) => ({
       id,
       kind,
       originalName,
       mimeType,
       sizeBytes,
+      sha256,
     })),
     settleUntil: settleUntil(worksheet.content),
   }
@@ -469,25 +479,93 @@ function resultsToSign(content: WorksheetContent) {
   return results
 }
 
+/** What a performer's signature freezes: results recomputed now with this engine, and the verdict. */
+function frozenForSignature(worksheet: Worksheet) {
+  const results = resultsToSign(worksheet.content)
+  return { results, engineVersion: ENGINE_VERSION, serviceable: results.asLeft!.assessment.verdict === 'in-limits' }
+}
+
+/** The record as a signature would be over it: as stored, with what the signature freezes in place. */
+function recordToSign(worksheet: Worksheet, frozen?: ReturnType<typeof frozenForSignature>): SignedRecordSource {
+  const attachments = (worksheet as Worksheet & { attachments?: Attachment[] }).attachments ?? []
+  return {
+    id: worksheet.id,
+    round: worksheet.round,
+    workOrder: worksheet.workOrder,
+    reason: worksheet.reason,
+    correctsId: worksheet.correctsId,
+    performer: { id: worksheet.performerId },
+    content: worksheet.content,
+    results: frozen?.results ?? worksheet.results,
+    engineVersion: frozen?.engineVersion ?? worksheet.engineVersion,
+    serviceable: frozen?.serviceable ?? worksheet.serviceable,
+    attachments: [...attachments].sort((a, b) => a.id - b.id),
+  }
+}
+
 /**
- * The performer signs with their password: results recomputed and frozen, awaiting countersign; inspectors are
- * told.
+ * What the signing form needs: the organisation's rule for this capacity and, when the signer has a
+ * passkey, WebAuthn options whose challenge is the SHA-256 of what would be signed now.
+ */
+export async function signingOptions(
+  event: H3Event,
+  actor: Actor,
+  id: number,
+  capacity: SignatureCapacity,
+): Promise<SigningOptionsDto> {
+  const signer = await currentSigner(actor.id)
+  const worksheet = await findWorksheet(id)
+  enforce(capacity === 'performer' ? canEdit(signer, worksheet) : canInspect(signer, worksheet))
+  const record = recordToSign(worksheet, capacity === 'performer' ? frozenForSignature(worksheet) : undefined)
+  const proof = signingProof(record, signer, capacity)
+  const policy = await signingPolicy()
+  return {
+    rule: policy[capacity],
+    passkey: policy[capacity] === 'password' ? null : await signingRequestOptions(event, signer.id, challengeOf(proof.payload)),
+    contentHash: proof.payload.contentHash,
+  }
+}
+
+/** The signature's proof: checked before any write (a password) or inside it (a passkey, whose counter moves). */
+async function signedAs(
+  signer: User,
+  capacity: SignatureCapacity,
+  record: SignedRecordSource,
+  proof: SignerProof,
+): Promise<(transaction: Transaction) => Promise<SignedAs>> {
+  const method = signingMethod((await signingPolicy())[capacity], proof)
+  const { payload, signedFields } = signingProof(record, signer, capacity)
+  if (method === 'password') {
+    await confirmSigner(proof.event, signer, proof.password!)
+    return async () => ({ method, payload, signedFields, passkeyId: null, assertion: null })
+  }
+  return async (transaction) => {
+    const answer = proof.passkey!
+    const { passkey, assertion } = await verifySigningAssertion(proof.event, signer, answer, payload, transaction)
+    return { method, payload, signedFields, passkeyId: passkey.id, assertion }
+  }
+}
+
+/**
+ * The performer signs (password or passkey, as the organisation asks): results recomputed and frozen,
+ * awaiting countersign; inspectors are told.
  */
 export async function signWorksheet(
   actor: Actor,
   id: number,
-  { event, password }: SignerProof,
+  proof: SignerProof,
   expectedVersion?: number,
 ): Promise<WorksheetDto> {
   const signer = await currentSigner(actor.id)
   const seen = await findWorksheet(id)
   enforce(canEdit(signer, seen))
   checkVersion(seen, expectedVersion)
-  await confirmSigner(event, signer, password)
-  const results = resultsToSign(seen.content)
+  const frozen = frozenForSignature(seen)
+  const prove = await signedAs(signer, 'performer', recordToSign(seen, frozen), proof)
   const now = new Date()
-  const serviceable = results.asLeft!.assessment.verdict === 'in-limits'
+  const { results, serviceable } = frozen
   await writeTransaction(async (transaction) => {
+    const signature = await prove(transaction)
     // Signed as seen: the version whose content was just checked, or the request loses.
     const changes = {
       state: 'awaiting-countersign' as const,
@@ -498,12 +576,18 @@ export async function signWorksheet(
       returnReason: null,
     }
     await compareAndSet(seen, EDITABLE_STATES, changes, transaction)
-    await createSignature(seen, signer, 'performer', now, transaction)
+    await createSignature(seen, signer, 'performer', now, transaction, signature)
     await audit(
       signer,
       seen,
       'signed',
-      { engineVersion: ENGINE_VERSION, serviceable, round: seen.round },
+      {
+        engineVersion: ENGINE_VERSION,
+        serviceable,
+        round: seen.round,
+        method: signature.method,
+        contentHash: signature.payload.contentHash,
+      },
       transaction,
       now,
     )
@@ -516,19 +600,32 @@ export async function signWorksheet(
 export async function countersignWorksheet(
   actor: Actor,
   id: number,
-  { event, password }: SignerProof,
+  proof: SignerProof,
   expectedVersion?: number,
 ): Promise<WorksheetDto> {
   const signer = await currentSigner(actor.id)
   const seen = await findWorksheet(id)
   enforce(canInspect(signer, seen))
   checkVersion(seen, expectedVersion)
-  await confirmSigner(event, signer, password)
+  const prove = await signedAs(signer, 'inspector', recordToSign(seen), proof)
   const now = new Date()
   await writeTransaction(async (transaction) => {
+    const signature = await prove(transaction)
     await compareAndSet(seen, ['awaiting-countersign'], { state: 'released', releasedAt: now }, transaction)
-    await createSignature(seen, signer, 'inspector', now, transaction)
-    await audit(signer, seen, 'countersigned', { performerId: seen.performerId, round: seen.round }, transaction, now)
+    await createSignature(seen, signer, 'inspector', now, transaction, signature)
+    await audit(
+      signer,
+      seen,
+      'countersigned',
+      {
+        performerId: seen.performerId,
+        round: seen.round,
+        method: signature.method,
+        contentHash: signature.payload.contentHash,
+      },
+      transaction,
+      now,
+    )
     // The released as-found joins its unit's trend, in the same write; a correction replaces what it corrects.
     const superseded = await trendAfterCorrection(seen, transaction)
     // Each alert's mail is queued in this same write: an alert is never raised without its mail.
@@ -601,13 +698,4 @@ export async function discardWorksheet(
     await audit(actor, worksheet, 'discarded', { reason }, transaction)
   })
   return worksheetById(id)
-}
-
-/** A released (or voided) worksheet as a PDF record: the sections the record page shows. */
-export async function worksheetRecordPdf(id: number): Promise<Uint8Array> {
-  const worksheet = await worksheetById(id)
-  if (worksheet.state !== 'released' && worksheet.state !== 'voided') {
-    conflict('Only a released (or voided) worksheet is issued as a PDF record; use the print page to review a draft.')
-  }
-  return worksheetPdf(worksheet)
 }

@@ -49,12 +49,26 @@ function loadFontFiles(): Promise<Record<Face, FontFile[]>> {
 }
 
 interface Block {
+  kind?: 'text'
   text: string
   face: Face
   size: number
   gap: number
   colour: [number, number, number]
   spaceBefore: number
+}
+interface ImageBlock {
+  kind: 'image'
+  bytes: Uint8Array
+  mimeType: string
+  maxWidth: number
+  maxHeight: number
+}
+interface Attachment {
+  name: string
+  bytes: Uint8Array
+  mimeType: string
+  description: string
 }
 interface Run {
   text: string
@@ -66,7 +80,9 @@ const MARGIN = 50
 const A4: [number, number] = [595.28, 841.89]
 
 export class PdfWriter {
-  private readonly blocks: Block[] = []
+  private readonly blocks: (Block | ImageBlock)[] = []
+  private readonly attachments: Attachment[] = []
+  private footerOf?: (page: number, pages: number) => string
 
   private constructor(private readonly title: string) {}
 
@@ -86,6 +102,21 @@ export class PdfWriter {
       colour: options.colour ?? INK,
       spaceBefore: 0,
     })
+  }
+
+  /** A JPEG or PNG drawn at most `maxWidth` × `maxHeight` points, on the next page if it does not fit. */
+  image(bytes: Uint8Array, mimeType: string, options: { maxWidth?: number, maxHeight?: number } = {}): void {
+    this.blocks.push({ kind: 'image', bytes, mimeType, maxWidth: options.maxWidth ?? 260, maxHeight: options.maxHeight ?? 220 })
+  }
+
+  /** A file embedded in the PDF (its attachments panel), e.g. the record's content as JSON. */
+  attach(name: string, bytes: Uint8Array, mimeType: string, description: string): void {
+    this.attachments.push({ name, bytes, mimeType, description })
+  }
+
+  /** A line at the foot of every page, given its number and the count: "Worksheet 12 · page 1 of 3". */
+  footer(text: (page: number, pages: number) => string): void {
+    this.footerOf = text
   }
 
   heading(text: string): void {
@@ -165,7 +196,21 @@ export class PdfWriter {
       }
       y -= block.gap
     }
-    for (const block of this.blocks) await draw(block)
+    const drawImage = async (block: ImageBlock) => {
+      const image = block.mimeType === 'image/png' ? await document.embedPng(block.bytes) : await document.embedJpg(block.bytes)
+      const scale = Math.min(1, block.maxWidth / image.width, block.maxHeight / image.height)
+      const [w, h] = [image.width * scale, image.height * scale]
+      if (y - h < MARGIN) {
+        page = document.addPage(A4)
+        y = A4[1] - MARGIN
+      }
+      page.drawImage(image, { x: MARGIN, y: y - h, width: w, height: h })
+      y -= h + 6
+    }
+    for (const block of this.blocks) {
+      if (block.kind === 'image') await drawImage(block)
+      else await draw(block)
+    }
     if (undrawable.size > 0) {
       await draw({
         text: 'Some characters in this record could not be drawn with the fonts Chargewell ships; each is shown as [U+code], its Unicode number, so nothing was dropped.',
@@ -174,6 +219,23 @@ export class PdfWriter {
         gap: 0,
         colour: [0.55, 0.1, 0.07],
         spaceBefore: 10,
+      })
+    }
+    if (this.footerOf) {
+      const pages = document.getPages()
+      for (const [index, each] of pages.entries()) {
+        let x = MARGIN
+        for (const run of runsOf(this.footerOf(index + 1, pages.length), 'regular')) {
+          const font = await fontFor(run.file)
+          each.drawText(run.text, { x, y: 24, size: 8, font, color: rgb(...INK) })
+          x += font.widthOfTextAtSize(run.text, 8)
+        }
+      }
+    }
+    for (const attachment of this.attachments) {
+      await document.attach(attachment.bytes, attachment.name, {
+        mimeType: attachment.mimeType,
+        description: attachment.description,
       })
     }
     return document.save()

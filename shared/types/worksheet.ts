@@ -148,6 +148,10 @@ export interface SignatureDto {
   signedAt: string
   /** The signing round: one more each time the record was returned. */
   round: number
+  /** password or passkey; null for signatures made before passkeys existed (password). */
+  method: 'password' | 'passkey' | null
+  /** The passkey's public-key fingerprint (passkey signatures). */
+  keyFingerprint: string | null
 }
 
 export interface WorksheetDto {
@@ -173,7 +177,14 @@ export interface WorksheetDto {
   createdAt: string
   updatedAt: string
   signatures: SignatureDto[]
-  attachments: { id: number, kind: string, originalName: string, mimeType: string, sizeBytes: number }[]
+  attachments: {
+    id: number
+    kind: string
+    originalName: string
+    mimeType: string
+    sizeBytes: number
+    sha256: string | null
+  }[]
   /** The settle time's end, when a charge or vent started it. */
   settleUntil: string | null
 }

@@ -36,14 +36,17 @@ function numberFormat(locale: string, options: Intl.NumberFormatOptions): Intl.N
 export interface DisplaySettings {
   locale: string
   timeZone: string
+  /** Times carry their zone ("14:05 UTC"): a filed record is read far from its station. */
+  showZone?: boolean
 }
 
 const DATE: Intl.DateTimeFormatOptions = { day: 'numeric', month: 'short', year: 'numeric' }
-const TIME: Intl.DateTimeFormatOptions = { hour: '2-digit', minute: '2-digit' }
+const TIME_OF_DAY: Intl.DateTimeFormatOptions = { hour: '2-digit', minute: '2-digit' }
 
 /** One way of writing dates and times for every page, the PDF and e-mail. */
 export function displayFormat(settings: DisplaySettings) {
   const { locale, timeZone } = settings
+  const TIME: Intl.DateTimeFormatOptions = settings.showZone ? { ...TIME_OF_DAY, timeZoneName: 'short' } : TIME_OF_DAY
   const valid = (value: string | Date | null | undefined): value is string | Date =>
     !!value && !Number.isNaN(new Date(value).getTime())
   return {

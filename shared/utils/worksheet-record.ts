@@ -174,7 +174,14 @@ export function worksheetRecordSections(worksheet: WorksheetDto, display: Displa
   }
 
   if (worksheet.attachments.length) {
-    sections.push({ id: 'attachments', title: 'Attachments', lines: worksheet.attachments.map(attachment => ({ label: attachment.kind, text: attachment.originalName })) })
+    sections.push({
+      id: 'attachments',
+      title: 'Attachments',
+      lines: worksheet.attachments.map(attachment => ({
+        label: attachment.kind,
+        text: `${attachment.originalName}${attachment.sha256 ? ` · SHA-256 ${attachment.sha256}` : ''}`,
+      })),
+    })
   }
 
   sections.push({
@@ -187,6 +194,12 @@ export function worksheetRecordSections(worksheet: WorksheetDto, display: Displa
             tone: 'strong' as const,
           },
           { text: `“${signature.statement}”`, tone: 'quiet' as const },
+          {
+            text: signature.method === 'passkey'
+              ? `Signed with a passkey, key ${signature.keyFingerprint ?? 'unknown'}`
+              : 'Signed with the password re-entered',
+            tone: 'quiet' as const,
+          },
         ])
       : [{ text: 'Not signed yet.', tone: 'quiet' }],
   })

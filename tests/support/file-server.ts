@@ -58,6 +58,8 @@ await setup({
     NUXT_FAKE_SMTP_PORT: String(await freePort()),
     NUXT_PUBLIC_URL: `http://127.0.0.1:${port}`,
     NUXT_ALLOW_LOOPBACK_LABELS: 'true',
+    NUXT_OPERATOR_NAME: 'Fellmoor Regional',
+    NUXT_STATION_NAME: 'Fellmoor main base',
   },
 })
 

@@ -68,6 +68,8 @@ export async function startTestServer(env: Record<string, string> = {}): Promise
         NUXT_FAKE_SMTP_PORT: String(smtpPort),
         NUXT_PUBLIC_URL: baseURL,
         NUXT_ALLOW_LOOPBACK_LABELS: 'true',
+        NUXT_OPERATOR_NAME: 'Fellmoor Regional',
+        NUXT_STATION_NAME: 'Fellmoor main base',
         ...env,
       },
       stdio: ['ignore', 'pipe', 'pipe'],
