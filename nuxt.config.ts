@@ -91,6 +91,9 @@ export default defineNuxtConfig({
     // Static files are stored gzip- and brotli-compressed and served so to browsers that take them.
     compressPublicAssets: { gzip: true, brotli: true },
     // The fonts PDFs are drawn in, bundled with the server (see server/utils/pdf-writer.ts).
+    // pdf.js loads its worker by path (the record verifier reads PDFs on the server): ship it with the bundle.
+    // Its DOMMatrix comes from @napi-rs/canvas on Node: ship that too.
+    externals: { traceInclude: ['node_modules/pdfjs-dist/legacy/build/pdf.worker.mjs', 'node_modules/@napi-rs/canvas/index.js'] },
     serverAssets: [
       { baseName: 'pdf-fonts', dir: packageFolder('@fontsource/source-sans-3/files'), pattern: 'source-sans-3-*-{400,700}-normal.woff' },
       { baseName: 'pdf-fonts-fallback', dir: packageFolder('dejavu-fonts-ttf/ttf'), pattern: 'DejaVuSans{,-Bold}.ttf' },

@@ -35,7 +35,7 @@ export async function useWorksheet(id: number) {
 export function decideWorksheet(
   worksheet: Pick<WorksheetDto, 'id' | 'version'>,
   decision: WorksheetDecision,
-  body: { reason?: string, password?: string },
+  body: { reason?: string, password?: string, certify?: boolean, passkey?: unknown },
 ) {
   return $fetch<WorksheetDto>(`/api/worksheets/${worksheet.id}/${decision}`, {
     method: 'POST',

@@ -2,6 +2,8 @@ import { NAVIGATION, canSee, closedReason } from '#shared/navigation'
 
 /** Page guard for the user's convenience only: the server checks every request itself. */
 export default defineNuxtRouteMiddleware(async (to) => {
+  // The verify page is for anyone holding a record (an auditor needs no account).
+  if (to.meta.public) return
   const { loggedIn, user } = useUserSession()
   if (to.path === '/login') {
     if (loggedIn.value) return navigateTo('/')

@@ -20,6 +20,8 @@ export const ABILITIES = {
   'worksheet.perform': ['technician'],
   /** Countersign or return others' worksheets. */
   'worksheet.inspect': ['inspector'],
+  /** Sign in either capacity (asks how: password or passkey). */
+  'worksheet.sign': ['technician', 'inspector'],
   'worksheet.void': ['inspector', 'admin'],
   'study.read': ['engineer', 'admin'],
   'study.edit': ['engineer', 'admin'],

@@ -21,9 +21,15 @@ import { notFound, unprocessable } from './audited-writes'
 
 const REGISTRATION_MINUTES = 5
 
-/** The relying party is the address users open Chargewell at. */
+/**
+ * The relying party is the address users open Chargewell at (NUXT_PUBLIC_URL): a passkey answer made on
+ * any other page is refused. Where loopback addresses are allowed (the demo and the tests on one
+ * machine), a browser on localhost is its own relying party: WebAuthn takes no IP address.
+ */
 export function relyingParty(event: H3Event): { rpID: string, origin: string } {
-  const origin = publicAddress(event)
+  const requested = requestedURL(event).origin
+  const loopbackAllowed = import.meta.dev || String(useRuntimeConfig().allowLoopbackLabels) === 'true'
+  const origin = loopbackAllowed && isLoopbackAddress(requested) ? requested : publicAddress(event)
   return { rpID: new URL(origin).hostname, origin }
 }
 

@@ -126,6 +126,18 @@ describe('passkeys as signing credentials', () => {
     expect(text).toContain('Signed with a passkey, key')
   })
 
+  it('the verify route checks a dropped PDF from the file alone, with no session', async () => {
+    const pdf = await recordPdf(released)
+    const answer = await fetch(`${baseURL()}/api/records/verify`, { method: 'POST', headers: { 'content-type': 'application/pdf' }, body: Buffer.from(pdf) })
+    const body = await answer.json()
+    expect(answer.status, JSON.stringify(body)).toBe(200)
+    expect(body).toMatchObject({ ok: true, worksheetId: released })
+    const empty = await fetch(`${baseURL()}/api/records/verify`, { method: 'POST', headers: { 'content-type': 'application/pdf' }, body: '' })
+    expect(empty.status).toBe(422)
+    const notPdf = await (await fetch(`${baseURL()}/api/records/verify`, { method: 'POST', headers: { 'content-type': 'application/pdf' }, body: 'hello' })).json()
+    expect(notPdf).toMatchObject({ ok: false, readable: false, problems: ['This is not a PDF file.'] })
+  })
+
   it('an edit of the released record in the database makes its PDF fail, naming the signature and the field', async () => {
     const [row] = await sql<{ content: unknown }>(fileDatabase(), 'SELECT content FROM worksheets WHERE id = ?', [released])
     const content = JSON.parse(asText(row!.content))

@@ -37,10 +37,12 @@ export const PHONE = { width: 390, height: 844 }
 
 export async function signedInPage(
   browser: Browser, email: string, password = 'chargewell-demo',
-  options: { locale?: string, viewport?: { width: number, height: number } } = {},
+  options: { locale?: string, viewport?: { width: number, height: number }, host?: string } = {},
 ): Promise<Page> {
+  // `host: 'localhost'`: WebAuthn takes a domain as the relying party, never an IP address.
+  const address = options.host ? baseURL().replace('127.0.0.1', options.host) : baseURL()
   const context = await browser.newContext({
-    baseURL: baseURL(), viewport: options.viewport ?? { width: 1180, height: 820 }, locale: options.locale,
+    baseURL: address, viewport: options.viewport ?? { width: 1180, height: 820 }, locale: options.locale,
   })
   const page = waitForHydration(await context.newPage())
   // When a test fails, say what the browser saw go wrong (answers of 400 and up, console errors).

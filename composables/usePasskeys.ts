@@ -1,0 +1,69 @@
+import type { RecordVerification } from '#shared/types/record-proof'
+import type { PasskeyDto, SigningOptionsDto, SigningPolicy } from '#shared/types/signing'
+import type { SignatureCapacity } from '#shared/types/worksheet'
+
+/** The signed-in user's passkey register; adding one asks the device (or a security key) to create it. */
+export async function useMyPasskeys() {
+  const passkeys = await useFetch<PasskeyDto[]>('/api/me/passkeys', { key: 'my-passkeys' })
+  async function add(name: string) {
+    const { startRegistration } = await import('@simplewebauthn/browser')
+    const started = await $fetch<{ options: Parameters<typeof startRegistration>[0]['optionsJSON'], ticket: string }>(
+      '/api/me/passkeys/options',
+      { method: 'POST' },
+    )
+    const response = await startRegistration({ optionsJSON: started.options })
+    const added = await $fetch<PasskeyDto>('/api/me/passkeys', { method: 'POST', body: { name, ticket: started.ticket, response } })
+    await passkeys.refresh()
+    return added
+  }
+  async function revoke(passkey: Pick<PasskeyDto, 'id'>) {
+    await $fetch(`/api/me/passkeys/${passkey.id}/revoke`, { method: 'POST' })
+    await passkeys.refresh()
+  }
+  return { ...passkeys, add, revoke }
+}
+
+/** How a signature may be made here, and a passkey's request over exactly what would be signed now. */
+export function signingOptionsFor(worksheetId: number, capacity: SignatureCapacity) {
+  return $fetch<SigningOptionsDto>(`/api/worksheets/${worksheetId}/signing-options`, { query: { capacity } })
+}
+
+/** Asks the device or security key to sign; answers the assertion the server checks. */
+export async function passkeyAssertion(options: NonNullable<SigningOptionsDto['passkey']>) {
+  const { startAuthentication } = await import('@simplewebauthn/browser')
+  return startAuthentication({ optionsJSON: options as unknown as Parameters<typeof startAuthentication>[0]['optionsJSON'] })
+}
+
+/** A browser's refusal of a passkey ceremony, in words. */
+export function passkeyFailure(error: unknown): string {
+  const name = (error as { name?: string }).name
+  if (name === 'NotAllowedError') return 'The passkey was not used (cancelled, or it took too long). Nothing was signed or saved.'
+  if (name === 'InvalidStateError') return 'That passkey or security key is already registered.'
+  return errorMessage(error)
+}
+
+/** The signing options as the form opens (asked in the browser: a passkey lives on the device). */
+export function useSigningOptions(worksheetId: number, version: number, capacity: SignatureCapacity) {
+  return useAsyncData(`signing-options-${worksheetId}-${version}-${capacity}`, () => signingOptionsFor(worksheetId, capacity), {
+    server: false,
+  })
+}
+
+/** How each role signs (administrators): read, and saved with the change audited. */
+export async function useSigningPolicy() {
+  const policy = await useFetch<SigningPolicy & { updatedAt: string | null }>('/api/admin/signing-policy', { key: 'signing-policy' })
+  async function save(chosen: SigningPolicy) {
+    await $fetch('/api/admin/signing-policy', { method: 'PUT', body: chosen })
+    await policy.refresh()
+  }
+  return { ...policy, save }
+}
+
+/** Verifies a record PDF from the file alone (the server reads nothing else and keeps nothing). */
+export async function verifyRecordFile(file: File) {
+  return $fetch<RecordVerification>('/api/records/verify', {
+    method: 'POST',
+    body: new Uint8Array(await file.arrayBuffer()),
+    headers: { 'content-type': 'application/pdf' },
+  })
+}

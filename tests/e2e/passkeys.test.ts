@@ -1,0 +1,105 @@
+/**
+ * Signing with passkeys in real Chromium, its virtual authenticator standing in for the tablet's own
+ * authenticator and for a security key (DevTools protocol WebAuthn.addVirtualAuthenticator): register,
+ * sign, countersign, verify the PDF on the verify page, revoke.
+ */
+import { mkdtempSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import type { Browser, Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { api, DEMO, signIn } from '../support/api'
+import { launchBrowser, signedInPage } from '../support/browser'
+import { baseURL } from '../support/file-server'
+import { fillWorksheet, GAS_TEMPERATURE, unitAt } from '../support/worksheet-flow'
+
+let browser: Browser
+beforeAll(async () => {
+  browser = await launchBrowser()
+})
+afterAll(async () => {
+  await browser?.close()
+})
+
+/** A page whose browser has an authenticator: the device's own (internal) or a security key (usb). */
+async function withAuthenticator(email: string, transport: 'internal' | 'usb'): Promise<Page> {
+  const page = await signedInPage(browser, email, undefined, { host: 'localhost' })
+  const devtools = await page.context().newCDPSession(page)
+  await devtools.send('WebAuthn.enable')
+  await devtools.send('WebAuthn.addVirtualAuthenticator', {
+    options: {
+      protocol: 'ctap2',
+      transport,
+      hasResidentKey: true,
+      hasUserVerification: true,
+      isUserVerified: true,
+      automaticPresenceSimulation: true,
+    },
+  })
+  page.on('dialog', dialog => void dialog.accept())
+  return page
+}
+
+async function registerPasskey(page: Page, name: string) {
+  await page.goto('/account')
+  await page.getByLabel('Name for the new passkey').fill(name)
+  await page.getByTestId('add-passkey').click()
+  await expect.poll(() => page.locator('section[aria-labelledby="passkeys-heading"]').innerText()).toContain(`“${name}” is registered`)
+  await expect.poll(() => page.getByTestId('passkeys').innerText()).toContain(name)
+}
+
+async function worksheetReadyToSign(registration: string, position: RegExp): Promise<number> {
+  const cookie = await signIn(DEMO.technician)
+  const unit = await unitAt(cookie, registration, position)
+  const flow = await fillWorksheet(cookie, unit.id)
+  await flow.step({ step: 'asLeft', reading: flow.reading, gasTemperature: GAS_TEMPERATURE })
+  await flow.step({ step: 'finish', valveLeakCheck: true, capFitted: true, remarks: 'Checked in limits.' })
+  return flow.id
+}
+
+describe('passkeys in a real browser', () => {
+  it('register, sign, countersign, verify the PDF, revoke', async () => {
+    const technician = await withAuthenticator(DEMO.technician, 'usb')
+    await registerPasskey(technician, 'Blue security key')
+
+    const id = await worksheetReadyToSign('QX-FMA', /Emergency brake/)
+    await technician.goto(`/worksheets/${id}`)
+    await technician.getByTestId('certify').click()
+    await technician.getByTestId('sign-with-passkey').click()
+    await expect.poll(() => technician.getByTestId('state-badge').first().innerText()).toMatch(/Awaiting countersign/)
+
+    const inspector = await withAuthenticator(DEMO.inspector, 'internal')
+    await registerPasskey(inspector, 'Hangar tablet 3')
+    await inspector.goto(`/worksheets/${id}`)
+    const panel = inspector.getByTestId('countersign-panel')
+    await panel.getByTestId('certify').click()
+    await panel.getByTestId('sign-with-passkey').click()
+    await expect.poll(() => inspector.getByTestId('state-badge').first().innerText()).toMatch(/Released/)
+    await expect.poll(() => inspector.getByTestId('worksheet-record').innerText()).toMatch(/Signed with a passkey, key [0-9a-f]{4} /)
+
+    // The PDF, dropped on the verify page (no account needed there).
+    const pdf = await fetch(`${baseURL()}/api/worksheets/${id}/pdf`, { headers: { cookie: await signIn(DEMO.engineer) } })
+    const file = join(mkdtempSync(join(tmpdir(), 'chargewell-e2e-')), `record-${id}.pdf`)
+    writeFileSync(file, Buffer.from(await pdf.arrayBuffer()))
+    const auditor = await browser.newPage({ baseURL: baseURL() })
+    await auditor.goto('/verify')
+    await auditor.locator('html[data-hydrated]').waitFor({ state: 'attached' })
+    await auditor.getByTestId('record-file').setInputFiles(file)
+    const report = auditor.getByTestId('verification')
+    await expect.poll(() => report.getAttribute('data-ok'), { timeout: 20_000 }).toBe('true')
+    expect(await report.locator('[data-status="valid"]').count()).toBe(2)
+    expect(await report.innerText()).toMatch(/key [0-9a-f]{4} [0-9a-f]{4} [0-9a-f]{4} [0-9a-f]{4} “Blue security key”/)
+
+    // Revoked: listed as such, and the next signature is offered the password only.
+    await technician.goto('/account')
+    await technician.getByTestId('passkeys').getByRole('button', { name: 'Revoke' }).click()
+    await expect.poll(() => technician.getByTestId('passkeys').locator('li').first().getAttribute('data-revoked')).toBe('true')
+    const next = await worksheetReadyToSign('QX-FMA', /Normal brake/)
+    await technician.goto(`/worksheets/${next}`)
+    await technician.getByLabel('Your password, to sign').waitFor()
+    expect(await technician.getByTestId('sign-with-passkey').count()).toBe(0)
+    const answer = await api(`/api/worksheets/${next}/signing-options?capacity=performer`, { cookie: await signIn(DEMO.technician) })
+    expect(answer.body.passkey).toBeNull()
+    await auditor.close()
+  })
+})
