@@ -530,15 +530,14 @@ export async function signingOptions(
 async function signedAs(
   signer: User,
   capacity: SignatureCapacity,
-  record: SignedRecordSource,
   proof: SignerProof,
+  record: () => SignedRecordSource,
 ): Promise<(transaction: Transaction) => Promise<SignedAs>> {
   const method = signingMethod((await signingPolicy())[capacity], proof)
-  const { payload, signedFields } = signingProof(record, signer, capacity)
-  if (method === 'password') {
-    await confirmSigner(proof.event, signer, proof.password!)
-    return async () => ({ method, payload, signedFields, passkeyId: null, assertion: null })
-  }
+  // The password first (as before passkeys): a wrong one is refused whatever else is amiss.
+  if (method === 'password') await confirmSigner(proof.event, signer, proof.password!)
+  const { payload, signedFields } = signingProof(record(), signer, capacity)
+  if (method === 'password') return async () => ({ method, payload, signedFields, passkeyId: null, assertion: null })
   return async (transaction) => {
     const answer = proof.passkey!
     const { passkey, assertion } = await verifySigningAssertion(proof.event, signer, answer, payload, transaction)
@@ -560,10 +559,10 @@ export async function signWorksheet(
   const seen = await findWorksheet(id)
   enforce(canEdit(signer, seen))
   checkVersion(seen, expectedVersion)
-  const frozen = frozenForSignature(seen)
-  const prove = await signedAs(signer, 'performer', recordToSign(seen, frozen), proof)
+  let frozen: ReturnType<typeof frozenForSignature> | undefined
+  const prove = await signedAs(signer, 'performer', proof, () => recordToSign(seen, (frozen = frozenForSignature(seen))))
   const now = new Date()
-  const { results, serviceable } = frozen
+  const { results, serviceable } = frozen!
   await writeTransaction(async (transaction) => {
     const signature = await prove(transaction)
     // Signed as seen: the version whose content was just checked, or the request loses.
@@ -607,7 +606,7 @@ export async function countersignWorksheet(
   const seen = await findWorksheet(id)
   enforce(canInspect(signer, seen))
   checkVersion(seen, expectedVersion)
-  const prove = await signedAs(signer, 'inspector', recordToSign(seen), proof)
+  const prove = await signedAs(signer, 'inspector', proof, () => recordToSign(seen))
   const now = new Date()
   await writeTransaction(async (transaction) => {
     const signature = await prove(transaction)
