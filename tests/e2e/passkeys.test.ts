@@ -61,6 +61,12 @@ describe('passkeys in a real browser', () => {
   it('register, sign, countersign, verify the PDF, revoke', async () => {
     const technician = await withAuthenticator(DEMO.technician, 'usb')
     await registerPasskey(technician, 'Blue security key')
+    // The same key twice: the browser refuses it, and the page says so (nothing registered twice).
+    await technician.getByLabel('Name for the new passkey').fill('Blue key again')
+    await technician.getByTestId('add-passkey').click()
+    await expect.poll(() => technician.locator('section[aria-labelledby="passkeys-heading"] [role="status"]').innerText())
+      .toMatch(/already registered/)
+    expect(await technician.getByTestId('passkeys').locator('li').count()).toBe(1)
 
     const id = await worksheetReadyToSign('QX-FMA', /Emergency brake/)
     await technician.goto(`/worksheets/${id}`)
