@@ -67,3 +67,13 @@ export async function verifyRecordFile(file: File) {
     headers: { 'content-type': 'application/pdf' },
   })
 }
+
+/** A user's passkey register, for an administrator: every key with its times; a lost key is revoked here. */
+export async function useUserPasskeys(userId: MaybeRefOrGetter<number>) {
+  const passkeys = await useFetch<PasskeyDto[]>(() => `/api/admin/users/${toValue(userId)}/passkeys`)
+  async function revoke(passkey: Pick<PasskeyDto, 'id'>) {
+    await $fetch(`/api/admin/users/${toValue(userId)}/passkeys/${passkey.id}/revoke`, { method: 'POST' })
+    await passkeys.refresh()
+  }
+  return { ...passkeys, revoke }
+}

@@ -108,4 +108,27 @@ describe('passkeys in a real browser', () => {
     expect(answer.body.passkey).toBeNull()
     await auditor.close()
   })
+
+  it('the administrator chooses how each role signs and sees the key register of each user', async () => {
+    const admin = await signedInPage(browser, DEMO.admin)
+    await admin.goto('/admin')
+    await admin.getByTestId('signing-performer-passkey').check()
+    await admin.getByRole('button', { name: 'Save how each role signs' }).click()
+    await expect.poll(() => admin.locator('section[aria-labelledby="signing-policy-heading"]').innerText()).toMatch(/Saved/)
+    // The technician's register: the key revoked in the test before, with both its times.
+    await admin.getByTestId(`user-${DEMO.technician}`).getByRole('button', { name: 'Passkeys' }).click()
+    const register = admin.getByRole('region', { name: 'Passkeys of Rowan Hale' })
+    await expect.poll(() => register.innerText()).toMatch(/Blue security key · key [0-9a-f ]{19}[\s\S]*revoked/)
+
+    // A technician with no usable passkey is told where to register one; no password field is offered.
+    const technician = await signedInPage(browser, DEMO.technician)
+    const id = await worksheetReadyToSign('QX-FMC', /Normal brake/)
+    await technician.goto(`/worksheets/${id}`)
+    await expect.poll(() => technician.getByTestId('passkey-needed').innerText()).toMatch(/register one on your account page/)
+    expect(await technician.getByLabel('Your password, to sign').count()).toBe(0)
+
+    await admin.getByTestId('signing-performer-either').check()
+    await admin.getByRole('button', { name: 'Save how each role signs' }).click()
+    await expect.poll(async () => (await api('/api/admin/signing-policy', { cookie: await signIn(DEMO.admin) })).body.performer).toBe('either')
+  })
 })
