@@ -197,7 +197,18 @@ export class PdfWriter {
       y -= block.gap
     }
     const drawImage = async (block: ImageBlock) => {
-      const image = block.mimeType === 'image/png' ? await document.embedPng(block.bytes) : await document.embedJpg(block.bytes)
+      let image
+      try {
+        image = block.mimeType === 'image/png' ? await document.embedPng(block.bytes) : await document.embedJpg(block.bytes)
+      }
+      catch (error) {
+        // A file that is not the image it says it is: said in the record, never a failed record.
+        await draw({
+          text: `(This image could not be drawn: ${(error as Error).message.split('\n')[0]})`,
+          face: 'regular', size: 10, gap: 0, colour: [0.55, 0.1, 0.07], spaceBefore: 0,
+        })
+        return
+      }
       const scale = Math.min(1, block.maxWidth / image.width, block.maxHeight / image.height)
       const [w, h] = [image.width * scale, image.height * scale]
       if (y - h < MARGIN) {

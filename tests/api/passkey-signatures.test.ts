@@ -5,6 +5,7 @@
  * — valid, edited in the database, a foreign key, a truncated file.
  */
 import { execFile } from 'node:child_process'
+import { createHash } from 'node:crypto'
 import { mkdtempSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
@@ -12,7 +13,8 @@ import { promisify } from 'node:util'
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { EmbeddedSignatures } from '../../shared/types/record-proof'
 import { verifyRecordPdf } from '../../server/utils/record-verify'
-import { api, DEMO, DEMO_PASSWORD, signIn } from '../support/api'
+import QRCode from 'qrcode'
+import { api, DEMO, DEMO_PASSWORD, signIn, upload } from '../support/api'
 import { asText, sql } from '../support/database'
 import { baseURL, fileDatabase } from '../support/file-server'
 import { readEmbeddedJson, withEmbeddedJson } from '../support/record-pdf'
@@ -62,12 +64,17 @@ async function recordPdf(worksheetId: number): Promise<Uint8Array> {
 }
 
 let released: number
+let photo: Uint8Array
 
 beforeAll(async () => {
   for (const role of ['technician', 'inspector', 'engineer', 'admin'] as const) cookies[role] = await signIn(DEMO[role])
   keys.technician = await register('technician', 'Security key, blue')
   keys.inspector = await register('inspector', 'Tablet 3, hangar B')
   const id = await readyToSign('QX-FMB', /Normal brake/)
+  // A real PNG as the gauge photo, so the record draws it.
+  photo = new Uint8Array(await QRCode.toBuffer('gauge photo stand-in', { type: 'png', width: 160 }))
+  const attached = await upload('/api/attachments', { worksheetId: String(id), kind: 'gauge-photo', fileName: 'gauge-1420.png' }, { name: 'gauge-1420.png', bytes: photo, type: 'image/png' }, cookies.technician)
+  expect(attached.status, JSON.stringify(attached.body)).toBe(201)
   expect((await signWith(keys.technician, 'technician', id)).status).toBe(200)
   const countersigned = await signWith(keys.inspector, 'inspector', id)
   expect(countersigned.status, JSON.stringify(countersigned.body)).toBe(200)
@@ -124,6 +131,13 @@ describe('passkeys as signing credentials', () => {
     expect(text).toMatch(/\d{2}:\d{2} UTC/)
     expect(text).toContain(`Record content hash (SHA-256): ${report.contentHash}`)
     expect(text).toContain('Signed with a passkey, key')
+    // The photo drawn in the record with its SHA-256 (signed with the rest: it is in the content), and the QR code.
+    const sha256 = createHash('sha256').update(photo).digest('hex')
+    expect(text.replace(/\s+/g, ' ')).toContain(`gauge-1420.png · SHA-256 ${sha256}`)
+    const { stdout: images } = await run('pdfimages', ['-list', join(folder, 'record.pdf')])
+    // The QR code and the photo (each may carry its transparency as a second, "smask" entry).
+    expect(images.trim().split('\n').slice(2).filter(line => / image /.test(line))).toHaveLength(2)
+    expect(text).toContain('Verify this record: open')
   })
 
   it('the verify route checks a dropped PDF from the file alone, with no session', async () => {
