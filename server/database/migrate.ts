@@ -11,6 +11,7 @@ import * as cycleTrends from '../migrations/0008-cycle-trends'
 import * as millionRows from '../migrations/0009-million-rows'
 import * as trendTableOrder from '../migrations/0010-trend-table-order'
 import * as passkeySignatures from '../migrations/0011-passkey-signatures'
+import * as authorisations from '../migrations/0012-authorisations'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -25,6 +26,7 @@ const MIGRATIONS = [
   { name: '0009-million-rows', ...millionRows },
   { name: '0010-trend-table-order', ...trendTableOrder },
   { name: '0011-passkey-signatures', ...passkeySignatures },
+  { name: '0012-authorisations', ...authorisations },
 ]
 
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */

@@ -67,7 +67,7 @@ export const RECORD_KINDS = {
         model: Signature as ModelStatic<Model>,
         foreignKey: 'worksheetId',
         name: 'signatures',
-        omitWhenNull: ['method', 'passkeyId', 'payload', 'signedFields', 'assertion'],
+        omitWhenNull: ['method', 'passkeyId', 'payload', 'signedFields', 'assertion', 'authorisation'],
       },
       { model: Attachment as ModelStatic<Model>, foreignKey: 'worksheetId', name: 'attachments' },
     ],

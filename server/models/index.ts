@@ -3,6 +3,7 @@ import { Accumulator } from './accumulator'
 import { AccumulatorInstallation } from './accumulator-installation'
 import { Aircraft } from './aircraft'
 import { Attachment } from './attachment'
+import { Authorisation } from './authorisation'
 import { AuditEvent } from './audit-event'
 import { AuditHead } from './audit-head'
 import { CycleCheck } from './cycle-check'
@@ -28,6 +29,7 @@ export {
   AccumulatorInstallation,
   Aircraft,
   Attachment,
+  Authorisation,
   AuditEvent,
   AuditHead,
   CycleCheck,
@@ -63,6 +65,7 @@ export function initModels(sequelize: Sequelize): void {
     Tool,
     Passkey,
     Setting,
+    Authorisation,
     Worksheet,
     Signature,
     Attachment,
@@ -95,6 +98,7 @@ export function initModels(sequelize: Sequelize): void {
   Signature.belongsTo(User, { as: 'user', foreignKey: 'userId' })
   Signature.belongsTo(Passkey, { as: 'passkey', foreignKey: 'passkeyId' })
   User.hasMany(Passkey, { as: 'passkeys', foreignKey: 'userId' })
+  Authorisation.belongsTo(User, { as: 'holder', foreignKey: 'holderId' })
   SizingStudy.belongsTo(Specification, { as: 'specification', foreignKey: 'specificationId' })
   CycleCheck.belongsTo(Aircraft, { as: 'aircraft', foreignKey: 'aircraftId' })
   CycleCheck.belongsTo(Accumulator, { as: 'accumulator', foreignKey: 'accumulatorId' })

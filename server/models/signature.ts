@@ -1,6 +1,7 @@
 import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type NonAttribute, type Sequelize } from 'sequelize'
 import type { Passkey } from './passkey'
 
+import type { FrozenAuthorisation } from '../../shared/types/authorisation'
 import type { SignatureAssertion, SigningPayload, SignatureMethod } from '../../shared/types/signing'
 import type { SignatureCapacity } from '../../shared/types/worksheet'
 
@@ -25,6 +26,8 @@ export class Signature extends Model<InferAttributes<Signature>, InferCreationAt
   declare signedFields: CreationOptional<Record<string, string> | null>
   declare assertion: CreationOptional<SignatureAssertion | null>
   declare passkey?: NonAttribute<Passkey | null>
+  /** The certifying authorisation the signature was made under, frozen; null before the register existed. */
+  declare authorisation: CreationOptional<FrozenAuthorisation | null>
 
   static initModel(sequelize: Sequelize): void {
     Signature.init({
@@ -42,6 +45,7 @@ export class Signature extends Model<InferAttributes<Signature>, InferCreationAt
       payload: { type: DataTypes.JSON, allowNull: true },
       signedFields: { type: DataTypes.JSON, allowNull: true },
       assertion: { type: DataTypes.JSON, allowNull: true },
+      authorisation: { type: DataTypes.JSON, allowNull: true },
     }, { sequelize, tableName: 'signatures', underscored: true, timestamps: false })
   }
 }

@@ -25,6 +25,7 @@ import { createSignature } from './signatures'
 import { frozenContent } from './worksheets'
 import {
   Accumulator,
+  Authorisation,
   Aircraft,
   CycleCheck,
   Specification,
@@ -237,7 +238,30 @@ async function seedUsers(): Promise<Record<string, User>> {
           },
         }))
   }
+  await seedAuthorisations(users)
   return users
+}
+
+/** The demo's register of certifying authorisations: each signer holds one covering both demo types. */
+async function seedAuthorisations(users: Record<string, User>): Promise<void> {
+  const terms = {
+    scopeKind: 'aircraft-types' as const,
+    scope: ['Tarnwing 46', 'Tarnwing 72'],
+    issuedOn: '2025-01-15',
+    expiresOn: '2028-01-14',
+    issuingBody: 'Fellmoor Regional Quality Department',
+    suspendedAt: null,
+    suspendedReason: null,
+  }
+  for (const demo of DEMO_USERS) {
+    if (!demo.authorisationNumber) continue
+    const roles = demo.roles
+    const privileges = roles.includes('technician') && roles.includes('inspector') ? 'both' : roles.includes('inspector') ? 'inspect' : 'perform'
+    await Authorisation.findOrCreate({
+      where: { number: demo.authorisationNumber },
+      defaults: { ...terms, number: demo.authorisationNumber, holderId: users[demo.email]!.id, privileges },
+    })
+  }
 }
 
 async function seedScenario(users: Record<string, User>): Promise<void> {

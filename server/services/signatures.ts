@@ -1,4 +1,5 @@
 import { UniqueConstraintError, type Transaction } from 'sequelize'
+import type { FrozenAuthorisation } from '#shared/types/authorisation'
 import type { SignatureAssertion, SignatureMethod, SigningPayload, SigningRule } from '#shared/types/signing'
 import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT, type SignatureCapacity } from '#shared/types/worksheet'
 import type { H3Event } from 'h3'
@@ -43,6 +44,8 @@ export interface SignedAs {
   signedFields: Record<string, string>
   passkeyId: number | null
   assertion: SignatureAssertion | null
+  /** The certifying authorisation it was made under, frozen. */
+  authorisation: FrozenAuthorisation | null
 }
 
 function refusedProof(message: string, field: 'password' | 'passkey'): never {
@@ -105,7 +108,7 @@ export async function createSignature(
         userId: signer.id,
         capacity,
         name: signer.name,
-        authorisationNumber: signer.authorisationNumber,
+        authorisationNumber: signedAs?.authorisation?.number ?? signer.authorisationNumber,
         statement: STATEMENT[capacity],
         signedAt,
         round: worksheet.round,
@@ -114,6 +117,7 @@ export async function createSignature(
         payload: signedAs?.payload ?? null,
         signedFields: signedAs?.signedFields ?? null,
         assertion: signedAs?.assertion ?? null,
+        authorisation: signedAs?.authorisation ?? null,
       },
       { transaction },
     )

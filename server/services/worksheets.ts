@@ -35,6 +35,7 @@ import { challengeOf, keyFingerprint, type SignedRecordSource } from '../utils/r
 import { Accumulator, Aircraft, Attachment, Passkey, Signature, Tool, User, Worksheet, listColumns } from '../models'
 import { askForCountersign, mailAlerts, tellReturned } from './notifications'
 import { notFound, unprocessable } from './audited-writes'
+import { authorisationToSign, frozenAuthorisation } from './authorisations'
 import { signingRequestOptions, verifySigningAssertion } from './passkeys'
 import { signingPolicy } from './signing-policy'
 import { confirmSigner, createSignature, currentSigner, signingMethod, signingProof, type SignedAs } from './signatures'
@@ -517,7 +518,9 @@ export async function signingOptions(
   const worksheet = await findWorksheet(id)
   enforce(capacity === 'performer' ? canEdit(signer, worksheet) : canInspect(signer, worksheet))
   const record = recordToSign(worksheet, capacity === 'performer' ? frozenForSignature(worksheet) : undefined)
-  const proof = signingProof(record, signer, capacity)
+  // No tap on a passkey that would be refused: the authorisation is checked first, with its reason.
+  const held = await authorisationToSign(signer, record.content, capacity)
+  const proof = signingProof(record, { ...signer.get({ plain: true }), authorisationNumber: held.number }, capacity)
   const policy = await signingPolicy()
   return {
     rule: policy[capacity],
@@ -536,12 +539,19 @@ async function signedAs(
   const method = signingMethod((await signingPolicy())[capacity], proof)
   // The password first (as before passkeys): a wrong one is refused whatever else is amiss.
   if (method === 'password') await confirmSigner(proof.event, signer, proof.password!)
-  const { payload, signedFields } = signingProof(record(), signer, capacity)
-  if (method === 'password') return async () => ({ method, payload, signedFields, passkeyId: null, assertion: null })
+  const source = record()
+  // Under which certifying authorisation: named in what is signed, checked again inside the write.
+  const held = await authorisationToSign(signer, source.content, capacity)
+  const signingAs = { ...signer.get({ plain: true }), authorisationNumber: held.number }
+  const { payload, signedFields } = signingProof(source, signingAs, capacity)
   return async (transaction) => {
+    const authorisation = await authorisationToSign(signer, source.content, capacity, transaction)
+    if (authorisation.number !== held.number) conflict('Your certifying authorisations changed while you signed; sign again.')
+    const frozen = frozenAuthorisation(authorisation)
+    if (method === 'password') return { method, payload, signedFields, passkeyId: null, assertion: null, authorisation: frozen }
     const answer = proof.passkey!
     const { passkey, assertion } = await verifySigningAssertion(proof.event, signer, answer, payload, transaction)
-    return { method, payload, signedFields, passkeyId: passkey.id, assertion }
+    return { method, payload, signedFields, passkeyId: passkey.id, assertion, authorisation: frozen }
   }
 }
 
