@@ -110,7 +110,8 @@ describe('the register of certifying authorisations', () => {
         if (signed.status === 200) {
           const inspectorSignature = state.signatures
             .find((signature: { capacity: string }) => signature.capacity === 'inspector')
-          expect(new Date(inspectorSignature.signedAt).getTime()).toBeLessThanOrEqual(new Date(suspension.body.suspendedAt).getTime())
+          const [signedAt, suspendedAt] = [inspectorSignature.signedAt, suspension.body.suspendedAt]
+          expect(new Date(signedAt).getTime()).toBeLessThanOrEqual(new Date(suspendedAt).getTime())
           expect(state.state).toBe('released')
           outcomes.push('signed first')
         }
@@ -136,7 +137,8 @@ describe('the register of certifying authorisations', () => {
     const outbox = async () => (await api('/api/admin/outbox', { cookie: cookies.admin })).body
     const notices = async () => ((await outbox()).notifications as { recipient: string, subject: string }[])
       .filter(mail => mail.subject === `Authorisation FMR-I-0200 of Imke Dorsey expires on ${dayOffset(20)}`)
-    await expect.poll(async () => (await notices()).map(mail => mail.recipient).sort()).toEqual([DEMO.admin, DEMO.inspector].sort())
+    const recipients = async () => (await notices()).map(mail => mail.recipient).sort()
+    await expect.poll(recipients).toEqual([DEMO.admin, DEMO.inspector].sort())
     // A later change that does not move the expiry sends nothing again.
     await api(`/api/admin/authorisations/${created.body.id}`, { method: 'PATCH', cookie: cookies.admin, body: { issuingBody: 'Fellmoor Regional Quality' } })
     expect(await notices()).toHaveLength(2)
