@@ -15,6 +15,7 @@ export const NAVIGATION: NavigationItem[] = [
   { label: 'Worksheets', to: '/worksheets', ability: 'worksheet.read', description: 'Step-by-step servicing records.' },
   { label: 'Countersign', to: '/countersign', ability: 'worksheet.inspect', description: 'Worksheets awaiting independent inspection.' },
   { label: 'Sizing', to: '/sizing', ability: 'study.read', description: 'Usable volume, applications and required gas volume.' },
+  { label: 'Due', to: '/due', ability: 'register.read', description: 'Accumulator checks falling due, by station.' },
   { label: 'Fleet', to: '/fleet', ability: 'register.read', description: 'Aircraft and installed accumulators.' },
   { label: 'Specifications', to: '/specifications', ability: 'register.read', description: 'Servicing specifications by part number and revision.' },
   { label: 'Tools', to: '/tools', ability: 'register.read', description: 'Gauges, calibration and nitrogen carts.' },

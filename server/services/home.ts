@@ -2,6 +2,7 @@ import { Op } from 'sequelize'
 import { can } from '#shared/abilities'
 import type { WaitingWork, WorksheetQueue } from '#shared/types/work'
 import { Tool, TrendAlert, Worksheet, type User } from '../models'
+import { dueList } from './due'
 
 /**
  * What waits for a user, by what their roles do. A few small indexed reads (state and
@@ -47,6 +48,12 @@ export async function waitingWorkFor(user: User): Promise<WaitingWork> {
       worksheetQueue({ ...mine, state: 'awaiting-countersign' }),
     ])
     Object.assign(work, { drafts, returned, submitted })
+    // What to service today: the home station's units overdue or due within the week.
+    const station = user.preferences?.stationName
+    if (station) {
+      const soon = (await dueList({ station })).items.filter(item => item.bucket === 'overdue' || item.bucket === 'this-week')
+      work.due = { station, count: soon.length, items: soon.slice(0, SHOWN) }
+    }
   }
   if (can(user.roles, 'worksheet.inspect')) {
     // Independent inspection: never one's own work.

@@ -24,6 +24,8 @@ export interface WaitingWork {
   toCountersign?: WorksheetQueue
   /** Engineer: units and systems the trends flag. */
   alerts?: { count: number, items: { subject: string, message: string, raisedAt: string, to: string }[] }
+  /** Technician: their station's units overdue or due within 7 days, soonest first. */
+  due?: { station: string, count: number, items: import('./due').DueItem[] }
   /** Admin: gauges and carts out of calibration, or due within 30 days. */
   tools?: { expired: number, dueSoon: number }
 }

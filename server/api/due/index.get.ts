@@ -1,0 +1,13 @@
+import { dueQuerySchema } from '#shared/schemas/due'
+import { calendarKey, dueList } from '../../services/due'
+
+/** What falls due: every installed unit's next check, by station and by how soon, each with its reason. */
+export default defineEventHandler(async (event) => {
+  await requireAbility(event, 'register.read')
+  const query = await getValidatedQuery(event, validateWith(dueQuerySchema))
+  const list = await dueList(query)
+  const calendarAddress = query.station
+    ? `${publicAddress(event)}/api/due/calendar?${new URLSearchParams({ station: query.station, key: calendarKey(query.station) })}`
+    : null
+  return { ...list, calendarAddress }
+})
