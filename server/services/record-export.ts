@@ -40,6 +40,7 @@ export async function worksheetRecordPdf(event: H3Event, id: number): Promise<Ui
     printedWith,
     verifyAddress: `${address}/verify`,
     contentHash,
+    canonicalContent: signedRecord,
     worksheet,
   }
   const signatures: EmbeddedSignatures = {

@@ -197,7 +197,14 @@ export async function verifyRecordPdf(bytes: Uint8Array): Promise<RecordVerifica
     }
     const problems: string[] = []
     if (truncated) problems.push('The file is truncated: it has no end-of-file marker.')
-    const digests = fieldDigests(signedRecordOf(record.worksheet))
+    const canonical = signedRecordOf(record.worksheet)
+    const digests = fieldDigests(canonical)
+    const embeddedCanonical = record.canonicalContent
+      ? changedFields(fieldDigests(record.canonicalContent), digests)
+      : []
+    if (embeddedCanonical.length) {
+      problems.push(`The embedded canonical content differs from the printed record in ${embeddedCanonical.slice(0, 12).join(', ')}.`)
+    }
     const contentHash = contentHashOf(digests)
     if (record.contentHash !== contentHash)
       problems.push(`The content hash written in the file (${record.contentHash}) is not the hash of its embedded content (${contentHash}).`)

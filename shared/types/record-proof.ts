@@ -12,6 +12,9 @@ export interface EmbeddedRecord {
   verifyAddress: string
   /** SHA-256 of the record's field digests (server/utils/record-proof.ts). */
   contentHash: string
+  /** The record's canonical content, the fields signatures are over (keys sorted). */
+  canonicalContent: Record<string, unknown>
+  /** The record as printed (its state, signatures and attachments' names too). */
   worksheet: WorksheetDto
 }
 

@@ -198,6 +198,11 @@ describe('passkeys as signing credentials', () => {
     expect(results.valid!.code, results.valid!.out).toBe(0)
     expect(results.valid!.out).toContain('VERIFIED')
     expect(results.valid!.out).toMatch(/- VALID: Performed by .*\n {2}method: passkey; key [0-9a-f ]{19} “Security key, blue”/)
+    // Only the canonical copy edited: the file no longer agrees with itself, and says where.
+    const canonicalOnly = await verifyRecordPdf(await withEmbeddedJson<{ canonicalContent: { workOrder: string } }>(
+      valid, 'chargewell-record.json', (record) => { record.canonicalContent.workOrder = 'WO-FORGED' }))
+    expect(canonicalOnly.ok).toBe(false)
+    expect(canonicalOnly.problems.join(' ')).toMatch(/embedded canonical content differs from the printed record in workOrder/)
     expect(results.tampered!.code).toBe(1)
     expect(results.tampered!.out).toMatch(/- INVALID: Performed by[\s\S]*content\.asLeft\.reading\.value/)
     expect(results.foreignKey!.code).toBe(1)
