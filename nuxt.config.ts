@@ -1,3 +1,4 @@
+import { readFile } from 'node:fs/promises'
 import { fileURLToPath } from 'node:url'
 
 const packageFolder = (path: string) => fileURLToPath(new URL(`./node_modules/${path}`, import.meta.url))
@@ -140,6 +141,16 @@ export default defineNuxtConfig({
       // (every browser that runs the app reads woff2; other subsets load only for text that needs them).
       globPatterns: ['**/*.{js,css,svg,png,ico}', '**/source-sans-3-latin-{400,600,700}-normal.*.woff2', '**/source-sans-3-latin-ext-{400,600,700}-normal.*.woff2'],
       additionalManifestEntries: [{ url: '/app-shell', revision: String(Date.now()) }],
+      // The record verifier (pdf.js, the WebAuthn checks: about 650 KB) is for an auditor at a desk, not for
+      // the ramp: left out of what every device keeps.
+      manifestTransforms: [async (entries) => {
+        const kept = []
+        for (const entry of entries) {
+          const text = entry.url.endsWith('.js') ? await readFile(`.output/public/${entry.url}`, 'utf8').catch(() => '') : ''
+          if (!/GlobalWorkerOptions|Unexpected authentication response origin/.test(text)) kept.push(entry)
+        }
+        return { manifest: kept, warnings: [] }
+      }],
     },
     client: { installPrompt: false, periodicSyncForUpdates: 3600 },
     devOptions: { enabled: false },

@@ -1,4 +1,3 @@
-import type { RecordVerification } from '#shared/types/record-proof'
 import type { PasskeyDto, SigningOptionsDto, SigningPolicy } from '#shared/types/signing'
 import type { SignatureCapacity } from '#shared/types/worksheet'
 
@@ -57,15 +56,6 @@ export async function useSigningPolicy() {
     await policy.refresh()
   }
   return { ...policy, save }
-}
-
-/** Verifies a record PDF from the file alone (the server reads nothing else and keeps nothing). */
-export async function verifyRecordFile(file: File) {
-  return $fetch<RecordVerification>('/api/records/verify', {
-    method: 'POST',
-    body: new Uint8Array(await file.arrayBuffer()),
-    headers: { 'content-type': 'application/pdf' },
-  })
 }
 
 /** A user's passkey register, for an administrator: every key with its times; a lost key is revoked here. */

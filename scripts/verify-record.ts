@@ -8,7 +8,7 @@
  * 0 when the record verifies, 1 when it does not, 2 when the file cannot be read as a record.
  */
 import { readFile } from 'node:fs/promises'
-import { verifyRecordPdf } from '../server/utils/record-verify'
+import { verifyRecordPdf } from '../shared/utils/record-verify'
 
 const args = process.argv.slice(2)
 const json = args.includes('--json')

@@ -1,7 +1,7 @@
 import type { H3Event } from 'h3'
 import type { EmbeddedRecord, EmbeddedSignatures } from '#shared/types/record-proof'
 import type { Passkey, Signature } from '../models'
-import { contentHashOf, fieldDigests, keyFingerprint, signedRecordOf } from '../utils/record-proof'
+import { contentHashOf, fieldDigests, keyFingerprint, signedRecordOf } from '#shared/utils/record-proof'
 import { worksheetPdf } from '../utils/worksheet-pdf'
 import { readAttachment } from './attachments'
 import { findWorksheet, toWorksheetDto } from './worksheets'

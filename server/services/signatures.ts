@@ -4,7 +4,7 @@ import type { SignatureAssertion, SignatureMethod, SigningPayload, SigningRule }
 import { INSPECTOR_STATEMENT, PERFORMER_STATEMENT, type SignatureCapacity } from '#shared/types/worksheet'
 import type { H3Event } from 'h3'
 import { Signature, User } from '../models'
-import { contentHashOf, fieldDigests, signedRecordOf, signingPayload, type SignedRecordSource } from '../utils/record-proof'
+import { contentHashOf, fieldDigests, signedRecordOf, signingPayload, type SignedRecordSource } from '#shared/utils/record-proof'
 import { reauthenticate } from './sessions'
 
 /**

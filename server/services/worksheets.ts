@@ -31,7 +31,7 @@ import {
 } from '#shared/utils/worksheet-steps'
 import { stationDate } from '#shared/utils/station-time'
 import { appendAudit } from '../database/audit-chain'
-import { challengeOf, keyFingerprint, type SignedRecordSource } from '../utils/record-proof'
+import { challengeOf, keyFingerprint, type SignedRecordSource } from '#shared/utils/record-proof'
 import { Accumulator, Aircraft, Attachment, Passkey, Signature, Tool, User, Worksheet, listColumns } from '../models'
 import { askForCountersign, mailAlerts, tellReturned } from './notifications'
 import { notFound, unprocessable } from './audited-writes'

@@ -88,12 +88,16 @@ describe('passkeys in a real browser', () => {
     const file = join(mkdtempSync(join(tmpdir(), 'chargewell-e2e-')), `record-${id}.pdf`)
     writeFileSync(file, Buffer.from(await pdf.arrayBuffer()))
     const auditor = await browser.newPage({ baseURL: baseURL() })
+    // Checked in the auditor's browser: the file is not sent anywhere.
+    const sent: string[] = []
+    auditor.on('request', request => request.method() === 'POST' && sent.push(request.url()))
     await auditor.goto('/verify')
     await auditor.locator('html[data-hydrated]').waitFor({ state: 'attached' })
     await auditor.getByTestId('record-file').setInputFiles(file)
     const report = auditor.getByTestId('verification')
     await expect.poll(() => report.getAttribute('data-ok'), { timeout: 20_000 }).toBe('true')
     expect(await report.locator('[data-status="valid"]').count()).toBe(2)
+    expect(sent).toEqual([])
     expect(await report.innerText()).toMatch(/key [0-9a-f]{4} [0-9a-f]{4} [0-9a-f]{4} [0-9a-f]{4} “Blue security key”/)
 
     // Revoked: listed as such, and the next signature is offered the password only.

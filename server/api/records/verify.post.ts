@@ -1,4 +1,4 @@
-import { verifyRecordPdf } from '../../utils/record-verify'
+import { verifyRecordPdf } from '#shared/utils/record-verify'
 
 const MAX_BYTES = 40 * 1024 * 1024
 

@@ -1,12 +1,13 @@
 import { verifyAuthenticationResponse } from '@simplewebauthn/server'
-import type { EmbeddedRecord, EmbeddedSignature, EmbeddedSignatures, RecordVerification, SignatureVerdict } from '../../shared/types/record-proof'
-import { displayFormat } from '../../shared/utils/station-time'
-import { worksheetRecordSections } from '../../shared/utils/worksheet-record'
-import { challengeOf, changedFields, contentHashOf, fieldDigests, signedRecordOf } from './record-proof'
+import type { EmbeddedRecord, EmbeddedSignature, EmbeddedSignatures, RecordVerification, SignatureVerdict } from '../types/record-proof'
+import { challengeOf, changedFields, contentHashOf, fieldDigests, fromBase64url, signedRecordOf } from './record-proof'
+import { displayFormat } from './station-time'
+import { worksheetRecordSections } from './worksheet-record'
 
 /**
- * Verifies an exported record PDF on its own: no server, no database, nothing but the file. Used by
- * `npm run verify-record` (scripts/verify-record.ts) and the verify page. For each signature it says
+ * Verifies an exported record PDF on its own: no server, no database, nothing but the file. Runs in
+ * Node (`npm run verify-record`, scripts/verify-record.ts) and in the browser (the verify page: the file
+ * never leaves the auditor's device). For each signature it says
  * valid or not, by whom, with which key, over which content, and which fields changed since; and
  * whether the printed pages say what the embedded content says.
  */
@@ -19,10 +20,13 @@ const FOOTER_TOP = 40
 type PdfJs = typeof import('pdfjs-dist/legacy/build/pdf.mjs')
 let pdfjs: Promise<PdfJs> | undefined
 
-function loadPdfJs(): Promise<PdfJs> {
+/** pdf.js, loaded once; a browser caller sets its worker's address first (see `useRecordVerification`). */
+export function loadPdfJs(): Promise<PdfJs> {
   pdfjs ??= import('pdfjs-dist/legacy/build/pdf.mjs')
   return pdfjs
 }
+
+const latin1 = (bytes: Uint8Array) => String.fromCharCode(...bytes)
 
 const squeeze = (text: string) => text.replace(/\s+/g, '')
 
@@ -102,7 +106,7 @@ async function verifySignature(
   if (assertion.credentialId !== key.credentialId) reasons.push(`The assertion was made by another credential than the key ${key.fingerprint}.`)
   let origin = ''
   try {
-    origin = (JSON.parse(Buffer.from(assertion.clientDataJSON, 'base64url').toString('utf8')) as { origin?: string }).origin ?? ''
+    origin = (JSON.parse(new TextDecoder().decode(fromBase64url(assertion.clientDataJSON))) as { origin?: string }).origin ?? ''
     new URL(origin)
   }
   catch {
@@ -126,7 +130,7 @@ async function verifySignature(
         expectedChallenge: challengeOf(payload),
         expectedOrigin: origin,
         expectedRPID: new URL(origin).hostname,
-        credential: { id: key.credentialId, publicKey: new Uint8Array(Buffer.from(key.publicKey, 'base64url')), counter: 0 },
+        credential: { id: key.credentialId, publicKey: fromBase64url(key.publicKey), counter: 0 },
         requireUserVerification: false,
       })
       if (!result.verified) reasons.push(`The signature does not verify with key ${key.fingerprint}.`)
@@ -158,9 +162,9 @@ async function printedText(document: Awaited<ReturnType<PdfJs['getDocument']>['p
 }
 
 export async function verifyRecordPdf(bytes: Uint8Array): Promise<RecordVerification> {
-  const head = Buffer.from(bytes.subarray(0, 8)).toString('latin1')
+  const head = latin1(bytes.subarray(0, 8))
   if (!head.startsWith('%PDF-')) return unreadable('This is not a PDF file.')
-  const tail = Buffer.from(bytes.subarray(Math.max(0, bytes.length - 1024))).toString('latin1')
+  const tail = latin1(bytes.subarray(Math.max(0, bytes.length - 1024)))
   const truncated = !tail.includes('%%EOF')
   const { getDocument } = await loadPdfJs()
   let document

@@ -1,11 +1,12 @@
-import { createHash } from 'node:crypto'
-import type { SigningPayload } from '../../shared/types/signing'
-import type { SignatureCapacity, WorksheetDto } from '../../shared/types/worksheet'
+import { sha256 } from '@noble/hashes/sha2.js'
+import { bytesToHex } from '@noble/hashes/utils.js'
+import type { SigningPayload } from '../types/signing'
+import type { SignatureCapacity, WorksheetDto } from '../types/worksheet'
 
 /**
  * What a signature is over, computed the same way by the server when it asks for a signature and
- * by anyone verifying an exported record (scripts/verify-record.ts: no server, no database). Pure:
- * nothing here reads configuration or the database.
+ * by anyone verifying an exported record (scripts/verify-record.ts, or the verify page in the browser:
+ * no server, no database). Pure and isomorphic: nothing here reads configuration, the database or Node.
  *
  * The record's canonical content is its fields in canonical JSON (keys sorted, nothing undefined).
  * Each leaf field is digested (SHA-256 of its canonical JSON) under its path, e.g.
@@ -52,12 +53,42 @@ export function canonicalJson(value: unknown): string {
   return JSON.stringify(canonicalValue(value))
 }
 
+const utf8 = (data: string | Uint8Array) => (typeof data === 'string' ? new TextEncoder().encode(data) : data)
+
 export function sha256Hex(data: string | Uint8Array): string {
-  return createHash('sha256').update(data).digest('hex')
+  return bytesToHex(sha256(utf8(data)))
 }
 
-function base64url(bytes: Uint8Array): string {
-  return Buffer.from(bytes).toString('base64url')
+const BASE64URL = 'ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789-_'
+
+/** Bytes as base64url without padding (what WebAuthn uses), in any JavaScript runtime. */
+export function toBase64url(bytes: Uint8Array): string {
+  let out = ''
+  for (let index = 0; index < bytes.length; index += 3) {
+    const [a = 0, b = 0, c = 0] = [bytes[index], bytes[index + 1], bytes[index + 2]]
+    const chunk = (a << 16) | (b << 8) | c
+    const length = Math.min(3, bytes.length - index)
+    for (let digit = 0; digit <= length; digit++) out += BASE64URL[(chunk >> (18 - 6 * digit)) & 63]
+  }
+  return out
+}
+
+export function fromBase64url(text: string): Uint8Array {
+  const clean = text.replace(/=+$/, '')
+  const bytes: number[] = []
+  let buffer = 0
+  let bits = 0
+  for (const character of clean) {
+    const value = BASE64URL.indexOf(character === '+' ? '-' : character === '/' ? '_' : character)
+    if (value < 0) throw new Error('Not base64url.')
+    buffer = (buffer << 6) | value
+    bits += 6
+    if (bits >= 8) {
+      bits -= 8
+      bytes.push((buffer >> bits) & 0xFF)
+    }
+  }
+  return new Uint8Array(bytes)
 }
 
 /** The record's content a signature is over. */
@@ -117,11 +148,11 @@ export function signingPayload(fields: {
 
 /** The WebAuthn challenge for a payload: the SHA-256 of its canonical JSON, base64url. */
 export function challengeOf(payload: SigningPayload): string {
-  return base64url(createHash('sha256').update(canonicalJson(payload)).digest())
+  return toBase64url(sha256(utf8(canonicalJson(payload))))
 }
 
 /** A public key's fingerprint: SHA-256 of the key, the first 16 hex digits in groups of four. */
 export function keyFingerprint(publicKeyBase64url: string): string {
-  const hex = sha256Hex(Buffer.from(publicKeyBase64url, 'base64url'))
+  const hex = sha256Hex(fromBase64url(publicKeyBase64url))
   return hex.slice(0, 16).match(/.{4}/g)!.join(' ')
 }
