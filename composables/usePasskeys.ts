@@ -1,4 +1,5 @@
 import type { PasskeyDto, SigningOptionsDto, SigningPolicy } from '#shared/types/signing'
+import type { ConfirmDialog } from '~/utils/confirm'
 import type { SignatureCapacity } from '#shared/types/worksheet'
 
 /** The signed-in user's passkey register; adding one asks the device (or a security key) to create it. */
@@ -66,4 +67,30 @@ export async function useUserPasskeys(userId: MaybeRefOrGetter<number>) {
     await passkeys.refresh()
   }
   return { ...passkeys, revoke }
+}
+
+/**
+ * Revokes a passkey once its owner (or an administrator, naming the owner) confirmed it in the app's own
+ * dialog; answers the notice to show, or null when they thought better of it.
+ */
+export async function revokeWhenConfirmed(
+  confirmation: ConfirmDialog | null | undefined,
+  passkey: Pick<PasskeyDto, 'id' | 'name'>,
+  revoke: (passkey: Pick<PasskeyDto, 'id'>) => Promise<unknown>,
+  owner?: string,
+): Promise<{ text: string, failed: boolean } | null> {
+  const ok = await confirmation?.ask({
+    title: `Revoke “${passkey.name}”${owner ? ` of ${owner}` : ''}?`,
+    body: 'It will not sign again. What it signed before stays verifiable.',
+    confirm: 'Revoke passkey',
+    tone: 'danger',
+  })
+  if (!ok) return null
+  try {
+    await revoke(passkey)
+    return { text: `“${passkey.name}” is revoked.`, failed: false }
+  }
+  catch (failure) {
+    return { text: errorMessage(failure), failed: true }
+  }
 }

@@ -155,13 +155,13 @@ export async function registerPasskey(
 }
 
 /**
- * Revokes a passkey (its owner, or an administrator for a lost key): it never signs again, and still
- * verifies what it signed before. Revoking twice keeps the first time.
+ * Revokes one of `holderId`'s passkeys (the actor's own, or an administrator's for a lost key): it never
+ * signs again, and still verifies what it signed before. Revoking twice keeps the first time.
  */
-export async function revokePasskey(actor: User, id: number, options: { anyUser?: boolean } = {}): Promise<PasskeyDto> {
+export async function revokePasskey(actor: User, id: number, holderId = actor.id): Promise<PasskeyDto> {
   return writeTransaction(async (transaction) => {
     const passkey = await Passkey.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
-    if (!passkey || (!options.anyUser && passkey.userId !== actor.id)) notFound('Passkey')
+    if (!passkey || passkey.userId !== holderId) notFound('Passkey')
     if (!passkey.revokedAt) {
       await passkey.update({ revokedAt: new Date() }, { transaction })
       await appendAudit({

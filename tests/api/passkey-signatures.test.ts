@@ -222,6 +222,10 @@ describe('passkeys as signing credentials', () => {
     // Someone else's key cannot be revoked by this user.
     const [inspectorKey] = (await api('/api/me/passkeys', { cookie: cookies.inspector })).body
     expect((await api(`/api/me/passkeys/${inspectorKey.id}/revoke`, { method: 'POST', cookie: cookies.technician })).status).toBe(404)
+    // An administrator revokes a key under its holder only.
+    const technicianId = (await api('/api/me', { cookie: cookies.technician })).body.id
+    const wrongHolder = `/api/admin/users/${technicianId}/passkeys/${inspectorKey.id}/revoke`
+    expect((await api(wrongHolder, { method: 'POST', cookie: cookies.admin })).status).toBe(404)
 
     const report = await verifyRecordPdf(await recordPdf(released))
     expect(report.ok).toBe(true)

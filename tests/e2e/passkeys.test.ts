@@ -36,7 +36,6 @@ async function withAuthenticator(email: string, transport: 'internal' | 'usb'): 
       automaticPresenceSimulation: true,
     },
   })
-  page.on('dialog', dialog => void dialog.accept())
   return page
 }
 
@@ -103,6 +102,7 @@ describe('passkeys in a real browser', () => {
     // Revoked: listed as such, and the next signature is offered the password only.
     await technician.goto('/account')
     await technician.getByTestId('passkeys').getByRole('button', { name: 'Revoke' }).click()
+    await technician.getByRole('dialog').getByTestId('confirm-yes').click()
     await expect.poll(() => technician.getByTestId('passkeys').locator('li').first().getAttribute('data-revoked')).toBe('true')
     const next = await worksheetReadyToSign('QX-FMA', /Normal brake/)
     await technician.goto(`/worksheets/${next}`)
