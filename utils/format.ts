@@ -8,7 +8,27 @@ import { displayFormat, stationDate } from '#shared/utils/station-time'
  */
 function display() {
   const { stationTimeZone, locale } = useRuntimeConfig().public
-  return displayFormat({ locale: String(locale), timeZone: String(stationTimeZone) })
+  return displayFormat({ locale: String(locale), timeZone: useRecordTimeZone().value ?? String(stationTimeZone) })
+}
+
+/**
+ * The time zone of the record on screen: its aircraft's station's, set by a record's page while it is open
+ * (`showRecordTimesIn`), so its dates read as they did at the station.
+ */
+export function useRecordTimeZone() {
+  return useState<string | null>('record-time-zone', () => null)
+}
+
+/** While this page is open, dates and times are written in the zone `zone` gives (the record's station's). */
+export function showRecordTimesIn(zone: () => string | null | undefined) {
+  const state = useRecordTimeZone()
+  state.value = zone() ?? null
+  watch(zone, (value) => {
+    state.value = value ?? null
+  })
+  onBeforeUnmount(() => {
+    state.value = null
+  })
 }
 
 export const formatDate = (value: string | Date | null | undefined) => display().date(value)

@@ -12,6 +12,7 @@ import * as millionRows from '../migrations/0009-million-rows'
 import * as trendTableOrder from '../migrations/0010-trend-table-order'
 import * as passkeySignatures from '../migrations/0011-passkey-signatures'
 import * as authorisations from '../migrations/0012-authorisations'
+import * as stationsOperators from '../migrations/0013-stations-operators'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -27,6 +28,7 @@ const MIGRATIONS = [
   { name: '0010-trend-table-order', ...trendTableOrder },
   { name: '0011-passkey-signatures', ...passkeySignatures },
   { name: '0012-authorisations', ...authorisations },
+  { name: '0013-stations-operators', ...stationsOperators },
 ]
 
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */

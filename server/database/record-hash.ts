@@ -80,8 +80,13 @@ export const RECORD_KINDS = {
     ],
   },
   'tool': { model: Tool as ModelStatic<Model>, exclude: ['updatedAt'], children: [] },
-  'user': { model: User as ModelStatic<Model>, exclude: ['updatedAt', 'preferences', 'sessionVersion'], children: [] },
-  'aircraft': { model: Aircraft as ModelStatic<Model>, exclude: ['updatedAt'], children: [] },
+  'user': {
+    model: User as ModelStatic<Model>,
+    exclude: ['updatedAt', 'preferences', 'sessionVersion'],
+    omitWhenNull: ['stationIds', 'operatorIds'],
+    children: [],
+  },
+  'aircraft': { model: Aircraft as ModelStatic<Model>, exclude: ['updatedAt'], omitWhenNull: ['operatorId'], children: [] },
   'accumulator': {
     model: Accumulator as ModelStatic<Model>,
     exclude: ['updatedAt'],

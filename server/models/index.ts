@@ -9,6 +9,7 @@ import { AuditHead } from './audit-head'
 import { CycleCheck } from './cycle-check'
 import { LoginAttempt } from './login-attempt'
 import { Notification } from './notification'
+import { Operator } from './operator'
 import { Passkey } from './passkey'
 import { PrechargeReading } from './precharge-reading'
 import { Setting } from './setting'
@@ -17,6 +18,7 @@ import { SizingStudy } from './sizing-study'
 import { Specification } from './specification'
 import { SystemCycleTrend } from './system-cycle-trend'
 import { SpecificationTablePoint } from './specification-table-point'
+import { Station } from './station'
 import { Tool } from './tool'
 import { TrendAlert } from './trend-alert'
 import { UnitTrend } from './unit-trend'
@@ -35,6 +37,7 @@ export {
   CycleCheck,
   LoginAttempt,
   Notification,
+  Operator,
   Passkey,
   PrechargeReading,
   Setting,
@@ -42,6 +45,7 @@ export {
   SizingStudy,
   Specification,
   SpecificationTablePoint,
+  Station,
   SystemCycleTrend,
   Tool,
   TrendAlert,
@@ -57,6 +61,8 @@ export function initModels(sequelize: Sequelize): void {
   for (const model of [
     User,
     LoginAttempt,
+    Station,
+    Operator,
     Aircraft,
     Specification,
     SpecificationTablePoint,
@@ -84,6 +90,7 @@ export function initModels(sequelize: Sequelize): void {
 
   Specification.hasMany(SpecificationTablePoint, { as: 'tablePoints', foreignKey: 'specificationId' })
   Specification.belongsTo(Specification, { as: 'supersedes', foreignKey: 'supersedesId' })
+  Aircraft.belongsTo(Operator, { as: 'operator', foreignKey: 'operatorId' })
   Aircraft.hasMany(Accumulator, { as: 'accumulators', foreignKey: 'aircraftId' })
   Accumulator.belongsTo(Aircraft, { as: 'aircraft', foreignKey: 'aircraftId' })
   Accumulator.hasMany(AccumulatorInstallation, { as: 'installations', foreignKey: 'accumulatorId' })

@@ -10,6 +10,10 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare authorisationNumber: string | null
   declare disabled: CreationOptional<boolean>
   declare preferences: UserPreferences
+  /** The stations (ids) whose aircraft the user may see; empty: every station. Administrators see all. */
+  declare stationIds: CreationOptional<number[] | null>
+  /** The operators (ids) whose aircraft the user may see; empty: every operator. */
+  declare operatorIds: CreationOptional<number[] | null>
   /** Bumped to end every session of this user at once (password, roles, disabling, sign out everywhere). */
   declare sessionVersion: CreationOptional<number>
   declare createdAt: CreationOptional<Date>
@@ -25,6 +29,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
       authorisationNumber: { type: DataTypes.STRING(40), allowNull: true },
       disabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       preferences: { type: DataTypes.JSON, allowNull: false },
+      stationIds: { type: DataTypes.JSON, allowNull: true },
+      operatorIds: { type: DataTypes.JSON, allowNull: true },
       sessionVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
@@ -41,6 +47,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
       authorisationNumber: this.authorisationNumber,
       disabled: this.disabled,
       preferences: this.preferences,
+      stationIds: this.stationIds ?? null,
+      operatorIds: this.operatorIds ?? null,
     }
   }
 }

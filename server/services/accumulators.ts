@@ -16,7 +16,8 @@ import {
   Worksheet,
   type User,
 } from '../models'
-import { findOr404, unprocessable } from './audited-writes'
+import { findOr404, notFound, unprocessable } from './audited-writes'
+import { seesUnit, unitsWithinScope, withinScope, type Scope } from './scope'
 
 /**
  * Installed accumulators: registered, corrected, moved between aircraft (each installation is
@@ -68,6 +69,12 @@ export async function toInstalledUnits(rows: Accumulator[]): Promise<InstalledUn
   }))
 }
 
+/** 404 unless the unit exists and the scope covers it (server/services/scope.ts). */
+export async function requireUnitInScope(scope: Scope, id: number): Promise<void> {
+  const unit = await Accumulator.findByPk(id, { attributes: ['id', 'aircraftId'] })
+  if (!unit || !(await seesUnit(scope, unit))) notFound('Accumulator')
+}
+
 async function installedUnit(id: number): Promise<InstalledUnitDto> {
   return (await toInstalledUnits([await findOr404(Accumulator, id, 'Accumulator', WITH_AIRCRAFT)]))[0]!
 }
@@ -90,18 +97,18 @@ async function requireAircraft(id: number | null | undefined, field: string) {
   if (id && !(await Aircraft.findByPk(id))) unprocessable('No such aircraft.', field)
 }
 
-export async function listUnits(query: z.infer<typeof accumulatorQuerySchema>) {
+export async function listUnits(query: z.infer<typeof accumulatorQuerySchema>, scope: Scope) {
   const where = { true: { aircraftId: { [Op.ne]: null } }, false: { aircraftId: null } }
   const installed = query.installed === undefined ? {} : where[`${query.installed}`]
   const { total, totalCapped, rows } = await pageOf(Accumulator, {
-    where: {
+    where: unitsWithinScope(scope, {
       ...searchWhere(query.q, ['partNumber', 'serialNumber', 'position', 'system', '$aircraft.registration$']),
       ...installed,
       ...(query.aircraftId ? { aircraftId: query.aircraftId } : {}),
       ...(query.partNumber ? { partNumber: query.partNumber } : {}),
       ...(query.type ? { '$aircraft.type$': query.type } : {}),
       ...(query.base ? { '$aircraft.base$': query.base } : {}),
-    },
+    }),
     ...WITH_AIRCRAFT,
     order: [
       [{ model: Aircraft, as: 'aircraft' }, 'registration', query.direction.toUpperCase()],
@@ -114,10 +121,12 @@ export async function listUnits(query: z.infer<typeof accumulatorQuerySchema>) {
 }
 
 /** One unit with where it has been (installations) and its latest worksheets. */
-export async function unitDetail(id: number) {
+/** One unit (404 outside the user's scope), with its history on the aircraft the user may see. */
+export async function unitDetail(id: number, scope: Scope) {
+  await requireUnitInScope(scope, id)
   const unit = await installedUnit(id)
   const installations = await AccumulatorInstallation.findAll({
-    where: { accumulatorId: id },
+    where: withinScope(scope, { accumulatorId: id }),
     include: [{ model: Aircraft, as: 'aircraft', attributes: ['registration', 'fleetNumber'] }],
     order: [
       ['installedAt', 'DESC'],
@@ -125,7 +134,7 @@ export async function unitDetail(id: number) {
     ],
   })
   const worksheets = await Worksheet.findAll({
-    where: { accumulatorId: id },
+    where: withinScope(scope, { accumulatorId: id }),
     attributes: ['id', 'state', 'workOrder', 'performedAt', 'asFoundVerdict'],
     order: [['performedAt', 'DESC']],
     limit: 50,
@@ -242,8 +251,8 @@ export async function importUnits(event: H3Event, actor: User) {
  * The QR code of a unit's label: it opens the unit's page, where its worksheets start. An SVG, crisp at any
  * print size.
  */
-export async function unitLabelCode(id: number, address: string): Promise<string> {
-  await findOr404(Accumulator, id, 'Accumulator')
+export async function unitLabelCode(id: number, address: string, scope: Scope): Promise<string> {
+  await requireUnitInScope(scope, id)
   return QRCode.toString(`${address}/fleet/units/${id}`, {
     type: 'svg',
     errorCorrectionLevel: 'M',

@@ -4,55 +4,84 @@ import type { aircraftQuerySchema, aircraftSchema, aircraftUpdateSchema } from '
 import { aircraftCsvRow } from '#shared/schemas/csv'
 import type { FleetOptions } from '#shared/types/fleet'
 import { appendAudit } from '../database/audit-chain'
-import { Accumulator, Aircraft, type User } from '../models'
+import { Accumulator, Aircraft, Operator, type User } from '../models'
 import { createAudited, findOr404, updateAudited } from './audited-writes'
+import { requireOperator, requireStation } from './organisation'
+import { requireAircraftInScope, withinScope, type Scope } from './scope'
 
 /** The fleet register: aircraft, their filters and their CSV. */
 
 const CONFLICT = 'Another aircraft already has that registration or fleet number.'
 
-export async function listAircraft(query: z.infer<typeof aircraftQuerySchema>) {
+/** The operator names by id, the organisation's own fleet for aircraft without one. */
+export async function operatorNames(): Promise<(operatorId: number | null) => string> {
+  const operators = await Operator.findAll({ attributes: ['id', 'name', 'own'] })
+  const names = new Map(operators.map(operator => [operator.id, operator.name]))
+  const own = operators.find(operator => operator.own)?.name ?? ''
+  return operatorId => (operatorId === null ? own : names.get(operatorId) ?? own)
+}
+
+function withOperator(row: Aircraft, nameOf: (operatorId: number | null) => string) {
+  return { ...row.get({ plain: true }), operator: nameOf(row.operatorId ?? null) }
+}
+
+export async function listAircraft(query: z.infer<typeof aircraftQuerySchema>, scope: Scope) {
   const { total, totalCapped, rows } = await pageOf(Aircraft, {
-    where: {
+    where: withinScope(scope, {
       ...searchWhere(query.q, ['registration', 'fleetNumber', 'type', 'base']),
       ...(query.type ? { type: query.type } : {}),
       ...(query.base ? { base: query.base } : {}),
       ...(query.active !== undefined ? { active: query.active } : {}),
-    },
+    }, 'id'),
     order: [[query.sort, query.direction.toUpperCase()]],
     page: query.page,
     pageSize: query.pageSize,
   })
-  return { total, totalCapped, items: rows.map(row => row.get({ plain: true })) }
+  const nameOf = await operatorNames()
+  return { total, totalCapped, items: rows.map(row => withOperator(row, nameOf)) }
 }
 
-/** An aircraft with the accumulators installed on it. */
-export async function aircraftById(id: number) {
-  return (await findOr404(Aircraft, id, 'Aircraft', { include: [{ model: Accumulator, as: 'accumulators' }] })).get({ plain: true })
+/** An aircraft with the accumulators installed on it (404 outside the user's scope). */
+export async function aircraftById(id: number, scope: Scope) {
+  requireAircraftInScope(scope, id, 'Aircraft')
+  const aircraft = await findOr404(Aircraft, id, 'Aircraft', { include: [{ model: Accumulator, as: 'accumulators' }] })
+  return withOperator(aircraft, await operatorNames())
 }
 
-/** The types and bases the register holds, for filters: options come from the data, never from a page. */
-export async function fleetOptions(): Promise<FleetOptions> {
+/** The types and bases of the aircraft the user may see, for filters: options come from the data, never from a page. */
+export async function fleetOptions(scope: Scope): Promise<FleetOptions> {
   const distinct = async (column: 'type' | 'base') =>
-    (await Aircraft.findAll({ attributes: [column], group: [column], order: [[column, 'ASC']], raw: true })).map(row => row[column])
+    (await Aircraft.findAll({ where: withinScope(scope, {}, 'id'), attributes: [column], group: [column], order: [[column, 'ASC']], raw: true }))
+      .map(row => row[column])
   return { types: await distinct('type'), bases: await distinct('base') }
 }
 
+/** The columns an aircraft body sets: its base must be a registered station, its operator a registered operator. */
+async function aircraftColumns(body: Partial<z.infer<typeof aircraftSchema>>, creating: boolean) {
+  const { operator, ...columns } = body
+  if (columns.base !== undefined) await requireStation(columns.base)
+  const operatorId = operator !== undefined || creating ? (await requireOperator(operator)).id : undefined
+  return { ...columns, ...(operatorId !== undefined ? { operatorId } : {}) }
+}
+
 export async function createAircraft(actor: User, body: z.infer<typeof aircraftSchema>) {
-  const created = await createAudited(Aircraft, body, { actor, entity: 'aircraft', action: 'created', detail: body, conflict: CONFLICT })
-  return created.get({ plain: true })
+  const columns = await aircraftColumns(body, true) as z.infer<typeof aircraftSchema> & { operatorId: number }
+  const created = await createAudited(Aircraft, columns, { actor, entity: 'aircraft', action: 'created', detail: body, conflict: CONFLICT })
+  return withOperator(created, await operatorNames())
 }
 
 export async function updateAircraft(actor: User, id: number, body: z.infer<typeof aircraftUpdateSchema>) {
   const aircraft = await findOr404(Aircraft, id, 'Aircraft')
-  await updateAudited(aircraft, body, { actor, entity: 'aircraft', action: 'updated', detail: body, conflict: CONFLICT })
-  return aircraft.get({ plain: true })
+  const columns = await aircraftColumns(body, false)
+  await updateAudited(aircraft, columns, { actor, entity: 'aircraft', action: 'updated', detail: body, conflict: CONFLICT })
+  return withOperator(aircraft, await operatorNames())
 }
 
 /** Aircraft from CSV (the export's columns): every row valid, or nothing imported. */
 export function importAircraft(event: H3Event, actor: User) {
   return importCsv(event, aircraftCsvRow, async (row, transaction) => {
-    const created = await Aircraft.create(row, { transaction })
+    const columns = await aircraftColumns(row, true) as typeof row & { operatorId: number }
+    const created = await Aircraft.create(columns, { transaction })
     await appendAudit({ actorId: actor.id, entity: 'aircraft', entityId: String(created.id), action: 'imported', detail: row }, transaction)
   })
 }

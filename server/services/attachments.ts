@@ -4,7 +4,8 @@ import { canEdit } from '#shared/utils/worksheet-rules'
 import { appendAudit } from '../database/audit-chain'
 import type { WorksheetDto } from '#shared/types/worksheet'
 import { Attachment, type User } from '../models'
-import { enforce, findWorksheet, worksheetById } from './worksheets'
+import { WHOLE_ORGANISATION, type Scope } from './scope'
+import { enforce, findWorksheet, requireWorksheetInScope, worksheetById } from './worksheets'
 
 /**
  * Gauge photos and certificates on a worksheet being filled. Only the performer, only while the
@@ -47,6 +48,7 @@ export async function attachFile(actor: User, upload: NewAttachment) {
       message:
         'Only photos (JPEG, PNG, WebP) and PDF documents can be attached; this file is neither, whatever its name says.',
     })
+  await requireWorksheetInScope(actor, upload.worksheetId)
   const worksheet = await findWorksheet(upload.worksheetId)
   enforce(canEdit(actor, worksheet))
   const storageKey = `${worksheet.id}/${randomUUID()}`
@@ -117,9 +119,18 @@ async function ownAttachment(worksheetId: number, id: number, transaction?: Tran
  * An attachment's bytes, only if they are the ones uploaded (their SHA-256 is part of the worksheet's audited
  * record).
  */
-export async function readAttachment(id: number): Promise<{ attachment: Attachment, data: Buffer }> {
+export async function readAttachment(
+  id: number,
+  scope: Scope = WHOLE_ORGANISATION,
+): Promise<{ attachment: Attachment, data: Buffer }> {
   const attachment = await Attachment.findByPk(id)
   if (!attachment) throw createError({ status: 404, statusMessage: 'Not Found', message: 'Attachment not found.' })
+  // A worksheet's photo is seen by whoever may see the worksheet (server/services/scope.ts).
+  if (attachment.worksheetId) {
+    await requireWorksheetInScope(scope, attachment.worksheetId).catch(() => {
+      throw createError({ status: 404, statusMessage: 'Not Found', message: 'Attachment not found.' })
+    })
+  }
   const stored = await useStorage('uploads').getItemRaw<Buffer | ArrayBuffer | Uint8Array>(attachment.storageKey)
   if (!stored)
     throw createError({
@@ -149,6 +160,7 @@ export async function removeAttachment(actor: User, id: number): Promise<Workshe
   if (!found?.worksheetId)
     throw createError({ status: 404, statusMessage: 'Not Found', message: 'Attachment not found.' })
   const worksheetId = found.worksheetId
+  await requireWorksheetInScope(actor, worksheetId)
   const storageKey = await writeTransaction(async (transaction) => {
     enforce(canEdit(actor, await findWorksheet(worksheetId, transaction)))
     const attachment = await ownAttachment(worksheetId, id, transaction)

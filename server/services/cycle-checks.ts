@@ -10,6 +10,7 @@ import { appendAudit } from '../database/audit-chain'
 import { Accumulator, Aircraft, CycleCheck, type User } from '../models'
 import { mailAlerts } from './notifications'
 import { currentSpecification } from './specifications'
+import { scopeOf, seesAircraft, withinScope, type Scope } from './scope'
 import { trendAfterCycleCheck } from './trends'
 
 /**
@@ -28,7 +29,10 @@ function unprocessable(message: string, field: string): never {
 }
 
 /** The figures a check stores: its accumulator, the engine's leak rate, the interval in seconds. */
-async function evaluate(body: CycleCheckBody) {
+async function evaluate(body: CycleCheckBody, actor: User) {
+  // An aircraft the actor may not see is answered as one without the unit: its existence is not given away.
+  if (!seesAircraft(await scopeOf(actor), body.aircraftId))
+    unprocessable(`No accumulator is installed on that aircraft for ${body.system}.`, 'system')
   const accumulator = await Accumulator.findOne({ where: { aircraftId: body.aircraftId, system: body.system } })
   if (!accumulator) unprocessable(`No accumulator is installed on that aircraft for ${body.system}.`, 'system')
   const specification = await currentSpecification(accumulator.partNumber)
@@ -72,12 +76,12 @@ export function toCycleCheckDto(check: CycleCheck & { aircraft?: Aircraft }): Cy
   }
 }
 
-export async function listCycleChecks(query: z.infer<typeof cycleCheckQuerySchema>) {
+export async function listCycleChecks(query: z.infer<typeof cycleCheckQuerySchema>, scope: Scope) {
   const { total, totalCapped, rows } = await pageOf(CycleCheck, {
-    where: {
+    where: withinScope(scope, {
       ...(query.aircraftId ? { aircraftId: query.aircraftId } : {}),
       ...(query.system ? { system: query.system } : {}),
-    },
+    }),
     include: [{ model: Aircraft, as: 'aircraft', attributes: ['registration'] }],
     order: [
       ['checkedAt', 'DESC'],
@@ -89,9 +93,9 @@ export async function listCycleChecks(query: z.infer<typeof cycleCheckQuerySchem
   return { total, totalCapped, items: rows.map(toCycleCheckDto) }
 }
 
-async function lockedCheck(id: number, transaction: Transaction): Promise<CycleCheck> {
+async function lockedCheck(id: number, transaction: Transaction, actor: User): Promise<CycleCheck> {
   const check = await CycleCheck.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE })
-  if (!check) throw createError({ status: 404, statusMessage: 'Not Found', message: 'Cycle check not found.' })
+  if (!check || !seesAircraft(await scopeOf(actor), check.aircraftId)) throw createError({ status: 404, statusMessage: 'Not Found', message: 'Cycle check not found.' })
   return check
 }
 
@@ -122,7 +126,7 @@ async function compareAndSet(
 }
 
 export async function recordCycleCheck(actor: User, body: CycleCheckBody): Promise<CycleCheckDto> {
-  const figures = await evaluate(body)
+  const figures = await evaluate(body, actor)
   const check = await writeTransaction(async (transaction) => {
     const created = await CycleCheck.create({ ...figures, recordedById: actor.id }, { transaction })
     await appendAudit(
@@ -149,9 +153,9 @@ export async function correctCycleCheck(
   body: CycleCheckBody,
   expectedVersion?: number,
 ): Promise<CycleCheckDto> {
-  const figures = await evaluate(body)
+  const figures = await evaluate(body, actor)
   await writeTransaction(async (transaction) => {
-    const check = await lockedCheck(id, transaction)
+    const check = await lockedCheck(id, transaction, actor)
     enforce(canChangeCycleCheck(actor, check))
     const before = { aircraftId: check.aircraftId, system: check.system }
     await compareAndSet(check, figures, expectedVersion, transaction)
@@ -184,7 +188,7 @@ export async function withdrawCycleCheck(
   expectedVersion?: number,
 ): Promise<CycleCheckDto> {
   await writeTransaction(async (transaction) => {
-    const check = await lockedCheck(id, transaction)
+    const check = await lockedCheck(id, transaction, actor)
     enforce(canChangeCycleCheck(actor, check))
     await compareAndSet(
       check,

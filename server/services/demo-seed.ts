@@ -28,8 +28,10 @@ import {
   Authorisation,
   Aircraft,
   CycleCheck,
+  Operator,
   Specification,
   SpecificationTablePoint,
+  Station,
   Tool,
   User,
   Worksheet,
@@ -37,7 +39,17 @@ import {
 
 export const DEMO_PASSWORD = 'chargewell-demo'
 
-const DEMO_USERS: { email: string, name: string, roles: Role[], authorisationNumber: string | null }[] = [
+interface DemoUser {
+  email: string
+  name: string
+  roles: Role[]
+  authorisationNumber: string | null
+  /** Granted only these stations and operators (by name); every one when left out. */
+  stations?: string[]
+  operators?: string[]
+}
+
+const DEMO_USERS: DemoUser[] = [
   { email: 'technician@chargewell.test', name: 'Rowan Hale', roles: ['technician'], authorisationNumber: 'FMR-T-0412' },
   { email: 'inspector@chargewell.test', name: 'Imke Dorsey', roles: ['inspector'], authorisationNumber: 'FMR-I-0107' },
   { email: 'engineer@chargewell.test', name: 'Sol Varga', roles: ['engineer'], authorisationNumber: null },
@@ -48,7 +60,42 @@ const DEMO_USERS: { email: string, name: string, roles: Role[], authorisationNum
     roles: ['technician', 'inspector'],
     authorisationNumber: 'FMR-TI-0033',
   },
+  // Three who see part of the organisation, so each role shows the scoping on first sign-in.
+  {
+    email: 'skelby.technician@chargewell.test',
+    name: 'Tamsin Orrell',
+    roles: ['technician'],
+    authorisationNumber: 'FMR-T-0519',
+    stations: ['Skelby'],
+  },
+  {
+    email: 'corran.inspector@chargewell.test',
+    name: 'Bram Kettering',
+    roles: ['inspector'],
+    authorisationNumber: 'FMR-I-0122',
+    stations: ['Skelby'],
+    operators: ['Corran Isles Airways'],
+  },
+  {
+    email: 'harlow.engineer@chargewell.test',
+    name: 'Ada Quillon',
+    roles: ['engineer'],
+    authorisationNumber: null,
+    stations: ['Harlow Moor'],
+  },
 ]
+
+/**
+ * The demo organisation: two stations and two operators. Fellmoor Regional maintains its own fleet and
+ * QX-FML for Corran Isles Airways, a customer, at Skelby.
+ */
+const STATIONS = [
+  { name: 'Harlow Moor', code: 'HRM', elevation: 420 },
+  { name: 'Skelby', code: 'SKB', elevation: 95 },
+]
+const OWN_OPERATOR = { name: 'Fellmoor Regional', code: 'FMR' }
+const CUSTOMER = { name: 'Corran Isles Airways', code: 'CIA' }
+const CUSTOMER_AIRCRAFT = ['QX-FML']
 
 const AIRCRAFT = [
   { registration: 'QX-FMA', fleetNumber: '461', type: 'Tarnwing 46', base: 'Harlow Moor' },
@@ -222,10 +269,26 @@ function randomSource(seed: number) {
   }
 }
 
+/** The stations and operators (the migration made the own operator; it gets the demo's name). */
+async function seedOrganisation(): Promise<void> {
+  const timeZone = String(useRuntimeConfig().public.stationTimeZone)
+  for (const station of STATIONS) {
+    await Station.findOrCreate({
+      where: { name: station.name },
+      defaults: { name: station.name, code: station.code, timeZone, elevationValue: station.elevation, elevationUnit: 'ft' },
+    })
+  }
+  const own = await Operator.findOne({ where: { own: true } })
+  if (own && own.name !== OWN_OPERATOR.name) await own.update(OWN_OPERATOR)
+  if (!own) await Operator.create({ ...OWN_OPERATOR, own: true })
+  await Operator.findOrCreate({ where: { name: CUSTOMER.name }, defaults: CUSTOMER })
+}
+
 async function seedUsers(): Promise<Record<string, User>> {
   const users: Record<string, User> = {}
-  for (const demo of DEMO_USERS) {
+  for (const { stations, operators, ...demo } of DEMO_USERS) {
     const existing = await User.findOne({ where: { email: demo.email } })
+    const home = STATIONS.find(station => station.name === (stations?.[0] ?? 'Harlow Moor'))!
     users[demo.email]
       = existing
         ?? (await User.create({
@@ -233,9 +296,15 @@ async function seedUsers(): Promise<Record<string, User>> {
           passwordHash: await hashPassword(DEMO_PASSWORD),
           preferences: {
             ...DEFAULT_PREFERENCES,
-            stationElevation: { value: 420, unit: 'ft' },
-            stationName: 'Harlow Moor',
+            stationElevation: { value: home.elevation, unit: 'ft' },
+            stationName: home.name,
           },
+          stationIds: stations
+            ? (await Station.findAll({ where: { name: stations } })).map(station => station.id)
+            : null,
+          operatorIds: operators
+            ? (await Operator.findAll({ where: { name: operators } })).map(operator => operator.id)
+            : null,
         }))
   }
   await seedAuthorisations(users)
@@ -384,10 +453,13 @@ async function seedScenario(users: Record<string, User>): Promise<void> {
     const random = randomSource(4601)
     let serial = 1000
     const installedAt = isoDate(new Date(now.getTime() - 420 * DAY))
+    const own = (await Operator.findOne({ where: { own: true }, transaction }))!
+    const customer = (await Operator.findOne({ where: { name: CUSTOMER.name }, transaction }))!
     const performers = [users['technician@chargewell.test']!, users['lead@chargewell.test']!]
     const inspectors = [users['inspector@chargewell.test']!, users['lead@chargewell.test']!]
     for (const aircraftSeed of AIRCRAFT) {
-      const aircraft = await Aircraft.create(aircraftSeed, { transaction })
+      const operator = CUSTOMER_AIRCRAFT.includes(aircraftSeed.registration) ? customer : own
+      const aircraft = await Aircraft.create({ ...aircraftSeed, operatorId: operator.id }, { transaction })
       for (const slot of POSITIONS[aircraftSeed.type]!) {
         const specification = specifications[slot.partNumber]!
         const accumulator = await Accumulator.create(
@@ -781,6 +853,7 @@ async function seedCycleChecks(
 /** Migrates (on opening) and fills the server's database with the demo scenario; a second run changes nothing. */
 export async function seedDemo(): Promise<{ users: number, aircraft: number, worksheets: number }> {
   await useDB()
+  await seedOrganisation()
   const users = await seedUsers()
   await seedScenario(users)
   await rebuildTrends(writeTransaction)

@@ -18,9 +18,11 @@ import {
   draftAttributes,
   frozenContent,
   runStep,
+  requireWorksheetInScope,
   unitForNewWorksheet,
   worksheetById,
 } from './worksheets'
+import { scopeOf, withinScope } from './scope'
 
 /**
  * Work on the ramp with no signal. A technician's device keeps the reference data it needs (their
@@ -33,10 +35,11 @@ import {
  */
 
 export async function fieldReference(user: User): Promise<FieldReference> {
+  const scope = await scopeOf(user)
   const station = (user.preferences as { stationName?: string }).stationName?.trim() || null
-  const atStation = station ? await Aircraft.count({ where: { base: station } }) : 0
+  const atStation = station ? await Aircraft.count({ where: withinScope(scope, { base: station }, 'id') }) : 0
   const units = await Accumulator.findAll({
-    where: { aircraftId: { [Op.ne]: null }, ...(atStation ? { '$aircraft.base$': station } : {}) },
+    where: withinScope(scope, { aircraftId: { [Op.ne]: null }, ...(atStation ? { '$aircraft.base$': station } : {}) }),
     include: [{ model: Aircraft, as: 'aircraft' }],
     order: [
       [{ model: Aircraft, as: 'aircraft' }, 'registration', 'ASC'],
@@ -88,6 +91,7 @@ async function answerFor(worksheet: Worksheet, actor: User, body: OfflineWorkshe
       message: 'Another technician\'s worksheet already carries this device id.',
     })
   }
+  await requireWorksheetInScope(actor, worksheet.id)
   if (worksheet.accumulatorId !== body.accumulatorId || worksheet.workOrder !== body.workOrder) {
     throw createError({
       status: 409,
@@ -150,7 +154,7 @@ export async function syncOfflineWorksheet(actor: User, body: OfflineWorksheetBo
   if (known) return answerFor(known, actor, body)
   const receivedAt = Date.now()
   const received = new Date(receivedAt).toISOString()
-  const unit = await unitForNewWorksheet(body.accumulatorId)
+  const unit = await unitForNewWorksheet(body.accumulatorId, actor)
   const { accumulator, aircraft, specification } = unit
   await checkCorrection(actor, body.correctsId, accumulator.id)
   const conflicts: string[] = []

@@ -3,6 +3,8 @@ import type { z } from 'zod'
 import type { worksheetExportQuerySchema } from '#shared/schemas/worksheet'
 import { WORKSHEET_STATE_LABELS } from '#shared/types/worksheet'
 import { Accumulator, Aircraft, Specification, SpecificationTablePoint, Tool } from '../models'
+import { operatorNames } from './aircraft'
+import { unitsWithinScope, withinScope, type Scope } from './scope'
 import { toSpecificationDto } from './specifications'
 import { allWorksheets } from './worksheet-list'
 
@@ -13,7 +15,7 @@ import { allWorksheets } from './worksheet-list'
  */
 
 const REGISTER_COLUMNS = {
-  aircraft: ['registration', 'fleetNumber', 'type', 'base', 'active'],
+  aircraft: ['registration', 'fleetNumber', 'type', 'base', 'operator', 'active'],
   accumulators: ['partNumber', 'serialNumber', 'system', 'registration', 'position', 'installedAt'],
   tools: [
     'kind',
@@ -58,10 +60,13 @@ const REGISTER_COLUMNS = {
 
 type Register = keyof typeof REGISTER_COLUMNS
 
-async function registerRows(register: Register): Promise<Record<string, unknown>[]> {
+async function registerRows(register: Register, scope: Scope): Promise<Record<string, unknown>[]> {
   switch (register) {
-    case 'aircraft':
-      return (await Aircraft.findAll({ order: [['registration', 'ASC']] })).map(row => row.get({ plain: true }))
+    case 'aircraft': {
+      const nameOf = await operatorNames()
+      return (await Aircraft.findAll({ where: withinScope(scope, {}, 'id'), order: [['registration', 'ASC']] }))
+        .map(row => ({ ...row.get({ plain: true }), operator: nameOf(row.operatorId ?? null) }))
+    }
     case 'tools':
       return (
         await Tool.findAll({
@@ -73,6 +78,7 @@ async function registerRows(register: Register): Promise<Record<string, unknown>
       ).map(row => row.get({ plain: true }))
     case 'accumulators': {
       const rows = await Accumulator.findAll({
+        where: unitsWithinScope(scope),
         include: [{ model: Aircraft, as: 'aircraft' }],
         order: [
           ['partNumber', 'ASC'],
@@ -100,9 +106,9 @@ async function registerRows(register: Register): Promise<Record<string, unknown>
   }
 }
 
-/** A register as CSV, in the format its import reads. */
-export async function exportRegister(event: H3Event, register: Register): Promise<string> {
-  return sendCsv(event, register, await registerRows(register), [...REGISTER_COLUMNS[register]])
+/** A register as CSV, in the format its import reads: of aircraft and units, those the user may see. */
+export async function exportRegister(event: H3Event, register: Register, scope: Scope): Promise<string> {
+  return sendCsv(event, register, await registerRows(register, scope), [...REGISTER_COLUMNS[register]])
 }
 
 const WORKSHEET_COLUMNS = [
@@ -123,13 +129,13 @@ const WORKSHEET_COLUMNS = [
 ]
 
 /** Every worksheet the filters match, streamed a thousand rows at a time: any size, constant memory, no cap. */
-export function exportWorksheets(event: H3Event, query: z.infer<typeof worksheetExportQuerySchema>) {
+export function exportWorksheets(event: H3Event, query: z.infer<typeof worksheetExportQuerySchema>, scope: Scope) {
   return streamCsv(
     event,
     'worksheets',
     WORKSHEET_COLUMNS,
     (async function* () {
-      for await (const batch of allWorksheets(query)) {
+      for await (const batch of allWorksheets(query, scope)) {
         yield batch.map(item => [
           item.id,
           WORKSHEET_STATE_LABELS[item.state],

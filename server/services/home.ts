@@ -1,8 +1,9 @@
-import { Op } from 'sequelize'
+import { Op, type WhereOptions } from 'sequelize'
 import { can } from '#shared/abilities'
 import type { WaitingWork, WorksheetQueue } from '#shared/types/work'
 import { Tool, TrendAlert, Worksheet, type User } from '../models'
 import { dueList } from './due'
+import { alertsWithinScope, scopeOf, withinScope } from './scope'
 
 /**
  * What waits for a user, by what their roles do. A few small indexed reads (state and
@@ -10,7 +11,7 @@ import { dueList } from './due'
  */
 const SHOWN = 5
 
-async function worksheetQueue(where: Record<string, unknown>, oldestFirst = false): Promise<WorksheetQueue> {
+async function worksheetQueue(where: WhereOptions, oldestFirst = false): Promise<WorksheetQueue> {
   const [count, rows] = await Promise.all([
     Worksheet.count({ where }),
     Worksheet.findAll({
@@ -40,27 +41,28 @@ function alertLink(subject: string): string {
 
 export async function waitingWorkFor(user: User): Promise<WaitingWork> {
   const work: WaitingWork = {}
+  const scope = await scopeOf(user)
   if (can(user.roles, 'worksheet.perform')) {
     const mine = { performerId: user.id }
     const [drafts, returned, submitted] = await Promise.all([
-      worksheetQueue({ ...mine, state: 'draft' }),
-      worksheetQueue({ ...mine, state: 'returned' }),
-      worksheetQueue({ ...mine, state: 'awaiting-countersign' }),
+      worksheetQueue(withinScope(scope, { ...mine, state: 'draft' })),
+      worksheetQueue(withinScope(scope, { ...mine, state: 'returned' })),
+      worksheetQueue(withinScope(scope, { ...mine, state: 'awaiting-countersign' })),
     ])
     Object.assign(work, { drafts, returned, submitted })
     // What to service today: the home station's units overdue or due within the week.
     const station = user.preferences?.stationName
     if (station) {
-      const soon = (await dueList({ station })).items.filter(item => item.bucket === 'overdue' || item.bucket === 'this-week')
+      const soon = (await dueList({ station }, scope)).items.filter(item => item.bucket === 'overdue' || item.bucket === 'this-week')
       work.due = { station, count: soon.length, items: soon.slice(0, SHOWN) }
     }
   }
   if (can(user.roles, 'worksheet.inspect')) {
     // Independent inspection: never one's own work.
-    work.toCountersign = await worksheetQueue({ state: 'awaiting-countersign', performerId: { [Op.ne]: user.id } }, true)
+    work.toCountersign = await worksheetQueue(withinScope(scope, { state: 'awaiting-countersign', performerId: { [Op.ne]: user.id } }), true)
   }
   if (can(user.roles, 'specification.manage') || can(user.roles, 'study.edit')) {
-    const open = await TrendAlert.findAll({ where: { clearedAt: null }, order: [['raisedAt', 'DESC']] })
+    const open = await alertsWithinScope(scope, await TrendAlert.findAll({ where: { clearedAt: null }, order: [['raisedAt', 'DESC']] }))
     work.alerts = {
       count: open.length,
       items: open

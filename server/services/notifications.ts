@@ -4,6 +4,7 @@ import { can } from '#shared/abilities'
 import type { HeldRecord } from '../database/record-guard'
 import type { AlertChange } from './unit-trends'
 import { Notification, User, type Worksheet } from '../models'
+import { alertsWithinScope, scopeOf, seesAircraft } from './scope'
 
 /**
  * Every e-mail Chargewell sends, worded once: the countersign request, the return to the
@@ -24,7 +25,11 @@ function unitOf(worksheet: Worksheet): string {
 /** The performer signed: every other inspector is asked to countersign. */
 export async function askForCountersign(worksheet: Worksheet, performer: Pick<User, 'id' | 'name'>): Promise<void> {
   const content = worksheet.content as WorksheetContent
-  const inspectors = (await activeUsers(performer.id)).filter(user => can(user.roles, 'worksheet.inspect'))
+  // Only inspectors who may see the aircraft are asked (server/services/scope.ts).
+  const inspectors = []
+  for (const user of await activeUsers(performer.id)) {
+    if (can(user.roles, 'worksheet.inspect') && seesAircraft(await scopeOf(user), worksheet.aircraftId)) inspectors.push(user)
+  }
   await Promise.all(
     inspectors.map(inspector =>
       sendMail({
@@ -60,9 +65,18 @@ export async function tellReturned(worksheet: Worksheet, inspector: Pick<User, '
 export async function mailAlerts(changes: AlertChange[]): Promise<void> {
   if (changes.length === 0) return
   const engineers = (await activeUsers()).filter(user => can(user.roles, 'specification.manage'))
-  for (const { kind, message } of changes) {
+  const scopes = new Map(
+    await Promise.all(engineers.map(async engineer => [engineer.id, await scopeOf(engineer)] as const)),
+  )
+  for (const change of changes) {
+    const { kind, message } = change
+    // Each engineer is told of the alerts on what they may see.
+    const told = []
+    for (const engineer of engineers) {
+      if ((await alertsWithinScope(scopes.get(engineer.id)!, [change])).length) told.push(engineer)
+    }
     await Promise.all(
-      engineers.map(engineer =>
+      told.map(engineer =>
         sendMail({
           to: engineer.email,
           kind: `trend-${kind}`,

@@ -4,7 +4,10 @@ import type { Passkey, Signature } from '../models'
 import { contentHashOf, fieldDigests, keyFingerprint, signedRecordOf } from '#shared/utils/record-proof'
 import { worksheetPdf } from '../utils/worksheet-pdf'
 import { readAttachment } from './attachments'
-import { findWorksheet, toWorksheetDto } from './worksheets'
+import { Aircraft } from '../models'
+import { operatorNames } from './aircraft'
+import { stationNamed, type Scope } from './scope'
+import { findWorksheet, requireWorksheetInScope, toWorksheetDto } from './worksheets'
 
 /**
  * A released record as one PDF that stands on its own: the record as printed, and embedded in it
@@ -12,7 +15,8 @@ import { findWorksheet, toWorksheetDto } from './worksheets'
  * signers' public keys with their registration and revocation times. `npm run verify-record`
  * checks such a file with no server and no database.
  */
-export async function worksheetRecordPdf(event: H3Event, id: number): Promise<Uint8Array> {
+export async function worksheetRecordPdf(event: H3Event, id: number, scope: Scope): Promise<Uint8Array> {
+  await requireWorksheetInScope(scope, id)
   const row = await findWorksheet(id)
   const worksheet = await toWorksheetDto(row)
   if (worksheet.state !== 'released' && worksheet.state !== 'voided') {
@@ -24,9 +28,13 @@ export async function worksheetRecordPdf(event: H3Event, id: number): Promise<Ui
   }
   const runtime = useRuntimeConfig()
   const config = runtime.public
+  // Dated in the time zone of the aircraft's station, and issued under its operator's name.
+  const aircraft = await Aircraft.findByPk(row.aircraftId, { attributes: ['base', 'operatorId'] })
+  const station = await stationNamed(aircraft?.base)
+  const operatorName = aircraft ? (await operatorNames())(aircraft.operatorId ?? null) : ''
   const printedWith = {
     locale: String(config.locale),
-    timeZone: String(config.stationTimeZone),
+    timeZone: station?.timeZone ?? String(config.stationTimeZone),
     showZone: true as const,
   }
   const signedRecord = signedRecordOf(worksheet)
@@ -35,8 +43,8 @@ export async function worksheetRecordPdf(event: H3Event, id: number): Promise<Ui
   const record: EmbeddedRecord = {
     format: 'chargewell-record-export/1',
     exportedAt: new Date().toISOString(),
-    operator: String(runtime.operatorName ?? ''),
-    station: String(runtime.stationName ?? ''),
+    operator: operatorName || String(runtime.operatorName ?? ''),
+    station: station?.name ?? String(runtime.stationName ?? ''),
     printedWith,
     verifyAddress: `${address}/verify`,
     contentHash,

@@ -1,5 +1,7 @@
 import { mailAlerts } from './notifications'
 import { currentSpecification } from './specifications'
+import { requireUnitInScope } from './accumulators'
+import { requireAircraftInScope, withinScope, type Scope } from './scope'
 import { Op, type Transaction } from 'sequelize'
 import type { CycleTrendPage, CycleTrendRow, FleetTrendRow, UnitTrendDto } from '#shared/types/trends'
 import { cycleTrend, downsample, type CycleTrend } from '#shared/utils/cycle-check'
@@ -104,18 +106,19 @@ export interface FleetTrendFilters {
  * the database sorts and pages (units without a trend last), so the cost is one page whatever the fleet.
  */
 export async function fleetPrechargeTrends(
-  filters: FleetTrendFilters = {},
+  filters: FleetTrendFilters,
+  scope: Scope,
 ): Promise<{ items: FleetTrendRow[], total: number, page: number, pageSize: number }> {
   const page = filters.page ?? 1
   const pageSize = filters.pageSize ?? 50
-  const where = {
+  const where = withinScope(scope, {
     aircraftId: { [Op.ne]: null },
     ...(filters.partNumber ? { partNumber: filters.partNumber } : {}),
     ...(filters.position ? { position: { [likeOperator()]: `%${filters.position}%` } } : {}),
     ...(filters.type ? { '$aircraft.type$': filters.type } : {}),
     ...(filters.base ? { '$aircraft.base$': filters.base } : {}),
     ...(filters.flagged !== undefined ? { '$trend.flagged$': filters.flagged } : {}),
-  }
+  })
   const include = [
     { model: Aircraft, as: 'aircraft', attributes: ['registration', 'type', 'base'] },
     { model: UnitTrend, as: 'trend', required: false },
@@ -164,7 +167,8 @@ export async function fleetPrechargeTrends(
 }
 
 /** One unit's trend with its points and services, from the stored readings. */
-export async function unitTrend(accumulatorId: number): Promise<UnitTrendDto> {
+export async function unitTrend(accumulatorId: number, scope: Scope): Promise<UnitTrendDto> {
+  await requireUnitInScope(scope, accumulatorId)
   const accumulator = await Accumulator.findByPk(accumulatorId, {
     include: [
       { model: Aircraft, as: 'aircraft' },
@@ -400,8 +404,9 @@ const FLAGGED_SHOWN = 50
  */
 export async function cycleTrendPage(
   query: { page: number, pageSize: number, flagged?: boolean },
+  scope: Scope,
 ): Promise<CycleTrendPage> {
-  const where = query.flagged === undefined ? {} : { flagged: query.flagged }
+  const where = withinScope(scope, query.flagged === undefined ? {} : { flagged: query.flagged })
   const [total, rows, flaggedCount, flaggedRows] = await Promise.all([
     SystemCycleTrend.count({ where }),
     SystemCycleTrend.findAll({
@@ -410,9 +415,9 @@ export async function cycleTrendPage(
       limit: query.pageSize,
       offset: (query.page - 1) * query.pageSize,
     }),
-    SystemCycleTrend.count({ where: { flagged: true } }),
+    SystemCycleTrend.count({ where: withinScope(scope, { flagged: true }) }),
     SystemCycleTrend.findAll({
-      where: { flagged: true },
+      where: withinScope(scope, { flagged: true }),
       order: [['rank', 'DESC'], ['aircraftId', 'ASC'], ['system', 'ASC']],
       limit: FLAGGED_SHOWN,
     }),
@@ -430,6 +435,7 @@ export async function cycleTrendPage(
 }
 
 /** One system's whole series of checks (a chart's "show all"), bounded by that one system's history. */
-export async function systemCycleSeries(aircraftId: number, system: string): Promise<CycleTrendRow['series']> {
+export async function systemCycleSeries(aircraftId: number, system: string, scope: Scope): Promise<CycleTrendRow['series']> {
+  requireAircraftInScope(scope, aircraftId, 'Aircraft')
   return (await seriesOf([{ aircraftId, system }])).get(`${aircraftId}|${system}`) ?? []
 }

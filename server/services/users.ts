@@ -6,8 +6,10 @@ import type { PasswordChangeBody, UserCreateBody, UserUpdateBody } from '#shared
 import { DEFAULT_PREFERENCES, type UserPreferences } from '#shared/types/user'
 import { describeAuditEvent, type AuditEventDto } from '#shared/utils/audit-words'
 import { appendAudit } from '../database/audit-chain'
-import { AuditEvent, User, UserSession } from '../models'
+import { AuditEvent, Station, User, UserSession } from '../models'
 import { endAllSessions, sessionsChangedAfterCommit } from '../utils/session-store'
+import { unprocessable } from './audited-writes'
+import { scopeOf } from './scope'
 import { reauthenticate } from './sessions'
 
 /**
@@ -125,8 +127,16 @@ export async function listUsers() {
   return (await User.findAll({ order: [['name', 'ASC']] })).map(user => user.toPublic())
 }
 
-/** The user's own display units and home station. */
+/** The user's own display units and home station (one of the stations they may see). */
 export async function savePreferences(user: User, preferences: UserPreferences) {
+  const station = preferences.stationName.trim()
+  if (station) {
+    const scope = await scopeOf(user)
+    const known = await Station.count({ where: { name: station } })
+    if (!known || (scope.stations !== null && !scope.stations.includes(station))) {
+      unprocessable(`“${station}” is not one of your stations: choose one you are granted, or none.`, 'stationName')
+    }
+  }
   await writeTransaction(async (transaction) => {
     await user.update({ preferences }, { transaction })
     sessionsChangedAfterCommit(user.id, transaction)

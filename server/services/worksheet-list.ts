@@ -2,6 +2,7 @@ import { Op, QueryTypes, Utils, col, fn, literal, where as condition, type Order
 import type { WorksheetListQuery } from '#shared/schemas/worksheet'
 import type { WorksheetListItem, WorksheetListPage } from '#shared/types/worksheet'
 import { User, Worksheet } from '../models'
+import { withinScope, type Scope } from './scope'
 
 /**
  * The worksheet list at any size: it reads only the row's own list columns (never the JSON
@@ -375,13 +376,15 @@ async function searchCounts(
   return { total, matches }
 }
 
-export async function listWorksheets(query: WorksheetListQuery): Promise<WorksheetListPage> {
+/** The worksheets the filters match, of the aircraft the user may see (server/services/scope.ts). */
+export async function listWorksheets(query: WorksheetListQuery, scope: Scope): Promise<WorksheetListPage> {
   const cursor = query.cursor ? decodeCursor(query.cursor) : null
   const ascending = query.direction === 'asc'
   // Reading backwards (the previous page) walks the same order the other way, then turns it round.
   const walkAscending = cursor?.toward === 'before' ? !ascending : ascending
-  const filter = worksheetFilter(query)
-  const plainSearch = !!query.q && query.sort === 'createdAt' && Object.keys(query).every(key =>
+  const filter = withinScope(scope, worksheetFilter(query))
+  // The search indexes hold no aircraft: a search narrowed to some aircraft takes the general path.
+  const plainSearch = !!query.q && query.sort === 'createdAt' && scope.aircraftIds === null && Object.keys(query).every(key =>
     ['q', 'sort', 'direction', 'pageSize', 'cursor'].includes(key) || query[key as keyof typeof query] === undefined)
   // Counted first (a bounded, cheap count): how many match decides how a search is best run.
   // Column by column on SQLite (index-only ranges); PostgreSQL visits the table for each counted row
@@ -391,7 +394,7 @@ export async function listWorksheets(query: WorksheetListQuery): Promise<Workshe
     ? await searchCounts(query.q!, filter)
     : { total: await cappedCount(filter), matches: {} }
   const dense = !!query.q && total > DENSE_MATCHES
-  const pageFilter = dense ? worksheetFilter(query, true) : filter
+  const pageFilter = dense ? withinScope(scope, worksheetFilter(query, true)) : filter
   const direction = walkAscending ? 'ASC' : 'DESC'
   const order: Order = [
     [query.sort, direction],
@@ -442,13 +445,13 @@ const EXPORT_BATCH = 250
  * without the join to their performer (SQLite reads them from the list's index alone); the performers'
  * names are looked up once each.
  */
-export async function* allWorksheets(filters: Filters): AsyncGenerator<WorksheetListItem[]> {
+export async function* allWorksheets(filters: Filters, scope: Scope): AsyncGenerator<WorksheetListItem[]> {
   let cursor: Cursor | null = null
   const ascending = filters.direction === 'asc'
   const direction = ascending ? 'ASC' : 'DESC'
   const names = new Map<number, string>()
   for (;;) {
-    const filter = worksheetFilter(filters)
+    const filter = withinScope(scope, worksheetFilter(filters))
     const where: WhereOptions = cursor
       ? { [Op.and]: [filter, keysetCondition(filters.sort, ascending, cursor)] }
       : filter

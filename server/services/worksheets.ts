@@ -39,6 +39,7 @@ import { authorisationToSign, frozenAuthorisation } from './authorisations'
 import { signingRequestOptions, verifySigningAssertion } from './passkeys'
 import { signingPolicy } from './signing-policy'
 import { confirmSigner, createSignature, currentSigner, signingMethod, signingProof, type SignedAs } from './signatures'
+import { scopeOf, seesAircraft, stationNamed, WHOLE_ORGANISATION, type Scope } from './scope'
 import { currentSpecification, toSpecificationDto } from './specifications'
 import { trendAfterCorrection, trendAfterRelease, trendAfterVoid } from './trends'
 
@@ -50,7 +51,7 @@ import { trendAfterCorrection, trendAfterRelease, trendAfterVoid } from './trend
  * again on every save and recomputes every figure. Each action answers the worksheet as it now is.
  */
 
-type Actor = Pick<User, 'id' | 'name' | 'roles' | 'authorisationNumber'>
+type Actor = Pick<User, 'id' | 'name' | 'roles' | 'authorisationNumber' | 'stationIds' | 'operatorIds'>
 
 /** The request a signature comes with, and the signer's proof: the password re-entered, or a passkey's assertion. */
 export interface SignerProof {
@@ -87,6 +88,17 @@ function asHttpError(refusal: StepRefusal, more: Record<string, unknown> = {}) {
   })
 }
 
+/**
+ * 404 unless the worksheet is of an aircraft the actor may see (server/services/scope.ts): every action
+ * on a worksheet asks this first, so a worksheet out of scope reads, signs and changes as not there.
+ */
+export async function requireWorksheetInScope(scope: Scope | Pick<User, 'roles' | 'stationIds' | 'operatorIds'>, id: number): Promise<void> {
+  const resolved = 'whole' in scope ? scope : await scopeOf(scope)
+  if (resolved.aircraftIds === null) return
+  const row = await Worksheet.findByPk(id, { attributes: ['id', 'aircraftId'] })
+  if (!row || !seesAircraft(resolved, row.aircraftId)) notFound('Worksheet')
+}
+
 export async function findWorksheet(id: number, transaction?: Transaction): Promise<Worksheet> {
   const worksheet = await Worksheet.findByPk(id, {
     include: [
@@ -97,6 +109,13 @@ export async function findWorksheet(id: number, transaction?: Transaction): Prom
     transaction,
   })
   return worksheet ?? notFound('Worksheet')
+}
+
+/** The station an aircraft is based at: its name and time zone. */
+async function stationOfAircraft(aircraftId: number): Promise<{ name: string, timeZone: string } | null> {
+  const aircraft = await Aircraft.findByPk(aircraftId, { attributes: ['base'] })
+  const station = await stationNamed(aircraft?.base)
+  return station ? { name: station.name, timeZone: station.timeZone } : null
 }
 
 export async function toWorksheetDto(worksheet: Worksheet): Promise<WorksheetDto> {
@@ -147,11 +166,13 @@ export async function toWorksheetDto(worksheet: Worksheet): Promise<WorksheetDto
       sha256,
     })),
     settleUntil: settleUntil(worksheet.content),
+    station: await stationOfAircraft(worksheet.aircraftId),
   }
 }
 
-/** The worksheet as the API answers it. */
-export async function worksheetById(id: number): Promise<WorksheetDto> {
+/** The worksheet as the API answers it (404 outside the user's scope). */
+export async function worksheetById(id: number, scope: Scope = WHOLE_ORGANISATION): Promise<WorksheetDto> {
+  await requireWorksheetInScope(scope, id)
   return toWorksheetDto(await findWorksheet(id))
 }
 
@@ -217,10 +238,14 @@ const audit = (
 /** What a worksheet freezes of its unit: the aircraft, the unit, and the specification in force. */
 export const frozenContent = freezeWorksheetContent
 
-/** The unit, its aircraft and its specification in force, or 422 naming what is missing. */
-export async function unitForNewWorksheet(accumulatorId: number) {
+/**
+ * The unit, its aircraft and its specification in force, or 422 naming what is missing. A unit on an aircraft
+ * the actor may not see is answered as one not installed: its existence is not given away.
+ */
+export async function unitForNewWorksheet(accumulatorId: number, actor: Pick<User, 'roles' | 'stationIds' | 'operatorIds'>) {
   const accumulator = await Accumulator.findByPk(accumulatorId, { include: [{ model: Aircraft, as: 'aircraft' }] })
-  if (!accumulator?.aircraft) unprocessable('That accumulator is not installed on an aircraft.', 'accumulatorId')
+  if (!accumulator?.aircraft || !seesAircraft(await scopeOf(actor), accumulator.aircraft.id))
+    unprocessable('That accumulator is not installed on an aircraft.', 'accumulatorId')
   const specification = await currentSpecification(accumulator.partNumber)
   if (!specification)
     unprocessable(
@@ -269,7 +294,7 @@ export function draftAttributes(
 
 /** Starts a worksheet for an installed unit, freezing its specification; a correction points at a released one. */
 export async function startWorksheet(actor: Actor, body: WorksheetCreateBody): Promise<WorksheetDto> {
-  const unit = await unitForNewWorksheet(body.accumulatorId)
+  const unit = await unitForNewWorksheet(body.accumulatorId, actor)
   const { accumulator, aircraft, specification } = unit
   await checkCorrection(actor, body.correctsId, accumulator.id)
   const id = await writeTransaction(async (transaction) => {
@@ -407,6 +432,7 @@ export async function saveStep(
   expectedVersion?: number,
   takenAt?: string,
 ): Promise<WorksheetDto> {
+  await requireWorksheetInScope(actor, id)
   const refusal = await writeTransaction(async (transaction) => {
     const worksheet = await lockedWorksheet(id, transaction)
     enforce(canEdit(actor, worksheet))
@@ -514,6 +540,7 @@ export async function signingOptions(
   id: number,
   capacity: SignatureCapacity,
 ): Promise<SigningOptionsDto> {
+  await requireWorksheetInScope(actor, id)
   const signer = await currentSigner(actor.id)
   const worksheet = await findWorksheet(id)
   enforce(capacity === 'performer' ? canEdit(signer, worksheet) : canInspect(signer, worksheet))
@@ -565,6 +592,7 @@ export async function signWorksheet(
   proof: SignerProof,
   expectedVersion?: number,
 ): Promise<WorksheetDto> {
+  await requireWorksheetInScope(actor, id)
   const signer = await currentSigner(actor.id)
   const seen = await findWorksheet(id)
   enforce(canEdit(signer, seen))
@@ -612,6 +640,7 @@ export async function countersignWorksheet(
   proof: SignerProof,
   expectedVersion?: number,
 ): Promise<WorksheetDto> {
+  await requireWorksheetInScope(actor, id)
   const signer = await currentSigner(actor.id)
   const seen = await findWorksheet(id)
   enforce(canInspect(signer, seen))
@@ -650,6 +679,7 @@ export async function returnWorksheet(
   reason: string,
   expectedVersion?: number,
 ): Promise<WorksheetDto> {
+  await requireWorksheetInScope(actor, id)
   const worksheet = await writeTransaction(async (transaction) => {
     const found = await lockedWorksheet(id, transaction)
     enforce(canInspect(actor, found))
@@ -674,6 +704,7 @@ export async function voidWorksheet(
   reason: string,
   expectedVersion?: number,
 ): Promise<WorksheetDto> {
+  await requireWorksheetInScope(actor, id)
   await writeTransaction(async (transaction) => {
     const worksheet = await lockedWorksheet(id, transaction)
     enforce(canVoid(actor, worksheet))
@@ -698,6 +729,7 @@ export async function discardWorksheet(
   reason: string,
   expectedVersion?: number,
 ): Promise<WorksheetDto> {
+  await requireWorksheetInScope(actor, id)
   await writeTransaction(async (transaction) => {
     const worksheet = await lockedWorksheet(id, transaction)
     enforce(canDiscard(actor, worksheet))

@@ -47,3 +47,13 @@ export async function requireAbility(event: H3Event, ability: Ability = 'account
   if (!can(user.roles, ability)) throw createError({ status: 403, statusMessage: 'Forbidden', message: refusal(ability) })
   return user
 }
+
+/**
+ * `requireAbility`, and what the user may see (server/services/scope.ts): every route that reads or
+ * writes records of aircraft passes the scope to its service.
+ */
+export async function requireScope(event: H3Event, ability: Ability = 'account.own') {
+  const user = await requireAbility(event, ability)
+  const { scopeOf } = await import('../services/scope')
+  return { user, scope: await scopeOf(user) }
+}

@@ -10,6 +10,8 @@ export const aircraftSchema = z
     fleetNumber: text('fleet number', 20),
     type: text('aircraft type', 60),
     base: text('base', 60),
+    /** The operator's name or code; the organisation's own fleet when left out. */
+    operator: z.string().trim().max(120).nullish().transform(value => value || undefined),
     active: z.boolean().default(true),
   })
   .strict()

@@ -38,6 +38,7 @@ export const aircraftCsvRow = csvRow(
     fleetNumber: cell.text,
     type: cell.text,
     base: cell.text,
+    operator: cell.optionalText.default(''),
     active: cell.boolean.default('true'),
   },
   aircraftSchema,

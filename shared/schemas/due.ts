@@ -10,6 +10,8 @@ export const dueQuerySchema = z
 export const dueCalendarQuerySchema = z
   .object({
     station: z.string({ required_error: 'Name the station.' }).trim().min(1, 'Name the station.').max(80, 'At most 80 characters.'),
+    /** The user whose calendar address this is (with `key`). */
+    user: z.coerce.number().int().positive().max(2_147_483_647).optional(),
     key: z.string().max(64).optional(),
   })
   .strict()

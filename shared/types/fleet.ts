@@ -25,6 +25,8 @@ export interface AircraftDto {
   fleetNumber: string
   type: string
   base: string
+  /** The operator's name. */
+  operator: string
   active: boolean
 }
 

@@ -35,6 +35,10 @@ export interface PublicUser {
   authorisationNumber: string | null
   disabled: boolean
   preferences: UserPreferences
+  /** Stations (ids) the user may see; null: every station. */
+  stationIds: number[] | null
+  /** Operators (ids) the user may see; null: every operator. */
+  operatorIds: number[] | null
 }
 
 /** One device the user is signed in on (`GET /api/me/sessions`). */

@@ -163,6 +163,8 @@ export interface WorksheetDto {
   workOrder: string
   reason: WorksheetReason
   performer: { id: number, name: string }
+  /** The station of the aircraft, whose time zone the record's dates are shown in. */
+  station?: { name: string, timeZone: string } | null
   correctsId: number | null
   correctedBy: number[]
   content: WorksheetContent

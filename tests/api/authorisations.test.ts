@@ -37,7 +37,7 @@ beforeAll(async () => {
 describe('the register of certifying authorisations', () => {
   it('lists each entry with its standing; each holder sees their own', async () => {
     const entries = await register()
-    expect(entries.map(entry => entry.number)).toEqual(['FMR-I-0107', 'FMR-T-0412', 'FMR-TI-0033'])
+    expect(entries.map(entry => entry.number)).toEqual(['FMR-I-0107', 'FMR-I-0122', 'FMR-T-0412', 'FMR-T-0519', 'FMR-TI-0033'])
     const mine = (await api('/api/me/authorisations', { cookie: cookies.technician })).body
     expect(mine).toHaveLength(1)
     expect(mine[0]).toMatchObject({ number: 'FMR-T-0412', privileges: 'perform', standing: 'valid', scope: ['Tarnwing 46', 'Tarnwing 72'] })

@@ -303,7 +303,7 @@ describe('writers at the same time wait instead of failing', () => {
           temperatureUnit: 'C',
           volumeUnit: 'L',
           stationElevation: { value: 120, unit: 'm' },
-          stationName: `Skelby ${index}`,
+          stationName: index % 2 ? 'Skelby' : 'Harlow Moor',
         },
       }),
       api('/api/cycle-checks', {

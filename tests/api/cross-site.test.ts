@@ -48,7 +48,7 @@ describe('a request that changes records from another origin', () => {
   })
 
   it('the app\'s own origin and other systems (no Origin header) are served as before', async () => {
-    const body = { pressureUnit: 'psi', temperatureUnit: 'C', volumeUnit: 'in3', stationElevation: { value: 420, unit: 'ft' }, stationName: 'Fellmoor' }
+    const body = { pressureUnit: 'psi', temperatureUnit: 'C', volumeUnit: 'in3', stationElevation: { value: 420, unit: 'ft' }, stationName: 'Harlow Moor' }
     const own = await api('/api/me/preferences', { method: 'PATCH', cookie: admin, body, headers: { 'origin': baseURL(), 'sec-fetch-site': 'same-origin' } })
     expect(own.status).toBe(200)
     expect((await api('/api/me/preferences', { method: 'PATCH', cookie: admin, body })).status).toBe(200)

@@ -66,7 +66,7 @@ describe('the due list', () => {
     const skelby = (await api('/api/due?station=Skelby', { cookie: cookies.engineer })).body
     expect(lines).toHaveLength(skelby.items.length + 1)
 
-    expect(skelby.calendarAddress).toMatch(/\/api\/due\/calendar\?station=Skelby&key=/)
+    expect(skelby.calendarAddress).toMatch(/\/api\/due\/calendar\?station=Skelby&user=\d+&key=/)
     const feed = await fetch(skelby.calendarAddress.replace(/^https?:\/\/[^/]+/, baseURL()))
     expect(feed.status).toBe(200)
     expect(feed.headers.get('content-type')).toMatch(/text\/calendar/)
@@ -74,10 +74,12 @@ describe('the due list', () => {
     expect(text).toMatch(/^BEGIN:VCALENDAR/)
     const soon = (skelby.items as Item[]).filter(item => item.bucket !== 'later')
     expect(text.match(/BEGIN:VEVENT/g)?.length ?? 0).toBe(soon.length)
-    expect((await fetch(`${baseURL()}/api/due/calendar?station=Skelby&key=not-the-key`)).status).toBe(401)
-    // The key of one station does not open another's.
+    const user = new URL(skelby.calendarAddress).searchParams.get('user')!
+    expect((await fetch(`${baseURL()}/api/due/calendar?station=Skelby&user=${user}&key=not-the-key`)).status).toBe(401)
+    // The key of one station does not open another's, nor is it another user's.
     const key = new URL(skelby.calendarAddress).searchParams.get('key')!
-    expect((await fetch(`${baseURL()}/api/due/calendar?station=Harlow%20Moor&key=${key}`)).status).toBe(401)
+    expect((await fetch(`${baseURL()}/api/due/calendar?station=Harlow%20Moor&user=${user}&key=${key}`)).status).toBe(401)
+    expect((await fetch(`${baseURL()}/api/due/calendar?station=Skelby&user=${Number(user) + 1}&key=${key}`)).status).toBe(401)
     expect((await fetch(`${baseURL()}/api/due/calendar?station=Skelby`, { headers: { cookie: cookies.engineer! } })).status).toBe(200)
   })
 

@@ -39,6 +39,9 @@ function expectNeutralised(cells: string[], value: string) {
 
 describe('CSV exports neutralise formulas', () => {
   it('aircraft (base, registration-adjacent fields) and its import reads the value back unguarded', async () => {
+    // A station whose name a spreadsheet would run as a formula, for aircraft to name as their base.
+    const station = { name: FORMULA, code: 'FRM', timeZone: 'UTC', elevation: { value: 0, unit: 'ft' } }
+    expect((await api('/api/admin/stations', { cookie: cookies.admin, body: station })).status).toBe(201)
     expect((await api('/api/aircraft', { cookie: cookies.admin, body: { registration: 'QX-FXA', fleetNumber: '+901', type: 'Tarnwing 46', base: FORMULA } })).status).toBe(201)
     const cells = await csvCells('/api/aircraft/export')
     expectNeutralised(cells, FORMULA)

@@ -117,6 +117,7 @@ describe('passkeys as signing credentials', () => {
     expect(report.printed.mismatches).toEqual([])
     expect(report.ok).toBe(true)
     expect(report.operator).toBe('Fellmoor Regional')
+    expect(report.station).toBe('Harlow Moor')
     expect(report.signatures.map(signature => [signature.capacity, signature.status, signature.key?.name])).toEqual([
       ['performer', 'valid', 'Security key, blue'],
       ['inspector', 'valid', 'Tablet 3, hangar B'],
@@ -127,7 +128,8 @@ describe('passkeys as signing credentials', () => {
     writeFileSync(join(folder, 'record.pdf'), pdf)
     const { stdout: text } = await run('pdftotext', ['-layout', join(folder, 'record.pdf'), '-'])
     const pages = text.split('\f').filter(page => page.trim())
-    pages.forEach((page, index) => expect(page).toContain(`Worksheet ${released} · Fellmoor Regional · Fellmoor main base · page ${index + 1} of ${pages.length}`))
+    // QX-FMB is based at Harlow Moor: the record names its station, and its operator.
+    pages.forEach((page, index) => expect(page).toContain(`Worksheet ${released} · Fellmoor Regional · Harlow Moor · page ${index + 1} of ${pages.length}`))
     expect(text).toMatch(/\d{2}:\d{2} UTC/)
     expect(text).toContain(`Record content hash (SHA-256): ${report.contentHash}`)
     expect(text).toContain('Signed with a passkey, key')

@@ -174,7 +174,7 @@ describe('fleet', () => {
       (
         await api('/api/aircraft', {
           cookie: cookies.admin,
-          body: { registration: 'QX-FMZ', fleetNumber: '730', type: 'x', base: 'y' },
+          body: { registration: 'QX-FMZ', fleetNumber: '730', type: 'x', base: 'Skelby' },
         })
       ).status,
     ).toBe(409)

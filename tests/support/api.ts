@@ -9,6 +9,16 @@ export const DEMO = {
   lead: 'lead@chargewell.test',
 } as const
 
+/** The demo's users who see part of the organisation (the scope matrix signs them in). */
+export const SCOPED_DEMO = {
+  /** Granted Skelby only. */
+  skelbyTechnician: 'skelby.technician@chargewell.test',
+  /** Granted Skelby, and only Corran Isles Airways's aircraft there. */
+  corranInspector: 'corran.inspector@chargewell.test',
+  /** Granted Harlow Moor only. */
+  harlowEngineer: 'harlow.engineer@chargewell.test',
+} as const
+
 // Route answers are checked field by field in the tests, so their body is loosely typed.
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 export interface ApiAnswer<T = any> {

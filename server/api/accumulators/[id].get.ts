@@ -3,7 +3,7 @@ import { unitDetail } from '../../services/accumulators'
 
 /** One accumulator with where it has been (installations) and its worksheets. */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'register.read')
+  const { scope } = await requireScope(event, 'register.read')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  return unitDetail(id)
+  return unitDetail(id, scope)
 })

@@ -3,7 +3,7 @@ import { exportRegister } from '../../services/exports'
 
 /** Accumulators as CSV, in the import format. */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'register.read')
+  const { scope } = await requireScope(event, 'register.read')
   await getValidatedQuery(event, validateWith(noQuerySchema))
-  return exportRegister(event, 'accumulators')
+  return exportRegister(event, 'accumulators', scope)
 })

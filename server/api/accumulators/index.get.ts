@@ -3,7 +3,7 @@ import { listUnits } from '../../services/accumulators'
 
 /** Accumulators with their aircraft and current specification: search, filter, sort, pages. */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'register.read')
+  const { scope } = await requireScope(event, 'register.read')
   const query = await getValidatedQuery(event, validateWith(accumulatorQuerySchema))
-  return listUnits(query)
+  return listUnits(query, scope)
 })

@@ -3,7 +3,7 @@ import { aircraftById } from '../../services/aircraft'
 
 /** An aircraft with the accumulators installed on it. */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'register.read')
+  const { scope } = await requireScope(event, 'register.read')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  return aircraftById(id)
+  return aircraftById(id, scope)
 })

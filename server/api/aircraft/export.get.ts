@@ -3,7 +3,7 @@ import { exportRegister } from '../../services/exports'
 
 /** The fleet as CSV, in the import format. */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'register.read')
+  const { scope } = await requireScope(event, 'register.read')
   await getValidatedQuery(event, validateWith(noQuerySchema))
-  return exportRegister(event, 'aircraft')
+  return exportRegister(event, 'aircraft', scope)
 })

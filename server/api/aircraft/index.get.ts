@@ -3,7 +3,7 @@ import { listAircraft } from '../../services/aircraft'
 
 /** The fleet: search, filter by type, base and active, sort, pages. */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'register.read')
+  const { scope } = await requireScope(event, 'register.read')
   const query = await getValidatedQuery(event, validateWith(aircraftQuerySchema))
-  return listAircraft(query)
+  return listAircraft(query, scope)
 })

@@ -3,7 +3,7 @@ import { listCycleChecks } from '../../services/cycle-checks'
 
 /** Cycle checks, newest first, withdrawn ones included (marked). */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'cycle-check.read')
+  const { scope } = await requireScope(event, 'cycle-check.read')
   const query = await getValidatedQuery(event, validateWith(cycleCheckQuerySchema))
-  return listCycleChecks(query)
+  return listCycleChecks(query, scope)
 })

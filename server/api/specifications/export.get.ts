@@ -3,7 +3,7 @@ import { exportRegister } from '../../services/exports'
 
 /** Specifications as CSV in the import format; table points as "-40 C 1170; 0 C 1390". */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'register.read')
+  const { scope } = await requireScope(event, 'register.read')
   await getValidatedQuery(event, validateWith(noQuerySchema))
-  return exportRegister(event, 'specifications')
+  return exportRegister(event, 'specifications', scope)
 })

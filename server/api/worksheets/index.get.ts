@@ -3,7 +3,7 @@ import { listWorksheets } from '../../services/worksheet-list'
 
 /** Worksheets with filters, prefix search, sort and cursor pages. */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'worksheet.read')
+  const { scope } = await requireScope(event, 'worksheet.read')
   const query = await getValidatedQuery(event, validateWith(worksheetListQuerySchema))
-  return listWorksheets(query)
+  return listWorksheets(query, scope)
 })

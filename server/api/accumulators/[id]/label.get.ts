@@ -6,9 +6,9 @@ import { unitLabelCode } from '../../../services/accumulators'
  * address (or the one this request came to); never one only the server's machine can reach, in production.
  */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'register.read')
+  const { scope } = await requireScope(event, 'register.read')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  const svg = await unitLabelCode(id, labelAddress(event))
+  const svg = await unitLabelCode(id, labelAddress(event), scope)
   setResponseHeader(event, 'content-type', 'image/svg+xml; charset=utf-8')
   setResponseHeader(event, 'cache-control', 'private, max-age=3600')
   return svg

@@ -6,7 +6,7 @@ import { cycleTrendPage } from '../../../services/trends'
  * systems (largest drop first, each with a bounded chart series) and the flagged ones. Reads only.
  */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'trend.read')
+  const { scope } = await requireScope(event, 'trend.read')
   const query = await getValidatedQuery(event, validateWith(cycleTrendQuerySchema))
-  return cycleTrendPage(query)
+  return cycleTrendPage(query, scope)
 })

@@ -3,7 +3,7 @@ import { systemCycleSeries } from '../../../services/trends'
 
 /** One hydraulic system's whole series of pump-cycle checks, for its chart in full. Reads only. */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'trend.read')
+  const { scope } = await requireScope(event, 'trend.read')
   const { aircraftId, system } = await getValidatedQuery(event, validateWith(cycleSeriesQuerySchema))
-  return { items: await systemCycleSeries(aircraftId, system) }
+  return { items: await systemCycleSeries(aircraftId, system, scope) }
 })

@@ -7,7 +7,7 @@ const paramsSchema = z.object({
 
 /** One unit's readings carried to the reference temperature, the band, the fit and the flag. */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'trend.read')
+  const { scope } = await requireScope(event, 'trend.read')
   const { accumulatorId } = await getValidatedRouterParams(event, validateWith(paramsSchema))
-  return unitTrend(accumulatorId)
+  return unitTrend(accumulatorId, scope)
 })

@@ -3,7 +3,7 @@ import { fleetPrechargeTrends } from '../../../services/trends'
 
 /** Installed units ranked by pre-charge loss rate (a day, positive = losing gas), a page at a time, stored trends. */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'trend.read')
+  const { scope } = await requireScope(event, 'trend.read')
   const query = await getValidatedQuery(event, validateWith(trendQuerySchema))
-  return fleetPrechargeTrends(query)
+  return fleetPrechargeTrends(query, scope)
 })

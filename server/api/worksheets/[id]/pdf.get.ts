@@ -3,7 +3,7 @@ import { worksheetRecordPdf } from '../../../services/record-export'
 
 /** A released (or voided) record as a PDF that verifies on its own (content, assertions and keys embedded). */
 export default defineEventHandler(async (event) => {
-  await requireAbility(event, 'worksheet.read')
+  const { scope } = await requireScope(event, 'worksheet.read')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  return sendPdf(event, `worksheet-${id}`, await worksheetRecordPdf(event, id))
+  return sendPdf(event, `worksheet-${id}`, await worksheetRecordPdf(event, id, scope))
 })
