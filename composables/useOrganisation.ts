@@ -30,9 +30,9 @@ export function grantScope(user: Pick<PublicUser, 'id'>, body: UserScopeBody) {
   return $fetch<PublicUser>(`/api/admin/users/${user.id}/scope`, { method: 'PUT', body })
 }
 
-/** What the signed-in user may see. */
-export function useMyScope() {
-  return useFetch<ScopeDto>('/api/me/scope', { key: 'my-scope' })
+/** What the signed-in user may see (`immediate: false` to ask only when needed). */
+export function useMyScope(options: { immediate?: boolean } = {}) {
+  return useFetch<ScopeDto>('/api/me/scope', { key: 'my-scope', immediate: options.immediate ?? true })
 }
 
 /** "Skelby · Corran Isles Airways" — a scope in words. */

@@ -5,6 +5,7 @@
  * everything else answers as if it were not there (404, or 422 naming the field). Users granted everything
  * and administrators see the whole organisation.
  */
+import { randomUUID } from 'node:crypto'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { api, DEMO, SCOPED_DEMO, signIn, upload } from '../support/api'
 import { baseURL } from '../support/file-server'
@@ -138,6 +139,13 @@ describe.each(Object.keys(MATRIX) as Who[])('what %s sees', (who) => {
     for (const registration of named(work)) expect(sees).toContain(registration)
   })
 
+  it('the audit trail and its export are the administrators\', who see the whole organisation', async () => {
+    const exported = await fetch(`${baseURL()}/api/audit/export`, { headers: { cookie: cookies[who] } })
+    expect(exported.status).toBe(who === 'admin' ? 200 : 403)
+    expect((await get('/api/audit/events')).status).toBe(who === 'admin' ? 200 : 403)
+    await exported.body?.cancel()
+  })
+
   it('says what it may see, and keeps the calculation defaults to its own stations', async () => {
     const scope = (await get('/api/me/scope')).body
     expect((scope.stations as { name: string }[]).map(station => station.name)).toEqual(stations)
@@ -180,6 +188,21 @@ describe.each(Object.keys(MATRIX) as Who[])('what %s sees', (who) => {
         const photo = await upload('/api/attachments', { worksheetId: String(draftOn[registration]), kind: 'gauge-photo' }, { name: 'x.png', bytes: png }, cookies[who])
         expect(photo.status).toBe(404)
       }
+      // A worksheet filled offline for a unit out of scope is not started when the device sends it.
+      const sent = await api('/api/worksheets/sync', {
+        cookie: cookies[who],
+        body: {
+          clientId: randomUUID(),
+          accumulatorId: unitOn[registration],
+          specificationId: 1,
+          workOrder: 'WO-SCOPE-SYNC',
+          reason: 'scheduled',
+          startedAt: new Date(Date.now() - 600_000).toISOString(),
+          steps: [],
+        },
+      })
+      expect(sent.status, `sync on ${registration}`).toBe(422)
+      expect(sent.body.data.field).toBe('accumulatorId')
     }
   })
 
@@ -221,6 +244,25 @@ describe('granting stations and operators', () => {
     const harlow = stations.find(station => station.name === 'Harlow Moor')!
     await api(`/api/admin/users/${engineer.id}/scope`, { method: 'PUT', cookie: cookies.admin, body: { stationIds: [harlow.id], operatorIds: null } })
     expect(((await api('/api/aircraft', { cookie: cookies.harlowEngineer })).body.items as unknown[]).length).toBe(3)
+  })
+
+  it('reads racing a change of grants see the old set or the new one, never a mix, never a 5xx', async () => {
+    const users = (await api('/api/admin/users', { cookie: cookies.admin })).body as { id: number, email: string }[]
+    const technician = users.find(user => user.email === SCOPED_DEMO.skelbyTechnician)!
+    const stations = (await api('/api/admin/stations', { cookie: cookies.admin })).body as { id: number, name: string }[]
+    const [harlow, skelby] = ['Harlow Moor', 'Skelby'].map(name => stations.find(station => station.name === name)!.id)
+    const grants = [[harlow], [skelby]]
+    const answers = await Promise.all(Array.from({ length: 24 }, (_, index) => index % 4 === 0
+      ? api(`/api/admin/users/${technician.id}/scope`, { method: 'PUT', cookie: cookies.admin, body: { stationIds: grants[(index / 4) % 2], operatorIds: null } })
+      : api('/api/aircraft?pageSize=100', { cookie: cookies.skelbyTechnician })))
+    const seen = new Set<string>()
+    for (const answer of answers) {
+      expect(answer.status).toBeLessThan(500)
+      if (Array.isArray(answer.body.items)) seen.add((answer.body.items as { registration: string }[]).map(row => row.registration).sort().join(','))
+    }
+    for (const set of seen) expect(['QX-FMA,QX-FMB,QX-FMJ', 'QX-FMC,QX-FMK,QX-FML']).toContain(set)
+    await api(`/api/admin/users/${technician.id}/scope`, { method: 'PUT', cookie: cookies.admin, body: { stationIds: [skelby], operatorIds: null } })
+    expect(((await api('/api/aircraft', { cookie: cookies.skelbyTechnician })).body.items as unknown[]).length).toBe(3)
   })
 
   it('stations and operators are a register: an aircraft must name one of each; names and codes are unique', async () => {
