@@ -168,6 +168,17 @@ describe.each(Object.keys(MATRIX) as Who[])('what %s sees', (who) => {
         body: { accumulatorId: unitOn[registration], workOrder: 'WO-SCOPE-1', reason: 'scheduled' },
       })
       expect(start.status, `start on ${registration}`).toBe(422)
+      for (const action of ['sign', 'discard']) {
+        const body = action === 'sign' ? { certify: true, password: 'chargewell-demo' } : { reason: 'Not mine' }
+        const answer = await api(`/api/worksheets/${releasedOn[registration]}/${action}`, { cookie: cookies[who], body })
+        expect(answer.status, `${action} on ${registration}`).toBe(404)
+      }
+      const checks = (await api(`/api/cycle-checks?aircraftId=${aircraftId[registration]}`, { cookie: cookies.admin })).body.items
+      if (checks.length) {
+        const id = checks[0].id as number
+        const withdrawn = await api(`/api/cycle-checks/${id}/withdraw`, { cookie: cookies[who], body: { reason: 'Out of my scope' } })
+        expect(withdrawn.status, `withdraw a check on ${registration}`).toBe(404)
+      }
       expect(start.body.data.field).toBe('accumulatorId')
       const check = await api('/api/cycle-checks', {
         cookie: cookies[who],
@@ -210,6 +221,8 @@ describe.each(Object.keys(MATRIX) as Who[])('what %s sees', (who) => {
     for (const registration of hidden) {
       const answer = await api(`/api/worksheets/${releasedOn[registration]}/countersign`, { cookie: cookies[who], body: { certify: true, password: 'chargewell-demo' } })
       expect(answer.status, `countersign on ${registration}`).toBe(404)
+      const returned = await api(`/api/worksheets/${releasedOn[registration]}/return`, { cookie: cookies[who], body: { reason: 'Not in my scope at all' } })
+      expect(returned.status, `return on ${registration}`).toBe(404)
       const options = await get(`/api/worksheets/${releasedOn[registration]}/signing-options?capacity=inspector`)
       expect(options.status).toBe(404)
     }
