@@ -177,6 +177,7 @@ async function firstMatchByHops(
   ascending: boolean,
 ): Promise<DateKey | null | undefined> {
   const sequelize = Worksheet.sequelize!
+  if (await manyValues(column, prefix)) return undefined
   const direction = ascending ? 'ASC' : 'DESC'
   const low = sequelize.escape(prefix)
   const high = sequelize.escape(`${prefix}${LAST_CHARACTER}`)
@@ -203,22 +204,49 @@ async function firstMatchByHops(
   return [storedDateIso(row.key.slice(0, split))!, Number(row.key.slice(split + 1))]
 }
 
+/**
+ * SQLite: whether the prefix's range surely holds more than HOP_VALUES distinct values, read from its first
+ * HOP_VALUES + 1 index entries in order (one short sequential read): when those are all different values,
+ * stepping value by value would give up after HOP_VALUES + 1 seeks (5 ms wasted at a million rows, a work
+ * order prefix of 100,000 values), so the caller goes straight to the range.
+ */
+async function manyValues(column: string, prefix: string): Promise<boolean> {
+  const [row] = await Worksheet.sequelize!.query<{ values: number }>(
+    `SELECT count(DISTINCT v) AS "values" FROM (SELECT lower(\`${column}\`) AS v FROM worksheets `
+    + `INDEXED BY worksheets_${column}_search WHERE ${sqlitePrefixRange(column, prefix)} `
+    + `ORDER BY lower(\`${column}\`) LIMIT ${HOP_VALUES + 1})`,
+    { type: QueryTypes.SELECT },
+  )
+  return Number(row?.values ?? 0) > HOP_VALUES
+}
+
 /** The newest (or oldest) match of one searched column, read from its range of the search index. */
 async function firstMatchInRange(column: string, prefix: string, ascending: boolean): Promise<DateKey | null> {
   const sequelize = Worksheet.sequelize!
   const postgres = sequelize.getDialect() === 'postgres'
   const direction = ascending ? 'ASC' : 'DESC'
-  const range = postgres
-    ? `lower(${column}) LIKE ${sequelize.escape(`${escapeLike(prefix)}%`)}`
-    : sqlitePrefixRange(column, prefix)
-  // The search index, not the date index: SQLite is told so; PostgreSQL is given an order no index
-  // holds (it walked the date index backwards through 90,000 rows, 715 ms, for matches at the far end).
-  const order = postgres
-    ? `created_at + interval '0 seconds' ${direction}, id + 0 ${direction}`
-    : `created_at ${direction}, id ${direction}`
+  if (!postgres) {
+    // SQLite: the range's newest (oldest) date by min/max over the search index (one pass, no sorter: 9.3
+    // against 12.2 ms for 100,000 matches), then the id at that date by the list's date index.
+    const [edge] = await sequelize.query<{ at: string | null }>(
+      `SELECT ${ascending ? 'min' : 'max'}(created_at) AS at FROM worksheets INDEXED BY worksheets_${column}_search `
+      + `WHERE ${sqlitePrefixRange(column, prefix)}`,
+      { type: QueryTypes.SELECT },
+    )
+    if (!edge?.at) return null
+    const [row] = await sequelize.query<{ id: number }>(
+      `SELECT id FROM worksheets WHERE created_at = ${sequelize.escape(edge.at)} `
+      + `AND +${sqlitePrefixRange(column, prefix).replace(' AND lower(', ' AND +lower(')} ORDER BY id ${direction} LIMIT 1`,
+      { type: QueryTypes.SELECT },
+    )
+    return row ? [storedDateIso(edge.at)!, row.id] : null
+  }
+  const range = `lower(${column}) LIKE ${sequelize.escape(`${escapeLike(prefix)}%`)}`
+  // The search index, not the date index: PostgreSQL is given an order no index holds (it walked the date
+  // index backwards through 90,000 rows, 715 ms, for matches at the far end).
+  const order = `created_at + interval '0 seconds' ${direction}, id + 0 ${direction}`
   const [row] = await sequelize.query<{ created_at: Date | string, id: number }>(
-    `SELECT created_at, id FROM worksheets${postgres ? '' : ` INDEXED BY worksheets_${column}_search`} WHERE ${range} `
-    + `ORDER BY ${order} LIMIT 1`,
+    `SELECT created_at, id FROM worksheets WHERE ${range} ORDER BY ${order} LIMIT 1`,
     { type: QueryTypes.SELECT },
   )
   return row ? [storedDateIso(row.created_at)!, row.id] : null
