@@ -33,9 +33,28 @@ export function useRegisterList<Row>(
 /** A register page's list as `RegisterTable` shows it. */
 export type RegisterList<Row> = ReturnType<typeof useRegisterList<Row>>
 
-/** A register's CSV import: every line is checked before any is kept (the refusal lists the lines and fields). */
-export function importRegisterCsv(endpoint: string, file: File) {
+/** What an import did, or (a preview) would do: each row added, updated (cell by cell) or unchanged; the problems. */
+export interface ImportReport {
+  imported: number
+  added: number
+  updated: number
+  unchanged: number
+  preview: boolean
+  changes: {
+    line: number
+    key: string
+    action: 'added' | 'updated' | 'unchanged'
+    changes?: Record<string, { from: unknown, to: unknown }>
+  }[]
+  rejected: { line: number, field: string, message: string }[]
+}
+
+/**
+ * A register's CSV import: every line is checked before any is kept (the refusal lists the lines and fields).
+ * `preview`: nothing is written; the answer says what the import would change.
+ */
+export function importRegisterCsv(endpoint: string, file: File, preview = false) {
   const form = new FormData()
   form.append('file', file)
-  return $fetch<{ imported: number }>(endpoint, { method: 'POST', body: form })
+  return $fetch<ImportReport>(endpoint, { method: 'POST', body: form, query: preview ? { preview: 'true' } : undefined })
 }

@@ -1,6 +1,6 @@
 import QRCode from 'qrcode'
 import type { H3Event } from 'h3'
-import { Op, type Transaction } from 'sequelize'
+import { Op, type Model, type ModelStatic, type Transaction } from 'sequelize'
 import type { z } from 'zod'
 import type { accumulatorQuerySchema, accumulatorUpdateSchema } from '#shared/schemas/accumulators'
 import { accumulatorSchema } from '#shared/schemas/accumulators'
@@ -237,13 +237,26 @@ export async function importUnits(event: H3Event, actor: User) {
       return { ...fields, aircraftId: aircraftId ?? null }
     })
     .pipe(accumulatorSchema)
+  // By part and serial number: a new unit is added (and installed); a known one takes an edited system. A move
+  // between aircraft is made on the unit's page, which keeps its installation history, never by a cell.
+  const moved = 'is where the unit is installed: move it on its page, which keeps its history.'
   return importCsv(event, rowSchema, async (row, transaction) => {
-    const created = await Accumulator.create(row, { transaction })
-    if (row.aircraftId) await install(created.id, row.aircraftId, row.position!, row.installedAt!, transaction)
-    await appendAudit(
-      { actorId: actor.id, entity: 'accumulator', entityId: String(created.id), action: 'imported', detail: row },
+    const change = await upsertRow({
+      model: Accumulator as ModelStatic<Model>,
+      where: { partNumber: row.partNumber, serialNumber: row.serialNumber },
+      fields: row,
+      key: `${row.partNumber} ${row.serialNumber}`,
+      entity: 'accumulator',
+      actor,
       transaction,
-    )
+      fixed: { aircraftId: moved, position: moved, installedAt: moved },
+    })
+    if (change.action === 'added' && row.aircraftId) {
+      const where = { partNumber: row.partNumber, serialNumber: row.serialNumber }
+      const created = (await Accumulator.findOne({ where, transaction }))!
+      await install(created.id, row.aircraftId, row.position!, row.installedAt!, transaction)
+    }
+    return change
   })
 }
 

@@ -1,9 +1,9 @@
 import type { H3Event } from 'h3'
+import type { Model, ModelStatic } from 'sequelize'
 import type { z } from 'zod'
 import type { aircraftQuerySchema, aircraftSchema, aircraftUpdateSchema } from '#shared/schemas/aircraft'
 import { aircraftCsvRow } from '#shared/schemas/csv'
 import type { FleetOptions } from '#shared/types/fleet'
-import { appendAudit } from '../database/audit-chain'
 import { Accumulator, Aircraft, Operator, type User } from '../models'
 import { createAudited, findOr404, updateAudited } from './audited-writes'
 import { requireOperator, requireStation } from './organisation'
@@ -79,9 +79,21 @@ export async function updateAircraft(actor: User, id: number, body: z.infer<type
 
 /** Aircraft from CSV (the export's columns): every row valid, or nothing imported. */
 export function importAircraft(event: H3Event, actor: User) {
+  // By registration: a new aircraft is added, a known one takes the edited cells (its base, operator, type).
   return importCsv(event, aircraftCsvRow, async (row, transaction) => {
-    const columns = await aircraftColumns(row, true) as typeof row & { operatorId: number }
-    const created = await Aircraft.create(columns, { transaction })
-    await appendAudit({ actorId: actor.id, entity: 'aircraft', entityId: String(created.id), action: 'imported', detail: row }, transaction)
+    const fields: Record<string, unknown> = await aircraftColumns(row, true)
+    // An aircraft written before operators (no operator: the own fleet) named as the own fleet is no change.
+    const known = await Aircraft.findOne({ where: { registration: row.registration }, transaction })
+    const own = (await requireOperator(undefined)).id
+    if (known && known.operatorId === null && fields.operatorId === own) delete fields.operatorId
+    return upsertRow({
+      model: Aircraft as ModelStatic<Model>,
+      where: { registration: row.registration },
+      fields,
+      key: row.registration,
+      entity: 'aircraft',
+      actor,
+      transaction,
+    })
   })
 }

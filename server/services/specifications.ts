@@ -151,30 +151,49 @@ export async function changeSpecification(actor: User, id: number, changes: z.in
 }
 
 /**
- * From CSV: a new part number is added; a new revision supersedes its current one. Every row valid, or nothing
- * imported.
+ * From CSV: a new part number is added; a new revision supersedes its current one; a revision already in the
+ * register imports back unchanged when its row is the export's, and is refused when a cell differs (an issued
+ * revision never changes: its worksheets froze it). Every row valid, or nothing imported.
  */
+/** The cells of an imported row that differ from an issued revision (numbers by value, table points as written). */
+function differingCells(issued: SpecificationDto, row: Record<string, unknown>): string[] {
+  const cell = (value: unknown) =>
+    (value === null || value === undefined ? '' : typeof value === 'number' ? String(Number(value)) : String(value))
+  const points = (list: { temperature: number, temperatureUnit: string, pressure: number }[]) =>
+    list.map(point => `${Number(point.temperature)} ${point.temperatureUnit} ${Number(point.pressure)}`).join('; ')
+  return Object.keys(row).filter((field) => {
+    if (field === 'status') return false
+    if (field === 'tablePoints') return points(issued.tablePoints) !== points((row.tablePoints ?? []) as typeof issued.tablePoints)
+    return cell((issued as unknown as Record<string, unknown>)[field]) !== cell(row[field])
+  })
+}
+
 export async function importSpecifications(event: H3Event, actor: User) {
   const partNumbers = new Set<string>()
   const report = await importCsv(
     event,
     specificationCsvRow,
     async (row, transaction) => {
+      const key = `${row.partNumber} rev ${row.revision}`
+      const where = { partNumber: row.partNumber, revision: row.revision }
+      const same = await Specification.findOne({ where, transaction })
+      if (same) return { key, action: 'unchanged' as const }
       partNumbers.add(row.partNumber)
       const current = await currentSpecification(row.partNumber, transaction)
       await createRevision(row, current?.id ?? null, actor.id, transaction)
+      return { key, action: 'added' as const }
     },
     async (row, line) => {
-      const same = await Specification.findOne({ where: { partNumber: row.partNumber, revision: row.revision } })
-      return same
-        ? [
-            {
-              line,
-              field: 'revision',
-              message: `P/N ${row.partNumber} rev ${row.revision} is already in the register.`,
-            },
-          ]
-        : []
+      const where = { partNumber: row.partNumber, revision: row.revision }
+      const same = await Specification.findOne({ where, ...WITH_POINTS })
+      if (!same) return []
+      const differs = differingCells(toSpecificationDto(same), row)
+      return differs.map(field => ({
+        line,
+        field,
+        message: `P/N ${row.partNumber} rev ${row.revision} is issued and does not change: `
+          + 'import the edit as a new revision.',
+      }))
     },
   )
   for (const partNumber of partNumbers) await specificationChanged(partNumber)

@@ -1,11 +1,10 @@
 import type { H3Event } from 'h3'
-import { Op } from 'sequelize'
+import { Op, type Model, type ModelStatic } from 'sequelize'
 import type { z } from 'zod'
 import type { toolQuerySchema, toolUpdateSchema } from '#shared/schemas/tools'
 import { toolCsvRow } from '#shared/schemas/csv'
 import { toolSchema } from '#shared/schemas/tools'
 import type { ToolDto } from '#shared/types/registers'
-import { appendAudit } from '../database/audit-chain'
 import { Tool, type User } from '../models'
 import { createAudited, findOr404, updateAudited } from './audited-writes'
 
@@ -61,8 +60,14 @@ export async function updateTool(actor: User, id: number, body: z.infer<typeof t
 
 /** Gauges and carts from CSV: every row valid, or nothing imported. */
 export function importTools(event: H3Event, actor: User) {
-  return importCsv(event, toolCsvRow, async (row, transaction) => {
-    const created = await Tool.create(row, { transaction })
-    await appendAudit({ actorId: actor.id, entity: 'tool', entityId: String(created.id), action: 'imported', detail: row }, transaction)
-  })
+  // By asset number: a new tool is added, a known one takes the edited cells (a new calibration date).
+  return importCsv(event, toolCsvRow, (row, transaction) => upsertRow({
+    model: Tool as ModelStatic<Model>,
+    where: { assetNumber: row.assetNumber },
+    fields: row,
+    key: row.assetNumber,
+    entity: 'tool',
+    actor,
+    transaction,
+  }))
 }

@@ -82,6 +82,11 @@ export function describeAuditEvent(
     case 'system:seeded':
       return 'loaded the demo data'
     default:
+      if (event.action === 'updated' && detail.via === 'CSV import' && detail.changes && typeof detail.changes === 'object') {
+        const changes = Object.entries(detail.changes as Record<string, { from?: unknown, to?: unknown }>)
+          .map(([field, change]) => `${field} from "${String(change.from ?? '')}" to "${String(change.to ?? '')}"`)
+        return `changed ${changes.join(', ')} of ${what} by CSV import`
+      }
       if (event.action === 'integrity-baseline')
         return `vouched for the content of ${what} as it stood when the audit trail began to hash records`
       return `${event.action.replace(/-/g, ' ')} — ${what}`

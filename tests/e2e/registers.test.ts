@@ -33,6 +33,16 @@ describe('registers in a real browser', () => {
     await expect.poll(() => page.getByTestId('import-report').innerText()).toMatch(/Nothing was imported[\s\S]*3\s+registration\s+Letters, digits and hyphens only/)
     await page.getByLabel('Search').fill('QX-FNA')
     await expect.poll(() => page.locator('body').innerText()).toMatch(/No aircraft match/)
+
+    // Corrected, the file is previewed — a new aircraft, and QX-FMB's edited base — and applied on request.
+    writeFileSync(file, 'registration,fleetNumber,type,base,active\nQX-FNA,781,Tarnwing 72,Skelby,true\nQX-FMB,462,Tarnwing 46,Skelby,true\n')
+    await page.getByLabel('CSV file').setInputFiles(file)
+    const preview = page.getByTestId('import-preview')
+    await expect.poll(() => preview.innerText()).toMatch(/1 to add · 1 to change[\s\S]*QX-FMB:\s*base Harlow Moor → Skelby/)
+    await preview.getByRole('button', { name: 'Apply 2 change(s)' }).click()
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Imported:' }).innerText()).toMatch(/1 added, 1 changed/)
+    await page.getByLabel('Search').fill('QX-FNA')
+    await expect.poll(() => page.getByTestId('aircraft-table').innerText()).toMatch(/QX-FNA/)
     await page.context().close()
   })
 
