@@ -67,6 +67,8 @@ export default defineNuxtConfig({
     deviceClockSpanHours: 72,
     /** Behind a reverse proxy: take the client address from X-Forwarded-For. */
     trustProxy: false,
+    /** Requests one API token may make a minute (NUXT_API_TOKEN_RATE_PER_MINUTE). */
+    apiTokenRatePerMinute: 120,
     /** The operator and station printed on every record (NUXT_OPERATOR_NAME, NUXT_STATION_NAME). */
     operatorName: '',
     stationName: '',

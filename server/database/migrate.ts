@@ -13,6 +13,7 @@ import * as trendTableOrder from '../migrations/0010-trend-table-order'
 import * as passkeySignatures from '../migrations/0011-passkey-signatures'
 import * as authorisations from '../migrations/0012-authorisations'
 import * as stationsOperators from '../migrations/0013-stations-operators'
+import * as apiTokens from '../migrations/0014-api-tokens'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -29,6 +30,7 @@ const MIGRATIONS = [
   { name: '0011-passkey-signatures', ...passkeySignatures },
   { name: '0012-authorisations', ...authorisations },
   { name: '0013-stations-operators', ...stationsOperators },
+  { name: '0014-api-tokens', ...apiTokens },
 ]
 
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */

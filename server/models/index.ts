@@ -1,5 +1,6 @@
 import type { Sequelize } from 'sequelize'
 import { Accumulator } from './accumulator'
+import { ApiToken } from './api-token'
 import { AccumulatorInstallation } from './accumulator-installation'
 import { Aircraft } from './aircraft'
 import { Attachment } from './attachment'
@@ -28,6 +29,7 @@ import { listColumns, Worksheet } from './worksheet'
 
 export {
   Accumulator,
+  ApiToken,
   AccumulatorInstallation,
   Aircraft,
   Attachment,
@@ -70,6 +72,7 @@ export function initModels(sequelize: Sequelize): void {
     AccumulatorInstallation,
     Tool,
     Passkey,
+    ApiToken,
     Setting,
     Authorisation,
     Worksheet,
@@ -105,6 +108,7 @@ export function initModels(sequelize: Sequelize): void {
   Signature.belongsTo(User, { as: 'user', foreignKey: 'userId' })
   Signature.belongsTo(Passkey, { as: 'passkey', foreignKey: 'passkeyId' })
   User.hasMany(Passkey, { as: 'passkeys', foreignKey: 'userId' })
+  ApiToken.belongsTo(User, { as: 'user', foreignKey: 'userId' })
   Authorisation.belongsTo(User, { as: 'holder', foreignKey: 'holderId' })
   SizingStudy.belongsTo(Specification, { as: 'specification', foreignKey: 'specificationId' })
   CycleCheck.belongsTo(Aircraft, { as: 'aircraft', foreignKey: 'aircraftId' })

@@ -39,11 +39,15 @@ export function sessionUser(user: User) {
 }
 
 /**
- * The gate by ability (shared/abilities.ts): 401 without a live session, 403 when the user's
- * roles do not hold the ability, with the roles that do in the message.
+ * The gate by ability (shared/abilities.ts): 401 without a live session (or a live API token), 403 when
+ * the user's roles do not hold the ability, with the roles that do in the message — or when the token's
+ * scopes do not.
  */
 export async function requireAbility(event: H3Event, ability: Ability = 'account.own'): Promise<User> {
-  const user = await requireRole(event)
+  // Another system, with an API token (server/services/api-tokens.ts): the token's scopes, then the user's roles.
+  const { bearerOf, userOfToken } = await import('../services/api-tokens')
+  const token = bearerOf(event)
+  const user = token ? await userOfToken(event, token, ability) : await requireRole(event)
   if (!can(user.roles, ability)) throw createError({ status: 403, statusMessage: 'Forbidden', message: refusal(ability) })
   return user
 }
