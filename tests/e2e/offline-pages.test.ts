@@ -49,7 +49,8 @@ async function readyThenOffline(email: string): Promise<Page> {
   await page.context().addInitScript(lyingConnectionFlag)
   await page.reload()
   // The device's own signal: the app kept, and the station's data for whoever services units.
-  await expect.poll(() => page.getByTestId('connection').getAttribute('data-ready'), { timeout: 30_000 }).toBe('true')
+  // The service worker precaches the app first: with both cores busy (CI) that took over 30 s once.
+  await expect.poll(() => page.getByTestId('connection').getAttribute('data-ready'), { timeout: 120_000 }).toBe('true')
   await page.context().setOffline(true)
   return page
 }
