@@ -38,7 +38,8 @@ async function readyForTheRamp(email = 'technician@chargewell.test'): Promise<Pa
   await page.context().addInitScript(lyingConnectionFlag)
   // The device's own signal that it holds what offline work needs (the app and the station's data), in the header.
   await page.reload()
-  await expect.poll(() => page.getByTestId('connection').getAttribute('data-ready'), { timeout: 30_000 }).toBe('true')
+  // The service worker precaches the app first: with both cores busy (CI) that can take over 30 s.
+  await expect.poll(() => page.getByTestId('connection').getAttribute('data-ready'), { timeout: 120_000 }).toBe('true')
   return page
 }
 
