@@ -8,20 +8,6 @@ import { toOperatorDto, toStationDto } from './scope'
 
 /** The organisation's stations and operators, and which of them each user may see (administrators only; audited). */
 
-function conflict(message: string): never {
-  throw createError({ status: 409, statusMessage: 'Conflict', message })
-}
-
-async function uniqueOr409<T>(write: () => Promise<T>, message: string): Promise<T> {
-  try {
-    return await write()
-  }
-  catch (error) {
-    if ((error as { name?: string }).name === 'SequelizeUniqueConstraintError') conflict(message)
-    throw error
-  }
-}
-
 export async function listStations(): Promise<(StationDto & { aircraft: number })[]> {
   const [stations, counts] = await Promise.all([
     Station.findAll({ order: [['name', 'ASC']] }),

@@ -1,6 +1,6 @@
 import { Op, literal, type WhereOptions } from 'sequelize'
 import type { OperatorDto, ScopeDto, StationDto } from '#shared/types/organisation'
-import { Aircraft, Operator, Station, type User } from '../models'
+import { Accumulator, AccumulatorInstallation, Aircraft, Operator, Station, type User } from '../models'
 import { notFound } from './audited-writes'
 
 /**
@@ -90,7 +90,6 @@ export function unitsWithinScope(scope: Scope, where: WhereOptions = {}, table =
 export async function alertsWithinScope<T extends { subject: string }>(scope: Scope, alerts: T[]): Promise<T[]> {
   if (scope.aircraftIds === null) return alerts
   const unitIds = alerts.flatMap(alert => (alert.subject.startsWith('precharge:') ? [Number(alert.subject.split(':')[1])] : []))
-  const { Accumulator } = await import('../models')
   const units = unitIds.length
     ? await Accumulator.findAll({ where: unitsWithinScope(scope, { id: unitIds }), attributes: ['id'], raw: true })
     : []
@@ -105,7 +104,6 @@ export async function alertsWithinScope<T extends { subject: string }>(scope: Sc
 export async function seesUnit(scope: Scope, unit: { id: number, aircraftId: number | null }): Promise<boolean> {
   if (scope.aircraftIds === null) return true
   if (unit.aircraftId != null) return scope.aircraftIds.includes(unit.aircraftId)
-  const { AccumulatorInstallation } = await import('../models')
   const aircraftIds = (await AccumulatorInstallation.findAll({ where: { accumulatorId: unit.id }, attributes: ['aircraftId'], raw: true }))
     .map(row => row.aircraftId)
   return aircraftIds.length === 0 || aircraftIds.some(id => scope.aircraftIds!.includes(id))
