@@ -69,6 +69,10 @@ export default defineNuxtConfig({
     trustProxy: false,
     /** Requests one API token may make a minute (NUXT_API_TOKEN_RATE_PER_MINUTE). */
     apiTokenRatePerMinute: 120,
+    /** Webhooks: the first retry after this long, each next one after twice as long, capped at an hour (seconds). */
+    webhookRetrySeconds: 30,
+    /** How long a receiver may take to answer one delivery before the attempt counts as failed (seconds). */
+    webhookTimeoutSeconds: 10,
     /** The operator and station printed on every record (NUXT_OPERATOR_NAME, NUXT_STATION_NAME). */
     operatorName: '',
     stationName: '',

@@ -33,6 +33,8 @@ export const ABILITIES = {
   'user.manage': ['admin'],
   'audit.verify': ['admin'],
   'outbox.read': ['admin'],
+  /** Register webhook endpoints, see their deliveries, replay them. */
+  'integration.manage': ['admin'],
   'account.own': 'signed-in',
 } as const satisfies Record<string, 'signed-in' | readonly Role[]>
 

@@ -14,6 +14,7 @@ import * as passkeySignatures from '../migrations/0011-passkey-signatures'
 import * as authorisations from '../migrations/0012-authorisations'
 import * as stationsOperators from '../migrations/0013-stations-operators'
 import * as apiTokens from '../migrations/0014-api-tokens'
+import * as webhooks from '../migrations/0015-webhooks'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -31,6 +32,7 @@ const MIGRATIONS = [
   { name: '0012-authorisations', ...authorisations },
   { name: '0013-stations-operators', ...stationsOperators },
   { name: '0014-api-tokens', ...apiTokens },
+  { name: '0015-webhooks', ...webhooks },
 ]
 
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */

@@ -25,6 +25,7 @@ import { TrendAlert } from './trend-alert'
 import { UnitTrend } from './unit-trend'
 import { User } from './user'
 import { UserSession } from './user-session'
+import { WebhookAttempt, WebhookDelivery, WebhookEndpoint } from './webhook'
 import { listColumns, Worksheet } from './worksheet'
 
 export {
@@ -54,6 +55,9 @@ export {
   UnitTrend,
   User,
   UserSession,
+  WebhookAttempt,
+  WebhookDelivery,
+  WebhookEndpoint,
   Worksheet,
   listColumns,
 }
@@ -88,6 +92,9 @@ export function initModels(sequelize: Sequelize): void {
     PrechargeReading,
     UnitTrend,
     SystemCycleTrend,
+    WebhookEndpoint,
+    WebhookDelivery,
+    WebhookAttempt,
   ])
     model.initModel(sequelize)
 
@@ -117,4 +124,6 @@ export function initModels(sequelize: Sequelize): void {
   Accumulator.hasOne(UnitTrend, { as: 'trend', foreignKey: 'accumulatorId' })
   UnitTrend.belongsTo(Accumulator, { as: 'accumulator', foreignKey: 'accumulatorId' })
   PrechargeReading.belongsTo(Worksheet, { as: 'worksheet', foreignKey: 'worksheetId' })
+  WebhookDelivery.belongsTo(WebhookEndpoint, { as: 'endpoint', foreignKey: 'endpointId' })
+  WebhookDelivery.hasMany(WebhookAttempt, { as: 'history', foreignKey: 'deliveryId' })
 }

@@ -5,6 +5,7 @@ import type { HeldRecord } from '../database/record-guard'
 import type { AlertChange } from './unit-trends'
 import { Notification, User, type Worksheet } from '../models'
 import { alertsWithinScope, scopeOf, seesAircraft } from './scope'
+import { announceAlerts } from './webhooks'
 
 /**
  * Every e-mail Chargewell sends, worded once: the countersign request, the return to the
@@ -61,9 +62,11 @@ export async function tellReturned(worksheet: Worksheet, inspector: Pick<User, '
   })
 }
 
-/** One e-mail to every engineer per newly raised trend alert. */
+/** One e-mail to every engineer per newly raised trend alert (who may see its aircraft), and its webhook. */
 export async function mailAlerts(changes: AlertChange[]): Promise<void> {
   if (changes.length === 0) return
+  // The systems that follow the trends hear of it by webhook, in the same write.
+  await announceAlerts(changes)
   const engineers = (await activeUsers()).filter(user => can(user.roles, 'specification.manage'))
   const scopes = new Map(
     await Promise.all(engineers.map(async engineer => [engineer.id, await scopeOf(engineer)] as const)),

@@ -7,6 +7,7 @@ import { toolSchema } from '#shared/schemas/tools'
 import type { ToolDto } from '#shared/types/registers'
 import { Tool, type User } from '../models'
 import { createAudited, findOr404, updateAudited } from './audited-writes'
+import { announceCalibrationsDue } from './webhooks'
 
 /** Gauges and nitrogen carts, with their calibration state at the station today. */
 
@@ -45,7 +46,9 @@ export async function toolById(id: number): Promise<ToolDto> {
 
 export async function createTool(actor: User, body: z.infer<typeof toolSchema>): Promise<ToolDto> {
   const conflict = 'A tool with that asset number is already registered.'
-  return toToolDto(await createAudited(Tool, body, { actor, entity: 'tool', action: 'created', detail: body, conflict }))
+  const created = await createAudited(Tool, body, { actor, entity: 'tool', action: 'created', detail: body, conflict })
+  if (body.calibrationDue) await announceCalibrationsDue()
+  return toToolDto(created)
 }
 
 /** A new calibration, corrected figures, or the tool withdrawn (active: false). */
@@ -55,6 +58,8 @@ export async function updateTool(actor: User, id: number, body: z.infer<typeof t
   const { id: _id, createdAt: _created, updatedAt: _updated, ...current } = tool.get({ plain: true })
   parseInput(toolSchema, { ...current, ...body })
   await updateAudited(tool, body, { actor, entity: 'tool', action: 'updated', detail: body, conflict: 'That asset number is taken.' })
+  // A new calibration date that falls within 30 days is announced now, not at the next hourly check.
+  if (body.calibrationDue !== undefined) await announceCalibrationsDue()
   return toToolDto(tool)
 }
 

@@ -34,6 +34,7 @@ import { appendAudit } from '../database/audit-chain'
 import { challengeOf, keyFingerprint, type SignedRecordSource } from '#shared/utils/record-proof'
 import { Accumulator, Aircraft, Attachment, Passkey, Signature, Tool, User, Worksheet, listColumns } from '../models'
 import { askForCountersign, mailAlerts, tellReturned } from './notifications'
+import { announceRecord } from './webhooks'
 import { notFound, unprocessable } from './audited-writes'
 import { authorisationToSign, frozenAuthorisation } from './authorisations'
 import { signingRequestOptions, verifySigningAssertion } from './passkeys'
@@ -668,6 +669,9 @@ export async function countersignWorksheet(
     const superseded = await trendAfterCorrection(seen, transaction)
     // Each alert's mail is queued in this same write: an alert is never raised without its mail.
     await mailAlerts([...superseded, ...(await trendAfterRelease(seen, transaction))])
+    // So are the webhooks of the systems that follow records.
+    await announceRecord('released', seen)
+    if (seen.correctsId) await announceRecord('corrected', seen, { correctedId: seen.correctsId })
   })
   return worksheetById(id)
 }
@@ -691,6 +695,7 @@ export async function returnWorksheet(
       transaction,
     )
     await audit(actor, found, 'returned', { reason, round: found.round }, transaction)
+    await announceRecord('returned', found, { reason })
     return found
   })
   await tellReturned(worksheet, actor, reason)
@@ -717,6 +722,7 @@ export async function voidWorksheet(
       transaction,
     )
     await audit(actor, worksheet, 'voided', { reason, previousState }, transaction)
+    await announceRecord('voided', worksheet, { reason })
     await mailAlerts(await trendAfterVoid(worksheet, previousState, transaction))
   })
   return worksheetById(id)

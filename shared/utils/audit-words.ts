@@ -25,6 +25,8 @@ const RECORD: Record<string, string> = {
   'aircraft': 'aircraft',
   'accumulator': 'accumulator',
   'cycle-check': 'cycle check',
+  'webhook': 'webhook endpoint',
+  'api-token': 'API token',
 }
 
 /**
@@ -38,6 +40,12 @@ export function describeAuditEvent(
   const what = `${RECORD[event.entity] ?? event.entity} ${subject ?? event.entityId}`
   const detail = event.detail
   switch (`${event.entity}:${event.action}`) {
+    case 'webhook:registered':
+      return `registered ${what} (${String(detail.url)}) for ${Array.isArray(detail.events) ? detail.events.join(', ') : 'events'}`
+    case 'webhook:changed':
+      return `changed ${Object.keys((detail.to ?? {}) as object).join(', ') || 'the settings'} of ${what}`
+    case 'webhook:replayed':
+      return `replayed delivery ${String(detail.deliveryId)} (${String(detail.eventType)}) to ${what}`
     case 'user:roles-changed':
       return `changed the roles of ${subject ?? `user ${event.entityId}`} from ${roles(detail.from)} to ${roles(detail.to)}`
     case 'user:disabled':

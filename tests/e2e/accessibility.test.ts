@@ -24,7 +24,7 @@ function detailPages(roles: Role[]): string[] {
     '/trends/units/1', '/device']
   if (roles.includes('technician')) pages.push('/worksheets/new')
   if (roles.includes('engineer') || roles.includes('admin')) pages.push('/sizing/new')
-  if (roles.includes('admin')) pages.push('/admin/outbox')
+  if (roles.includes('admin')) pages.push('/admin/outbox', '/admin/webhooks')
   return pages
 }
 /** Register tables whose rows open a record: each row must be reachable by keyboard. */
