@@ -25,3 +25,9 @@ export const registerQuery = {
 }
 
 export const booleanQuery = z.enum(['true', 'false']).transform(value => value === 'true').optional()
+
+/** A user's passkey, by the user's id and the passkey's. */
+export const userPasskeyParamsSchema = z.object({
+  id: z.coerce.number().int().positive(),
+  passkeyId: z.coerce.number().int().positive(),
+})

@@ -24,3 +24,8 @@ export const cycleSeriesQuerySchema = z.object({
   aircraftId: z.coerce.number().int().positive().max(2_147_483_647, 'Not a known id.'),
   system: z.string().trim().min(1).max(80),
 }).strict()
+
+/** One unit's pre-charge trend, by the unit's id. */
+export const unitTrendParamsSchema = z.object({
+  accumulatorId: z.coerce.number({ invalid_type_error: 'The id must be a number.' }).int().positive().max(2_147_483_647, 'Not a known id.'),
+})

@@ -1,9 +1,10 @@
 import { readdirSync, statSync } from 'node:fs'
-import { join, relative, resolve } from 'node:path'
+import { join, resolve } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { rolesFor } from '../../shared/abilities'
 import { ROLES } from '../../shared/types/user'
 import { api, DEMO, signIn } from '../support/api'
+import { routeOfFile } from '../../scripts/openapi-routes'
 import { ROUTE_ACCESS } from './route-access'
 
 const apiFolder = resolve(import.meta.dirname, '../../server/api')
@@ -15,12 +16,10 @@ function routeFiles(folder: string): string[] {
   })
 }
 
-/** `calc/charge-target.post.ts` → `POST /api/calc/charge-target`; `users/[id].patch.ts` → `PATCH /api/users/[id]`. */
+/** `calc/charge-target.post.ts` → `POST /api/calc/charge-target` (as the OpenAPI route table reads it). */
 function routeKey(file: string): string {
-  const parts = relative(apiFolder, file).replace(/\.ts$/, '').split('/')
-  const [name, method = 'get'] = parts.pop()!.split('.')
-  if (name !== 'index') parts.push(name!)
-  return `${method.toUpperCase()} /api/${parts.join('/')}`.replace(/\/$/, '')
+  const { method, route } = routeOfFile(file)
+  return `${method} ${route}`
 }
 
 const roleAccount = {

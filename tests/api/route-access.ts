@@ -16,6 +16,7 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'GET /api/accumulators': 'register.read',
   'POST /api/accumulators': 'fleet.manage',
   'GET /api/admin/outbox': 'outbox.read',
+  'GET /api/openapi.json': 'public',
   'GET /api/admin/stations': 'fleet.manage',
   'POST /api/admin/stations': 'fleet.manage',
   'PATCH /api/admin/stations/[id]': 'fleet.manage',

@@ -21,7 +21,7 @@ const ACCOUNTS: [string, Role[]][] = [
 /** Pages beyond the navigation, per role that reaches them. */
 function detailPages(roles: Role[]): string[] {
   const pages = ['/', '/account', '/worksheets/1', '/fleet/units/1', '/fleet/units/1/label', '/specifications/1', '/tools/1',
-    '/trends/units/1', '/device']
+    '/trends/units/1', '/device', '/api-reference']
   if (roles.includes('technician')) pages.push('/worksheets/new')
   if (roles.includes('engineer') || roles.includes('admin')) pages.push('/sizing/new')
   if (roles.includes('admin')) pages.push('/admin/outbox', '/admin/webhooks')

@@ -65,3 +65,20 @@ describe('Admin → Webhooks', () => {
     await page.close()
   })
 })
+
+describe('the API reference', () => {
+  it('lists every route from the served description, finds one, and says who may call it', async () => {
+    const page = await signedInPage(browser, DEMO.technician)
+    await page.goto('/account')
+    await page.getByRole('link', { name: 'API reference' }).click()
+    const count = page.getByTestId('route-count')
+    await expect.poll(() => count.innerText()).toMatch(/^1[2-9]\d routes/)
+    await page.getByLabel('Find a route').fill('countersign')
+    await expect.poll(() => count.innerText()).toMatch(/^\d routes?/)
+    const operation = page.getByTestId('operation-post-/api/worksheets/{id}/countersign')
+    await operation.getByRole('button').first().click()
+    await expect.poll(() => operation.innerText()).toContain('Needs the inspector role')
+    await expect.poll(() => operation.innerText()).toContain('"certify": true')
+    await page.close()
+  })
+})

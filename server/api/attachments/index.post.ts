@@ -1,14 +1,5 @@
-import { z } from 'zod'
+import { attachmentFieldsSchema } from '#shared/schemas/attachment'
 import { attachFile } from '../../services/attachments'
-
-const fieldsSchema = z.object({
-  worksheetId: z.coerce.number({ invalid_type_error: 'Say which worksheet the file belongs to.' }).int().positive().max(2_147_483_647, 'Not a known id.'),
-  kind: z.enum(['gauge-photo', 'certificate', 'other'], { errorMap: () => ({ message: 'The kind is gauge-photo, certificate or other.' }) }),
-  /** The attachment this file replaces (a retaken photo). */
-  replacesId: z.coerce.number({ invalid_type_error: 'Not a known attachment.' }).int().positive().max(2_147_483_647, 'Not a known id.').optional(),
-  /** The file's name, as a field: the multipart header's filename is cut at ";" and lost at "=". */
-  fileName: z.string().trim().min(1, 'The file name is empty.').max(200, 'At most 200 characters.').optional(),
-})
 
 /**
  * Uploads a gauge photo or certificate for a worksheet being filled, or replaces one: images
@@ -20,7 +11,7 @@ export default defineEventHandler(async (event) => {
   const parts = await readMultipartFormData(event)
   if (!parts) throw createError({ status: 400, statusMessage: 'Bad Request', message: 'Send the file as multipart/form-data with the fields worksheetId, kind and file.' })
   const text = (name: string) => parts.find(part => part.name === name && !part.filename)?.data.toString('utf8')
-  const { fileName, ...fields } = parseInput(fieldsSchema, { worksheetId: text('worksheetId'), kind: text('kind'), replacesId: text('replacesId') || undefined, fileName: text('fileName') })
+  const { fileName, ...fields } = parseInput(attachmentFieldsSchema, { worksheetId: text('worksheetId'), kind: text('kind'), replacesId: text('replacesId') || undefined, fileName: text('fileName') })
   const file = parts.find(part => part.name === 'file' && (part.filename !== undefined || fileName))
   setResponseStatus(event, 201)
   return attachFile(user, { ...fields, file: file ? { name: fileName ?? file.filename ?? 'file', data: file.data } : undefined })

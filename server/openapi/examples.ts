@@ -1,0 +1,238 @@
+/**
+ * An example body for every route that takes JSON, in the invented demo scenario (Fellmoor Regional, its
+ * stations and fleet). Each parses with its route's shared schema (tests/unit/openapi.test.ts), and each
+ * calculation example is sent to a running server and answered 200 (tests/api/openapi.test.ts). The figures
+ * are the demo's, not approved data.
+ */
+const psig = (value: number) => ({ value, unit: 'psi', basis: 'gauge' })
+const celsius = (value: number) => ({ value, unit: 'C' })
+const cubicInches = (value: number) => ({ value, unit: 'in3' })
+const AMBIENT = { elevation: { value: 420, unit: 'ft' } }
+const CONDITIONS = {
+  prechargeTemperature: celsius(21),
+  maxPressure: psig(3000),
+  minPressure: psig(1500),
+  ambient: AMBIENT,
+}
+const SIZING = { precharge: psig(1000), ...CONDITIONS }
+const CYCLE = {
+  gasVolume: cubicInches(40),
+  precharge: psig(1000),
+  prechargeTemperature: celsius(21),
+  temperature: celsius(15),
+  cutOut: psig(3000),
+  cutIn: psig(2700),
+  ambient: AMBIENT,
+}
+const STUDY = {
+  name: 'Brake accumulator, cold-soaked night at Skelby',
+  accumulatorType: 'piston',
+  gasVolume: cubicInches(50),
+  precharge: psig(1000),
+  prechargeTemperature: celsius(21),
+  maxPressure: psig(3000),
+  minPressure: psig(1000),
+  perApplication: cubicInches(4),
+  envelope: [{ label: 'Cold-soaked', temperature: celsius(-30) }, { label: 'Hot ramp', temperature: celsius(45) }],
+}
+const SPECIFICATION = {
+  partNumber: 'FR-ACC-2210',
+  revision: 'C',
+  title: 'Brake accumulator, piston type, 50 in³',
+  accumulatorType: 'piston',
+  gasVolume: 50,
+  gasVolumeUnit: 'in3',
+  pressureUnit: 'psi',
+  pressureBasis: 'gauge',
+  referencePressure: 1000,
+  referenceTemperature: 21,
+  referenceTemperatureUnit: 'C',
+  toleranceMinus: 50,
+  tolerancePlus: 50,
+  toleranceUnit: 'psi',
+  correctionMethod: 'gas-law',
+  dataReference: 'FMR component data 32-41-10',
+  dataRevision: '14',
+  gasModel: 'real',
+  maxPressure: 3000,
+  minPressure: 1500,
+  settleMinutes: 30,
+  checkIntervalDays: 90,
+}
+const CYCLE_CHECK = {
+  aircraftId: 2,
+  system: 'System 2',
+  cutOut: psig(3000),
+  cutIn: psig(2700),
+  interval: { value: 740, unit: 's' },
+  fluidTemperature: celsius(18),
+  checkedAt: '2026-12-04',
+}
+const TOKEN = { name: 'Maintenance tracking', scopes: ['read-records', 'write-cycle-checks'], expiresInDays: 90 }
+const SIGNATURE = { password: 'the signer’s own password', certify: true }
+
+export const REQUEST_EXAMPLES: Record<string, unknown> = {
+  'POST /api/auth/login': { email: 'technician@chargewell.test', password: 'chargewell-demo' },
+  'POST /api/calc/charge-target': {
+    reference: { pressure: psig(1000), temperature: celsius(21) },
+    gasTemperature: celsius(5),
+    ambient: AMBIENT,
+    tolerance: { minus: 50, plus: 50, unit: 'psi' },
+  },
+  'POST /api/calc/table-target': {
+    points: [
+      { temperature: celsius(-20), pressure: psig(870) },
+      { temperature: celsius(20), pressure: psig(1000) },
+      { temperature: celsius(50), pressure: psig(1100) },
+    ],
+    gasTemperature: celsius(5),
+    tolerance: { minus: 50, plus: 50, unit: 'psi' },
+  },
+  'POST /api/calc/correction-curve': {
+    reference: { pressure: psig(1000), temperature: celsius(21) },
+    tolerance: { minus: 50, plus: 50, unit: 'psi' },
+    from: celsius(-40),
+    to: celsius(50),
+    points: 19,
+  },
+  'POST /api/calc/usable-volume': {
+    gasVolume: cubicInches(50),
+    ...SIZING,
+    operatingTemperature: celsius(-30),
+    perApplication: cubicInches(4),
+  },
+  'POST /api/calc/required-volume': { ...SIZING, applications: 6, perApplication: cubicInches(4) },
+  'POST /api/calc/optimum-precharge': {
+    ...CONDITIONS,
+    gasVolume: cubicInches(50),
+    prechargeUnit: { unit: 'psi', basis: 'gauge' },
+  },
+  'POST /api/calc/envelope': {
+    gasVolume: cubicInches(50),
+    ...SIZING,
+    perApplication: cubicInches(4),
+    temperatures: [{ label: 'Cold-soaked', temperature: celsius(-30) }, { label: 'Hot ramp', temperature: celsius(45) }],
+  },
+  'POST /api/calc/leak-rate': { ...CYCLE, interval: { value: 12, unit: 'min' } },
+  'POST /api/calc/leak-interval': { ...CYCLE, leakRate: { value: 0.3, unit: 'in3/min' } },
+  'POST /api/calc/assess-reading': {
+    reading: psig(1010),
+    target: psig(1000),
+    low: psig(950),
+    high: psig(1050),
+    gaugeAccuracy: { value: 10, unit: 'psi' },
+  },
+  'POST /api/calc/settle-forecast': {
+    readings: [
+      { minutesAfter: 1, pressure: psig(1080) },
+      { minutesAfter: 5, pressure: psig(1050) },
+      { minutesAfter: 10, pressure: psig(1035) },
+    ],
+    band: { low: psig(950), high: psig(1050) },
+  },
+  'POST /api/calc/study': STUDY,
+  'POST /api/studies': STUDY,
+  'PATCH /api/studies/{id}': { ...STUDY, name: 'Brake accumulator, cold-soaked night at Skelby (rev. B)' },
+  'POST /api/worksheets': { accumulatorId: 12, workOrder: 'WO-88412', reason: 'scheduled' },
+  'PATCH /api/worksheets/{id}': { step: 'asFound', reading: psig(940) },
+  'POST /api/worksheets/{id}/sign': SIGNATURE,
+  'POST /api/worksheets/{id}/countersign': SIGNATURE,
+  'POST /api/worksheets/{id}/return': { reason: 'Gas temperature taken in the sun; retake it in the shade.' },
+  'POST /api/worksheets/{id}/void': { reason: 'Raised twice for one work order.' },
+  'POST /api/worksheets/{id}/discard': { reason: 'Started on the wrong unit.' },
+  'POST /api/worksheets/sync': {
+    clientId: '4f0d9c1e-7a52-4b8e-9a0c-3c2b1d6e8f71',
+    accumulatorId: 12,
+    specificationId: 3,
+    workOrder: 'WO-88413',
+    reason: 'scheduled',
+    startedAt: '2026-12-04T06:10:00Z',
+    steps: [
+      { at: '2026-12-04T06:12:00Z', body: { step: 'preparation', systemDepressurised: true, aircraftSafe: true, eyeProtection: true, nitrogenOnly: true } },
+    ],
+  },
+  'POST /api/cycle-checks': CYCLE_CHECK,
+  'PATCH /api/cycle-checks/{id}': { ...CYCLE_CHECK, interval: { value: 12, unit: 'min' } },
+  'POST /api/cycle-checks/{id}/withdraw': { reason: 'Recorded against the wrong aircraft.' },
+  'POST /api/aircraft': { registration: 'QX-FMN', fleetNumber: '214', type: 'FR-90 regional turboprop', base: 'Harlow Moor', operator: 'Fellmoor Regional' },
+  'PATCH /api/aircraft/{id}': { base: 'Skelby' },
+  'POST /api/accumulators': {
+    partNumber: 'FR-ACC-2210',
+    serialNumber: 'SN-40188',
+    system: 'Brakes',
+    aircraftId: 2,
+    position: 'Normal brake, left wheel well',
+    installedAt: '2026-12-04',
+  },
+  'PATCH /api/accumulators/{id}': { serialNumber: 'SN-40188A' },
+  'POST /api/tools': {
+    kind: 'gauge',
+    assetNumber: 'GA-0177',
+    description: 'Nitrogen charging gauge 0–4000 psi',
+    rangeMax: 4000,
+    rangeUnit: 'psi',
+    resolution: 20,
+    accuracy: 0.5,
+    accuracyUnit: '%FS',
+    calibrationDue: '2027-06-30',
+  },
+  'PATCH /api/tools/{id}': { calibrationDue: '2027-12-31' },
+  'POST /api/specifications': SPECIFICATION,
+  'PATCH /api/specifications/{id}': { title: 'Brake accumulator, piston type, 50 in³ (with check interval)', checkIntervalDays: 120 },
+  'POST /api/admin/users': {
+    name: 'Iona Petrie',
+    email: 'iona.petrie@chargewell.test',
+    roles: ['technician'],
+    authorisationNumber: 'FMR-T-0533',
+    password: 'a long first password',
+  },
+  'PATCH /api/admin/users/{id}': { roles: ['technician', 'inspector'] },
+  'POST /api/admin/users/{id}/password': { password: 'a long new password' },
+  'PUT /api/admin/users/{id}/scope': { stationIds: [2], operatorIds: null },
+  'POST /api/admin/users/{id}/tokens': TOKEN,
+  'POST /api/me/tokens': TOKEN,
+  'POST /api/admin/stations': { name: 'Brackwater', code: 'BKW', timeZone: 'Europe/London', elevation: { value: 30, unit: 'm' } },
+  'PATCH /api/admin/stations/{id}': { timeZone: 'Europe/Dublin' },
+  'POST /api/admin/operators': { name: 'Tarn Valley Air', code: 'TVA' },
+  'PATCH /api/admin/operators/{id}': { name: 'Tarn Valley Airways' },
+  'POST /api/admin/authorisations': {
+    holderId: 1,
+    number: 'FMR-T-0412',
+    privileges: 'perform',
+    scopeKind: 'part-numbers',
+    scope: ['FR-ACC-2210', 'FR-ACC-3105'],
+    issuedOn: '2026-01-05',
+    expiresOn: '2027-01-04',
+    issuingBody: 'Fellmoor Regional quality department',
+  },
+  'PATCH /api/admin/authorisations/{id}': { expiresOn: '2028-01-04' },
+  'POST /api/admin/authorisations/{id}/suspend': { reason: 'Recurrent training overdue since November.' },
+  'PUT /api/admin/signing-policy': { performer: 'either', inspector: 'passkey' },
+  'POST /api/admin/webhooks': {
+    url: 'https://tracking.fellmoor.example/hooks/chargewell',
+    description: 'Maintenance tracking',
+    events: ['record.released', 'record.voided', 'trend.alert-raised'],
+  },
+  'PATCH /api/admin/webhooks/{id}': { active: false },
+  'POST /api/audit/accept': { entity: 'worksheet', entityId: 41, reason: 'Compared with the paper record of 3 December: the content matches.' },
+  'POST /api/audit/resolve-head': { reason: 'Restored from the backup of 3 December after a disk fault; chain checked.' },
+  'POST /api/me/password': { currentPassword: 'the old one', newPassword: 'a long new password' },
+  'PATCH /api/me/preferences': {
+    pressureUnit: 'bar',
+    temperatureUnit: 'C',
+    volumeUnit: 'L',
+    stationElevation: { value: 95, unit: 'ft' },
+    stationName: 'Skelby',
+  },
+  'POST /api/me/passkeys': {
+    name: 'Hangar tablet',
+    ticket: 'the ticket from POST /api/me/passkeys/options',
+    response: {
+      id: 'Q2hhcmdld2VsbC1leGFtcGxl',
+      rawId: 'Q2hhcmdld2VsbC1leGFtcGxl',
+      type: 'public-key',
+      response: { clientDataJSON: 'eyJ0eXBlIjoid2ViYXV0aG4uY3JlYXRlIn0', attestationObject: 'o2NmbXRkbm9uZQ' },
+      clientExtensionResults: {},
+    },
+  },
+}
