@@ -73,6 +73,27 @@ export default defineNuxtConfig({
     webhookRetrySeconds: 30,
     /** How long a receiver may take to answer one delivery before the attempt counts as failed (seconds). */
     webhookTimeoutSeconds: 10,
+    /**
+     * Single sign-on through the organisation's OpenID Connect provider: its issuer address, and this app's
+     * client id and secret there (the redirect address is <publicUrl>/api/auth/sso/callback). Empty: none.
+     */
+    oidcIssuer: '',
+    oidcClientId: '',
+    oidcClientSecret: '',
+    /** What the sign-in button says ("Sign in with <name>"). */
+    oidcName: 'your organisation',
+    oidcScopes: 'openid email profile',
+    /** The claim listing a user's groups, and how they map to roles: JSON {"group": "role"}; empty: group = role. */
+    oidcRolesClaim: 'groups',
+    oidcRoleMap: '',
+    /** The claim listing the stations (names or codes) a user may see; absent from the token: unchanged. */
+    oidcStationsClaim: 'chargewell_stations',
+    /** Create the account of someone the provider vouches for (with a mapped role) at their first sign-in. */
+    oidcProvision: false,
+    /** Plain-HTTP identity provider (tests and a provider on this machine only). */
+    oidcAllowHttp: false,
+    /** Whether passwords still sign in (administrators always may: the way in when the provider is down). */
+    passwordSignIn: true,
     /** The operator and station printed on every record (NUXT_OPERATOR_NAME, NUXT_STATION_NAME). */
     operatorName: '',
     stationName: '',

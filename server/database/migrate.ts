@@ -15,6 +15,7 @@ import * as authorisations from '../migrations/0012-authorisations'
 import * as stationsOperators from '../migrations/0013-stations-operators'
 import * as apiTokens from '../migrations/0014-api-tokens'
 import * as webhooks from '../migrations/0015-webhooks'
+import * as singleSignOn from '../migrations/0016-single-sign-on'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -33,6 +34,7 @@ const MIGRATIONS = [
   { name: '0013-stations-operators', ...stationsOperators },
   { name: '0014-api-tokens', ...apiTokens },
   { name: '0015-webhooks', ...webhooks },
+  { name: '0016-single-sign-on', ...singleSignOn },
 ]
 
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */

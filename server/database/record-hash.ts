@@ -83,7 +83,7 @@ export const RECORD_KINDS = {
   'user': {
     model: User as ModelStatic<Model>,
     exclude: ['updatedAt', 'preferences', 'sessionVersion'],
-    omitWhenNull: ['stationIds', 'operatorIds'],
+    omitWhenNull: ['stationIds', 'operatorIds', 'oidcSubject'],
     children: [],
   },
   'aircraft': { model: Aircraft as ModelStatic<Model>, exclude: ['updatedAt'], omitWhenNull: ['operatorId'], children: [] },

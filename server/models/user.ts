@@ -16,6 +16,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare operatorIds: CreationOptional<number[] | null>
   /** Bumped to end every session of this user at once (password, roles, disabling, sign out everywhere). */
   declare sessionVersion: CreationOptional<number>
+  /** The identity provider's subject (`sub`) for this user, linked at their first single sign-on. */
+  declare oidcSubject: CreationOptional<string | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 
@@ -32,6 +34,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
       stationIds: { type: DataTypes.JSON, allowNull: true },
       operatorIds: { type: DataTypes.JSON, allowNull: true },
       sessionVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+      oidcSubject: { type: DataTypes.STRING(255), allowNull: true, unique: true },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
     }, { sequelize, tableName: 'users', underscored: true })

@@ -5,7 +5,7 @@ import { aircraftQuerySchema, aircraftSchema, aircraftUpdateSchema } from '../..
 import { apiTokenCreateSchema } from '../../shared/schemas/api-token'
 import { attachmentFieldsSchema } from '../../shared/schemas/attachment'
 import { auditAcceptSchema, auditEventQuerySchema, auditResolveHeadSchema } from '../../shared/schemas/audit'
-import { loginSchema, passwordChangeSchema, passwordResetSchema, preferencesSchema, userCreateSchema, userUpdateSchema } from '../../shared/schemas/auth'
+import { loginSchema, passwordChangeSchema, passwordResetSchema, preferencesSchema, ssoCallbackQuerySchema, ssoStartQuerySchema, userCreateSchema, userUpdateSchema } from '../../shared/schemas/auth'
 import { authorisationCreateSchema, authorisationUpdateSchema, suspensionSchema } from '../../shared/schemas/authorisation'
 import { assessReadingSchema, chargeTargetSchema, correctionCurveSchema, envelopeSchema, leakIntervalSchema, leakRateSchema, optimumPrechargeSchema, requiredVolumeSchema, settleForecastSchema, tableTargetSchema, usableVolumeSchema } from '../../shared/schemas/calc'
 import { idParamsSchema, noQuerySchema, userPasskeyParamsSchema } from '../../shared/schemas/common'
@@ -738,6 +738,45 @@ export const API_ROUTES: ApiRoute[] = [
     status: 200,
     params: undefined,
     query: undefined,
+    body: undefined,
+    responseType: 'application/json',
+  },
+  {
+    method: 'get',
+    path: '/api/auth/methods',
+    file: 'server/api/auth/methods.get.ts',
+    summary: 'How one signs in here',
+    description: 'How one signs in here: with a password, through the organisation\'s identity provider, or both. Open to anyone.',
+    access: 'public',
+    status: 200,
+    params: undefined,
+    query: noQuerySchema,
+    body: undefined,
+    responseType: 'application/json',
+  },
+  {
+    method: 'get',
+    path: '/api/auth/sso/callback',
+    file: 'server/api/auth/sso/callback.get.ts',
+    summary: 'Where the identity provider sends the browser back',
+    description: 'Where the identity provider sends the browser back: the account is found (or refused, said on the sign-in page), its roles and stations taken from the claims, and the user lands where they were going. Open to anyone.',
+    access: 'public',
+    status: 200,
+    params: undefined,
+    query: ssoCallbackQuerySchema,
+    body: undefined,
+    responseType: 'application/json',
+  },
+  {
+    method: 'get',
+    path: '/api/auth/sso/start',
+    file: 'server/api/auth/sso/start.get.ts',
+    summary: 'Sends the browser to the organisation\'s identity provider to sign in (code flow with PKCE)',
+    description: 'Sends the browser to the organisation\'s identity provider to sign in (code flow with PKCE). Open to anyone.',
+    access: 'public',
+    status: 200,
+    params: undefined,
+    query: ssoStartQuerySchema,
     body: undefined,
     responseType: 'application/json',
   },

@@ -3,6 +3,7 @@ import { User, UserSession } from '../models'
 import {
   beginSession, endAllSessions, endSession, hasSessionCookie, liveSession, openSessions, SessionEnded,
 } from '../utils/session-store'
+import { passwordsSignIn, ssoSettings } from './single-sign-on'
 
 const WRONG_CREDENTIALS = 'That e-mail address and password do not match an active account.'
 
@@ -21,6 +22,10 @@ export async function signIn(event: H3Event, body: { email: string, password: st
   const passwordMatches = await checkPassword(user?.passwordHash, body.password)
   if (!user || !passwordMatches) throw createError({ status: 401, statusMessage: 'Unauthorized', message: WRONG_CREDENTIALS })
   if (user.disabled) throw createError({ status: 401, statusMessage: 'Unauthorized', message: 'This account is disabled. Ask an administrator to enable it.' })
+  // With single sign-on the only way in, a password still opens an administrator's account (the provider may be down).
+  if (!passwordsSignIn() && !user.roles.includes('admin')) {
+    throw createError({ status: 403, statusMessage: 'Forbidden', message: `Sign in through ${ssoSettings()?.name ?? 'your organisation'}: passwords do not sign in here.` })
+  }
   await attemptSucceeded(ticket)
   await beginSession(event, user)
   return user.toPublic()

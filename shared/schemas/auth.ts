@@ -64,3 +64,18 @@ export const preferencesSchema = z.object({
     }, { message: 'Station elevation must lie between −610 m and 11 000 m (−2000 ft and 36 000 ft).', path: ['value'] }),
   stationName: z.string().trim().max(60),
 })
+
+/** Where to go after signing in through the organisation's identity provider (a path of this app). */
+export const ssoStartQuerySchema = z.object({
+  next: z.string().max(500).regex(/^\/(?!\/)/, 'A path of this app, like /worksheets.').optional(),
+}).strict()
+
+/** What the identity provider sends the browser back with (RFC 6749 §4.1.2; OpenID Connect adds `iss`). */
+export const ssoCallbackQuerySchema = z.object({
+  code: z.string().max(2000).optional(),
+  state: z.string().max(500).optional(),
+  iss: z.string().max(500).optional(),
+  session_state: z.string().max(500).optional(),
+  error: z.string().max(200).optional(),
+  error_description: z.string().max(1000).optional(),
+}).strict()
