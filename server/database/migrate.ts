@@ -37,6 +37,9 @@ const MIGRATIONS = [
   { name: '0016-single-sign-on', ...singleSignOn },
 ]
 
+/** Every migration's name, oldest first: a backup's migration level is one of these. */
+export const MIGRATION_NAMES = MIGRATIONS.map(migration => migration.name)
+
 /** Applies the migrations not yet applied; never drops or re-syncs tables. */
 export async function migrate(sequelize: Sequelize): Promise<string[]> {
   const umzug = new Umzug({

@@ -10,6 +10,8 @@ import { formatDecimalValue } from '#shared/gas/format'
 import { stationDisplay } from '#shared/utils/station-time'
 
 export default defineNitroPlugin((nitroApp) => {
+  // A one-off task (scripts/task.mjs) serves no one; a restore must not open its database before the copy is in.
+  if (process.env.CHARGEWELL_TASK) return
   const display = stationDisplay()
   const now = new Date()
   for (const decimals of [0, 1, 2, 3]) {

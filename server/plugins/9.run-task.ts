@@ -12,7 +12,9 @@ export default defineNitroPlugin(() => {
       process.exit(0)
     })
     .catch((error) => {
-      console.error(`${name} failed:`, error)
+      // A refusal in words (a damaged backup, a target that exists) needs no stack trace.
+      if (error?.name === 'BackupRefused' || error?.cause?.name === 'BackupRefused') console.error(`${name} refused: ${error.cause?.message ?? error.message}`)
+      else console.error(`${name} failed:`, error)
       process.exit(1)
     })
 })
