@@ -92,6 +92,8 @@ export default defineNuxtConfig({
     oidcProvision: false,
     /** Plain-HTTP identity provider (tests and a provider on this machine only). */
     oidcAllowHttp: false,
+    /** The token a Prometheus scraper sends (`Authorization: Bearer …`) to read /metrics; empty: /metrics is off. */
+    metricsToken: '',
     /** Whether passwords still sign in (administrators always may: the way in when the provider is down). */
     passwordSignIn: true,
     /** The operator and station printed on every record (NUXT_OPERATOR_NAME, NUXT_STATION_NAME). */
@@ -115,7 +117,8 @@ export default defineNuxtConfig({
   compatibilityDate: '2025-07-15',
   nitro: {
     // `db:seed` (server/tasks) runs inside the built server: see scripts/task.mjs.
-    experimental: { tasks: true },
+    // asyncContext: an audit entry learns its request's id (server/plugins/observability.ts) wherever it is written.
+    experimental: { tasks: true, asyncContext: true },
     // Static files are stored gzip- and brotli-compressed and served so to browsers that take them.
     compressPublicAssets: { gzip: true, brotli: true },
     // The fonts PDFs are drawn in, bundled with the server (see server/utils/pdf-writer.ts).

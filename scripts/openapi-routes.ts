@@ -26,6 +26,7 @@ const RESPONSE_TYPES: [RegExp, string][] = [
   [/^GET \/api\/due\/calendar$/, 'text/calendar'],
   [/^GET \/api\/accumulators\/\{id\}\/label$/, 'image/svg+xml'],
   [/^GET \/api\/attachments\/\{id\}$/, 'application/octet-stream'],
+  [/^GET \/api\/records\/archive$/, 'application/zip'],
 ]
 /** What a route takes when it is not JSON. */
 const REQUEST_TYPES: [RegExp, string][] = [

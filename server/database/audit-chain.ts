@@ -159,6 +159,13 @@ async function lockedHead(transaction: Transaction): Promise<AuditHead> {
   )
 }
 
+let requestIdSource: () => string | null = () => null
+
+/** Where an entry learns the id of the request writing it (set by server/plugins/observability.ts). */
+export function setRequestIdSource(source: () => string | null): void {
+  requestIdSource = source
+}
+
 /**
  * Appends one entry to the chain inside the caller's transaction, and moves the sealed head
  * with it. An entry about a record (a worksheet, specification, tool, user, aircraft,
@@ -191,6 +198,7 @@ export async function appendAudit(
       hash: auditHash({ ...entry, recordHash: hashOfRecord }, head.lastHash, 2),
       recordHash: hashOfRecord,
       hashVersion: 2,
+      requestId: requestIdSource(),
     },
     { transaction },
   )

@@ -16,6 +16,7 @@ import * as stationsOperators from '../migrations/0013-stations-operators'
 import * as apiTokens from '../migrations/0014-api-tokens'
 import * as webhooks from '../migrations/0015-webhooks'
 import * as singleSignOn from '../migrations/0016-single-sign-on'
+import * as requestIds from '../migrations/0017-request-ids'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -35,6 +36,7 @@ const MIGRATIONS = [
   { name: '0014-api-tokens', ...apiTokens },
   { name: '0015-webhooks', ...webhooks },
   { name: '0016-single-sign-on', ...singleSignOn },
+  { name: '0017-request-ids', ...requestIds },
 ]
 
 /** Every migration's name, oldest first: a backup's migration level is one of these. */

@@ -34,6 +34,13 @@ const namespace = {
   set: (key: string, value: unknown) => context.getStore()?.set(key, value),
 }
 
+let waitObserver: (seconds: number) => void = () => undefined
+
+/** Told how long each write waited for its turn (the metrics' write-queue wait). */
+export function observeWriteWaits(observer: (seconds: number) => void): void {
+  waitObserver = observer
+}
+
 export function createWriteQueue(sequelize: Sequelize): WriteQueue {
   Sequelize.useCLS(namespace)
   const serialise = sequelize.getDialect() === 'sqlite'
@@ -45,10 +52,15 @@ export function createWriteQueue(sequelize: Sequelize): WriteQueue {
     const joined = namespace.get('transaction') as Transaction | null | undefined
     if (joined) return work(joined)
     const start = () => sequelize.transaction(serialise ? { type: Transaction.TYPES.IMMEDIATE } : {}, work)
-    if (!serialise) return start()
+    if (!serialise) {
+      waitObserver(0)
+      return start()
+    }
     waiting++
+    const queuedAt = performance.now()
     const turn = tail.then(() => {
       waiting--
+      waitObserver((performance.now() - queuedAt) / 1000)
       return start()
     })
     // The next writer waits for this one to settle, whether it committed or rolled back.

@@ -15,6 +15,8 @@ export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreation
   declare recordHash: string | null
   /** 1: the first chain (entry fields only); 2: the record hash is part of the entry's hash. */
   declare hashVersion: CreationOptional<number>
+  /** The request that wrote it (its x-request-id), to find it in the logs; not hashed. */
+  declare requestId: CreationOptional<string | null>
 
   static initModel(sequelize: Sequelize): void {
     AuditEvent.init({
@@ -29,6 +31,7 @@ export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreation
       hash: { type: DataTypes.STRING(64), allowNull: false },
       recordHash: { type: DataTypes.STRING(64), allowNull: true },
       hashVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 2 },
+      requestId: { type: DataTypes.STRING(64), allowNull: true },
     }, {
       sequelize, tableName: 'audit_events', underscored: true, timestamps: false,
       hooks: {

@@ -13,6 +13,7 @@ import { cycleCheckCorrectionSchema, cycleCheckQuerySchema, cycleCheckSchema, cy
 import { dueCalendarQuerySchema, dueQuerySchema } from '../../shared/schemas/due'
 import { fieldReferenceQuerySchema } from '../../shared/schemas/field'
 import { operatorSchema, operatorUpdateSchema, stationSchema, stationUpdateSchema, userScopeSchema } from '../../shared/schemas/organisation'
+import { recordsArchiveQuerySchema } from '../../shared/schemas/records-archive'
 import { passkeyRegistrationSchema, signatureBodySchema, signingOptionsQuerySchema, signingPolicySchema } from '../../shared/schemas/signing'
 import { specificationQuerySchema, specificationSchema, specificationUpdateSchema } from '../../shared/schemas/specifications'
 import { studyInputSchema, studyListQuerySchema } from '../../shared/schemas/study'
@@ -1043,13 +1044,39 @@ export const API_ROUTES: ApiRoute[] = [
   {
     method: 'get',
     path: '/api/health',
-    file: 'server/api/health.get.ts',
+    file: 'server/api/health/index.get.ts',
     summary: 'Liveness, the database (answering, and taking writes), and how long the event loop has been held up; the only route open without a session',
     description: 'Liveness, the database (answering, and taking writes), and how long the event loop has been held up; the only route open without a session. 503 while the server is starting (server/utils/readiness.ts) and while the database cannot take writes.',
     access: 'public',
     status: 503,
     params: undefined,
     query: undefined,
+    body: undefined,
+    responseType: 'application/json',
+  },
+  {
+    method: 'get',
+    path: '/api/health/live',
+    file: 'server/api/health/live.get.ts',
+    summary: 'Up',
+    description: 'Up: the process answers (for a supervisor\'s liveness probe; says nothing of the database). Open to anyone.',
+    access: 'public',
+    status: 200,
+    params: undefined,
+    query: noQuerySchema,
+    body: undefined,
+    responseType: 'application/json',
+  },
+  {
+    method: 'get',
+    path: '/api/health/ready',
+    file: 'server/api/health/ready.get.ts',
+    summary: 'Ready',
+    description: 'Ready: started, migrations done, the database reachable and taking writes, secrets present — each check in words; 503 while any fails (for a load balancer\'s readiness probe). Open to anyone.',
+    access: 'public',
+    status: 503,
+    params: undefined,
+    query: noQuerySchema,
     body: undefined,
     responseType: 'application/json',
   },
@@ -1273,6 +1300,19 @@ export const API_ROUTES: ApiRoute[] = [
     query: noQuerySchema,
     body: undefined,
     responseType: 'application/json',
+  },
+  {
+    method: 'get',
+    path: '/api/records/archive',
+    file: 'server/api/records/archive.get.ts',
+    summary: 'A period\'s released records as one ZIP, streamed',
+    description: 'A period\'s released records as one ZIP, streamed: each record\'s PDF, the records and their signatures as NDJSON, the signed audit export and a manifest of SHA-256 sums (for an auditor or a retention archive).',
+    access: 'audit.verify',
+    status: 200,
+    params: undefined,
+    query: recordsArchiveQuerySchema,
+    body: undefined,
+    responseType: 'application/zip',
   },
   {
     method: 'post',

@@ -194,6 +194,7 @@ export async function auditEvents(
       entityId: row.entityId,
       action: row.action,
       text: describeAuditEvent(row, row.entity === 'user' ? nameOf.get(Number(row.entityId)) : null),
+      requestId: row.requestId ?? null,
     })),
   }
 }

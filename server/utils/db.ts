@@ -69,6 +69,11 @@ export async function writeTransaction<T>(work: (transaction: Transaction) => Pr
   }
 }
 
+/** Writes waiting for their turn in the single-writer queue now (for the metrics). */
+export async function writesWaiting(): Promise<number> {
+  return (await open()).write.waiting
+}
+
 /** Case-insensitive LIKE on either database (SQLite's LIKE already is, for ASCII; PostgreSQL's is not). */
 export function likeOperator(): typeof Op.like | typeof Op.iLike {
   return dialect === 'postgres' ? Op.iLike : Op.like

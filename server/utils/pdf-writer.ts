@@ -1,6 +1,7 @@
 import fontkit from '@pdf-lib/fontkit'
 import type { H3Event } from 'h3'
 import { PDFDocument, rgb, type PDFFont } from 'pdf-lib'
+import { sfntFromWoff } from './woff'
 
 /**
  * A4 pages of wrapped text with headings: all Chargewell's PDF reports need. A signed record
@@ -30,6 +31,24 @@ interface FontFile {
 }
 let fontFiles: Promise<Record<Face, FontFile[]>> | undefined
 
+/**
+ * fontkit for pdf-lib, parsing each shipped font file once per process instead of once per document (a WOFF
+ * file is inflated on every parse): half the time of a record PDF went there, and a bulk export makes
+ * thousands. Each document still takes its own subset of the glyphs it uses.
+ */
+const parsedFonts = new WeakMap<Uint8Array, ReturnType<typeof fontkit.create>>()
+const fontkitOnce: typeof fontkit = {
+  create(data: Uint8Array, postscriptName?: string) {
+    if (postscriptName) return fontkit.create(data, postscriptName)
+    let font = parsedFonts.get(data)
+    if (!font) {
+      font = fontkit.create(data)
+      parsedFonts.set(data, font)
+    }
+    return font
+  },
+}
+
 /** The shipped font files with the characters each covers, read once per process. */
 function loadFontFiles(): Promise<Record<Face, FontFile[]>> {
   fontFiles ??= (async () => {
@@ -37,7 +56,8 @@ function loadFontFiles(): Promise<Record<Face, FontFile[]>> {
       const [base, name] = key.split(':') as [string, string]
       const raw = await useStorage(`assets:${base}`).getItemRaw<Uint8Array | Buffer>(name)
       if (!raw) throw new Error(`The PDF font ${name} is missing from the server build.`)
-      const bytes = new Uint8Array(raw)
+      // Unwrapped once: fontkit would inflate a WOFF's tables again on every read, in every PDF.
+      const bytes = sfntFromWoff(new Uint8Array(raw))
       return { key, bytes, codePoints: new Set(fontkit.create(Buffer.from(bytes)).characterSet) }
     }
     return { regular: await Promise.all(FACES.regular.map(load)), bold: await Promise.all(FACES.bold.map(load)) }
@@ -126,7 +146,7 @@ export class PdfWriter {
   async save(): Promise<Uint8Array> {
     const files = await loadFontFiles()
     const document = await PDFDocument.create()
-    document.registerFontkit(fontkit)
+    document.registerFontkit(fontkitOnce)
     document.setTitle(this.title)
     document.setCreator('Chargewell')
     const embedded = new Map<string, PDFFont>()

@@ -11,6 +11,8 @@ export interface AuditEventDto {
   action: string
   /** What happened, in a sentence. */
   text: string
+  /** The request that wrote it (x-request-id), to find it in the server's logs. */
+  requestId?: string | null
 }
 
 const roles = (value: unknown) =>

@@ -105,7 +105,7 @@ describe('backup and restore', () => {
     expect(restore.output).toMatch(/"auditEntriesVerified":\d+/)
 
     // A server on the restored database: every write acknowledged before the backup began is there.
-    const restoredDatabase = isPostgresUrl(target) ? { NUXT_DATABASE_URL: target } : { NUXT_DB_PATH: target }
+    const restoredDatabase: Record<string, string> = isPostgresUrl(target) ? { NUXT_DATABASE_URL: target } : { NUXT_DB_PATH: target }
     const restored = await startTestServer(restoredDatabase)
     try {
       const admin = await signIn(restored.baseURL, DEMO.admin)
@@ -135,7 +135,8 @@ describe('backup and restore', () => {
     const changed = copy('changed')
     const file = join(changed, manifest.file.name)
     const bytes = readFileSync(file)
-    bytes[Math.floor(bytes.length / 2)] ^= 0xff
+    const middle = Math.floor(bytes.length / 2)
+    bytes[middle] = bytes[middle]! ^ 0xff
     writeFileSync(file, bytes)
     const changedTarget = await newTarget('changed')
     const refusedChanged = await task('db:restore', [changed, '--to', changedTarget])

@@ -1,4 +1,4 @@
-import { healthReport } from '../services/health'
+import { healthReport } from '../../services/health'
 
 /**
  * Liveness, the database (answering, and taking writes), and how long the event loop has been held
