@@ -105,7 +105,9 @@ describe('backup and restore', () => {
     expect(restore.output).toMatch(/"auditEntriesVerified":\d+/)
 
     // A server on the restored database: every write acknowledged before the backup began is there.
-    const restoredDatabase: Record<string, string> = isPostgresUrl(target) ? { NUXT_DATABASE_URL: target } : { NUXT_DB_PATH: target }
+    const restoredDatabase: Record<string, string> = isPostgresUrl(target)
+      ? { NUXT_DATABASE_URL: target }
+      : { NUXT_DB_PATH: target }
     const restored = await startTestServer(restoredDatabase)
     try {
       const admin = await signIn(restored.baseURL, DEMO.admin)
