@@ -99,14 +99,15 @@ export function recordsArchive(event: H3Event, actor: User, query: RecordsArchiv
   const archive = new ZipArchive({ zlib: { level: 6 } })
   const files: ManifestFile[] = []
   const produce = async () => {
-    let records = 0
-    // records.ndjson: streamed as its own entry while it is read, batch by batch.
+    // records.ndjson: streamed as its own entry while it is read, batch by batch. The ids are kept (numbers
+    // only), so the PDFs are of exactly these records even if another is released meanwhile.
+    const taken: number[] = []
     const ndjson = hashing('records.ndjson', files)
     const lines = async function* () {
       for await (const ids of releasedIds(query, scope)) {
         for (const id of ids) {
           const dto = await toWorksheetDto(await findWorksheet(id))
-          records++
+          taken.push(id)
           yield ndjson.add(`${JSON.stringify(dto)}\n`)
         }
       }
@@ -114,14 +115,12 @@ export function recordsArchive(event: H3Event, actor: User, query: RecordsArchiv
     }
     await appended(archive, Readable.from(lines()), 'records.ndjson')
     // One PDF at a time, each made when the archive has taken the one before.
-    for await (const ids of releasedIds(query, scope)) {
-      for (const id of ids) {
-        const path = `records/worksheet-${id}.pdf`
-        const pdf = hashing(path, files)
-        const bytes = pdf.add(await worksheetRecordPdf(event, id, scope))
-        pdf.done()
-        await appended(archive, bytes, path, true)
-      }
+    for (const id of taken) {
+      const path = `records/worksheet-${id}.pdf`
+      const pdf = hashing(path, files)
+      const bytes = pdf.add(await worksheetRecordPdf(event, id, scope))
+      pdf.done()
+      await appended(archive, bytes, path, true)
     }
     const audit = hashing('audit-trail.ndjson', files)
     const auditLines = async function* () {
@@ -140,7 +139,7 @@ export function recordsArchive(event: H3Event, actor: User, query: RecordsArchiv
       period: { from: query.from, to: query.to, days: 'UTC calendar days, both ends included' },
       station: query.station ?? null,
       operator: query.operator ?? null,
-      records,
+      records: taken.length,
       auditTrail: { whole: true, entriesInPeriod: periodEntries, note: 'The chain verifies only whole; its entries carry their dates.' },
       files,
     }
