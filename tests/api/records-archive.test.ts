@@ -141,6 +141,8 @@ describe('the records archive', () => {
     // SQLite only: the fleet-sized database is built by the scale benchmark's builder (PostgreSQL runs the rest).
     if (isPostgresUrl(server.database)) return
     const database = join(folder, 'fleet.sqlite')
+    // The builder seeds through scripts/task.mjs: with this run's build, never a build of its own.
+    process.env.CHARGEWELL_OUTPUT = inject('outputDir')
     await buildScaleDatabase(database, FLEET_WORKSHEETS, inject('sessionPassword'), () => undefined)
     const fleet = await startTestServer({ NUXT_DB_PATH: database, NUXT_METRICS_TOKEN: TOKEN })
     try {
