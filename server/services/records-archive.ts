@@ -29,6 +29,12 @@ interface ManifestFile {
   sha256: string
 }
 
+/** The period as instants: from the first day's start to the end of the last (UTC days, both included). */
+function periodBounds(query: RecordsArchiveQuery): { from: Date, until: Date } {
+  const from = new Date(`${query.from}T00:00:00.000Z`)
+  return { from, until: new Date(new Date(`${query.to}T00:00:00.000Z`).getTime() + 86_400_000) }
+}
+
 /** Released worksheets of the period, station and operator (and within the user's scope), by id, in batches. */
 async function* releasedIds(query: RecordsArchiveQuery, scope: Scope): AsyncGenerator<number[]> {
   const aircraftWhere: WhereOptions = {}
@@ -46,8 +52,7 @@ async function* releasedIds(query: RecordsArchiveQuery, scope: Scope): AsyncGene
   }
   const aircraft = await Aircraft.findAll({ where: withinScope(scope, aircraftWhere, 'id'), attributes: ['id'] })
   const aircraftIds = aircraft.map(row => row.id)
-  const from = new Date(`${query.from}T00:00:00.000Z`)
-  const until = new Date(new Date(`${query.to}T00:00:00.000Z`).getTime() + 86_400_000)
+  const { from, until } = periodBounds(query)
   let after = 0
   for (;;) {
     const rows = await Worksheet.findAll({
@@ -128,8 +133,7 @@ export function recordsArchive(event: H3Event, actor: User, query: RecordsArchiv
       audit.done()
     }
     await appended(archive, Readable.from(auditLines()), 'audit-trail.ndjson')
-    const from = new Date(`${query.from}T00:00:00.000Z`)
-    const until = new Date(new Date(`${query.to}T00:00:00.000Z`).getTime() + 86_400_000)
+    const { from, until } = periodBounds(query)
     const periodEntries = await AuditEvent.count({ where: { at: { [Op.gte]: from, [Op.lt]: until } } })
     const manifest = {
       format: 'chargewell-records-archive/1',

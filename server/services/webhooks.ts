@@ -10,6 +10,7 @@ import type {
 import { appendAudit } from '../database/audit-chain'
 import { outsideTransaction } from '../database/write-queue'
 import { Tool, WebhookAttempt, WebhookDelivery, WebhookEndpoint, type User, type Worksheet } from '../models'
+import { retryBackoffMs } from '../utils/backoff'
 import { notFound } from './audited-writes'
 import type { AlertChange } from './unit-trends'
 
@@ -26,7 +27,6 @@ import type { AlertChange } from './unit-trends'
  */
 
 const MAX_ATTEMPTS = 15
-const MAX_BACKOFF_MS = 3_600_000
 const BATCH = 50
 const PARALLEL = 8
 /** A boolean in raw SQL, the same on SQLite (1) and PostgreSQL (true). */
@@ -38,10 +38,6 @@ function settings() {
     retryMs: Number(config.webhookRetrySeconds) * 1000 || 30_000,
     timeoutMs: Number(config.webhookTimeoutSeconds) * 1000 || 10_000,
   }
-}
-
-export function backoffMs(attempts: number, retryMs = settings().retryMs): number {
-  return Math.min(MAX_BACKOFF_MS, retryMs * 2 ** Math.max(0, attempts - 1))
 }
 
 /** `v1,` + the base64 HMAC-SHA256 of `id.timestamp.body`, the key being the secret after its `whsec_` prefix. */
@@ -77,7 +73,7 @@ async function endpointDtos(where: { id?: number } = {}): Promise<WebhookEndpoin
       id: endpoint.id,
       url: endpoint.url,
       description: endpoint.description,
-      events: endpoint.events.filter((type): type is SubscribableEvent => type !== 'webhook.test'),
+      events: endpoint.events as SubscribableEvent[],
       active: endpoint.active,
       createdAt: endpoint.createdAt.toISOString(),
       waiting: count(endpoint.id, ['queued', 'sending']),
@@ -382,7 +378,7 @@ async function attempt(delivery: WebhookDelivery, endpoint: WebhookEndpoint): Pr
     ? { status: 'delivered', deliveredAt: finishedAt, nextAttemptAt: null }
     : givingUp
       ? { status: 'failed', nextAttemptAt: null }
-      : { status: 'queued', nextAttemptAt: new Date(finishedAt.getTime() + backoffMs(attempts)) }
+      : { status: 'queued', nextAttemptAt: new Date(finishedAt.getTime() + retryBackoffMs(attempts, settings().retryMs)) }
   if (error) console.error(`Webhook ${delivery.messageId} to ${endpoint.url} failed (attempt ${attempts}${givingUp ? ', giving up' : ''}): ${error}`)
   await writeTransaction(async (transaction) => {
     await WebhookAttempt.create({

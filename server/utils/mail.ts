@@ -2,6 +2,7 @@ import nodemailer, { type Transporter } from 'nodemailer'
 import { Op } from 'sequelize'
 import { outsideTransaction } from '../database/write-queue'
 import { Notification } from '../models'
+import { retryBackoffMs } from './backoff'
 
 /**
  * E-mail from a durable outbox. `sendMail` only writes the message, `queued`, in the caller's write
@@ -13,7 +14,6 @@ import { Notification } from '../models'
  */
 
 const MAX_ATTEMPTS = 12
-const MAX_BACKOFF_MS = 3_600_000
 
 let transporter: Transporter | undefined
 
@@ -68,7 +68,7 @@ export async function sendMail(request: MailRequest): Promise<Notification> {
 
 /** The wait before the next try after `attempts` failed ones. */
 export function backoffMs(attempts: number, retryMs = settings().retryMs): number {
-  return Math.min(MAX_BACKOFF_MS, retryMs * 2 ** Math.max(0, attempts - 1))
+  return retryBackoffMs(attempts, retryMs)
 }
 
 async function deliver(message: Notification): Promise<void> {
