@@ -5,6 +5,8 @@
 //
 // It recomputes every entry's hash and link, counts the entries, and checks the Ed25519 signature
 // over the whole file (and, from version 2, the sealed head) with the public key in its header.
+// A period's export (version 3) is checked from its anchor: the hash of the entry before the period,
+// which is the last entry hash the export of the period before printed.
 // --key pins that key to the fingerprint shown on the Admin page, so a file re-signed by anyone else
 // is refused. Without --key it refuses to judge, unless told --trust-embedded-key (then it only shows
 // that the file is as its own key signed it). Exit status 0: intact; 1: not intact; 2: cannot check.
@@ -79,6 +81,8 @@ let header
 let trailer
 let previous = GENESIS
 let count = 0
+// A period export: how many of its entries are dated within the period (the rest keep the run unbroken).
+let dated = 0
 let pending
 let lineNumber = 0
 const input = createReadStream(file)
@@ -92,11 +96,19 @@ for await (const line of createInterface({ input, crlfDelay: Infinity })) {
     if (!value || typeof value !== 'object') unreadable(`line ${lineNumber - 1} is not an object.`)
     if (!header) {
       header = value
-      if (header.format !== FORMAT || ![1, 2].includes(header.version))
-        unreadable(`not a ${FORMAT} file (version 1 or 2).`)
+      if (header.format !== FORMAT || ![1, 2, 3].includes(header.version))
+        unreadable(`not a ${FORMAT} file (version 1, 2 or 3).`)
+      // Version 3, a period's run of the chain: its first entry links to the anchor, not to the start.
+      if (header.version === 3) {
+        if (!header.period || !header.anchor || !/^[0-9a-f]{64}$/.test(String(header.anchor.hash)))
+          unreadable('a period export without its period or its anchor.')
+        previous = header.anchor.hash
+      }
     }
     else {
       count++
+      const { fromInstant, untilInstant } = header.period ?? {}
+      if (header.version === 3 && value.at >= fromInstant && value.at < untilInstant) dated++
       if (value.previousHash !== previous) problems.push(`Entry ${value.id} does not link to the entry before it.`)
       else if (entryHash(value, previous) !== value.hash)
         problems.push(`Entry ${value.id}: its content does not match its hash.`)
@@ -122,7 +134,7 @@ else {
     problems.push(`Signed with key ${fingerprint}, not the expected ${pinned}.`)
   const message = Buffer.from(header.version === 1
     ? `${FORMAT}:1:${hex}:${count}:${previous}`
-    : `${FORMAT}:2:${hex}:${count}:${previous}:${JSON.stringify(canonical(trailer.sealedHead ?? null))}`)
+    : `${FORMAT}:${header.version}:${hex}:${count}:${previous}:${JSON.stringify(canonical(trailer.sealedHead ?? null))}`)
   if (header.version === 1) problems.push('A version 1 export: its sealed head is not covered by the signature.')
   let key
   try {
@@ -140,6 +152,9 @@ if (problems.length) {
   for (const problem of problems.slice(0, 20)) console.error(`  - ${problem}`)
   process.exit(1)
 }
+const period = header.version === 3
+  ? ` (${dated} dated in the period, the rest between them in the chain) of the period ${header.period.from} to ${header.period.to} (UTC days), linked to the anchor ${header.anchor.entryId === null ? '(the start of the trail)' : `entry ${header.anchor.entryId}`} hash ${header.anchor.hash} — the last entry hash of the export of the period before,`
+  : ''
 console.log(
-  `INTACT${pinned ? '' : ' (checked against the key the file carries, not a pinned one)'}: ${count} entries, exported ${header.exportedAt} by ${header.exportedBy}, signed by key ${header.keyFingerprint}; last entry hash ${previous}.`,
+  `INTACT${pinned ? '' : ' (checked against the key the file carries, not a pinned one)'}: ${count} entries${period} exported ${header.exportedAt} by ${header.exportedBy}, signed by key ${header.keyFingerprint}; last entry hash ${previous}.`,
 )

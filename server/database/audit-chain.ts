@@ -9,7 +9,7 @@ import {
   type KeyObject,
 } from 'node:crypto'
 import { createError } from 'h3'
-import { Op, QueryTypes, Transaction } from 'sequelize'
+import { col, fn, Op, QueryTypes, Transaction } from 'sequelize'
 import type { ChainReport, RecordProblem } from '../../shared/types/audit'
 import { AuditEvent, AuditHead } from '../models'
 import { canonical, isRecordKind, recordHash, recordHashes, RECORD_KINDS, type RecordKindName } from './record-hash'
@@ -421,7 +421,60 @@ async function verifyInSnapshot(): Promise<ChainReport> {
 
 export const EXPORT_FORMAT = 'chargewell-audit-export'
 
-export async function* auditExportLines(exportedBy: string): AsyncGenerator<string> {
+/** A period of the chain to export: entries written from `from` until (not including) `until`. */
+export interface ExportPeriod {
+  from: Date
+  until: Date
+  /** The period as asked, e.g. { from: '2026-01-01', to: '2026-12-31' } (UTC days, both included). */
+  label: { from: string, to: string }
+}
+
+/**
+ * The entries of a period as one unbroken run of the chain: from the lowest id written in the period to the
+ * highest, every entry between them included, so the run links from end to end. (The chain's order is its
+ * ids; an entry between them dated outside the period — one written with an earlier date by an import, or
+ * after a clock correction — is kept and counted as outside it by the checker.) The anchor is the entry
+ * before the run: its hash is what the run's first entry links to.
+ */
+interface ChainRun {
+  firstId: number
+  lastId: number
+  anchorId: number | null
+  anchorHash: string
+}
+
+async function periodRun(period: ExportPeriod): Promise<ChainRun> {
+  // An index-only read of the period's range of (at, id) (migration 0018).
+  const ends = await AuditEvent.findOne({
+    where: { at: { [Op.gte]: period.from, [Op.lt]: period.until } },
+    attributes: [[fn('MIN', col('id')), 'first'], [fn('MAX', col('id')), 'last']],
+    raw: true,
+  }) as unknown as { first: number | null, last: number | null } | null
+  if (ends?.first && ends.last) {
+    const anchor = await AuditEvent.findOne({
+      where: { id: { [Op.lt]: ends.first } },
+      order: [['id', 'DESC']],
+      attributes: ['id', 'hash'],
+    })
+    const anchorHash = anchor?.hash ?? GENESIS_HASH
+    return { firstId: ends.first, lastId: ends.last, anchorId: anchor?.id ?? null, anchorHash }
+  }
+  // No entry in the period: an empty run, anchored on the newest entry written before it.
+  const before = await AuditEvent.findOne({
+    where: { at: { [Op.lt]: period.from } },
+    order: [['at', 'DESC'], ['id', 'DESC']],
+    attributes: ['id', 'hash'],
+  })
+  return { firstId: 1, lastId: 0, anchorId: before?.id ?? null, anchorHash: before?.hash ?? GENESIS_HASH }
+}
+
+/**
+ * The chain as signed lines: a header, one line per entry, and a signature line over the digest of every
+ * line before it, the entry count, the last hash and the sealed head (Ed25519, the audit key). With a
+ * period, version 3: the period's run of the chain (`periodRun`), its header naming the period and the
+ * anchor (the entry before the run and its hash), which the signature covers with the rest.
+ */
+export async function* auditExportLines(exportedBy: string, period?: ExportPeriod): AsyncGenerator<string> {
   if (!keys) throw new Error('No audit secret is configured: the export cannot be signed.')
   const digest = createHash('sha256')
   const emit = (value: unknown) => {
@@ -429,19 +482,37 @@ export async function* auditExportLines(exportedBy: string): AsyncGenerator<stri
     digest.update(line)
     return line
   }
+  const whole: ChainRun = { firstId: 1, lastId: Number.MAX_SAFE_INTEGER, anchorId: null, anchorHash: GENESIS_HASH }
+  const run = period ? await periodRun(period) : whole
+  const version = period ? 3 : 2
   yield emit({
     format: EXPORT_FORMAT,
-    version: 2,
+    version,
     exportedAt: new Date().toISOString(),
     exportedBy,
     publicKey: keys.publicKey,
     keyFingerprint: keys.fingerprint,
+    ...(period
+      ? {
+          period: {
+            from: period.label.from,
+            to: period.label.to,
+            fromInstant: period.from.toISOString(),
+            untilInstant: period.until.toISOString(),
+          },
+          anchor: { entryId: run.anchorId, hash: run.anchorHash },
+        }
+      : {}),
   })
-  let lastId = 0
+  let lastId = run.firstId - 1
   let count = 0
-  let lastHash = GENESIS_HASH
+  let lastHash = run.anchorHash
   for (;;) {
-    const batch = await AuditEvent.findAll({ where: { id: { [Op.gt]: lastId } }, order: [['id', 'ASC']], limit: BATCH })
+    const batch = await AuditEvent.findAll({
+      where: { id: { [Op.gt]: lastId, [Op.lte]: run.lastId } },
+      order: [['id', 'ASC']],
+      limit: BATCH,
+    })
     if (batch.length === 0) break
     let lines = ''
     for (const event of batch) {
@@ -469,8 +540,10 @@ export async function* auditExportLines(exportedBy: string): AsyncGenerator<stri
   const sealedHead = head
     ? { eventCount: head.eventCount, lastEventId: head.lastEventId, lastHash: head.lastHash }
     : null
-  // Version 2 signs the sealed head with the rest (version 1 left it outside the signature).
-  const message = Buffer.from(`${EXPORT_FORMAT}:2:${hex}:${count}:${lastHash}:${JSON.stringify(canonical(sealedHead))}`)
+  // Version 2 signs the sealed head with the rest (version 1 left it outside the signature); version 3 is
+  // signed as version 2 is, its header (in the digest) carrying the period and the anchor.
+  const signed = `${EXPORT_FORMAT}:${version}:${hex}:${count}:${lastHash}:${JSON.stringify(canonical(sealedHead))}`
+  const message = Buffer.from(signed)
   yield `${JSON.stringify({
     entries: count,
     lastHash,

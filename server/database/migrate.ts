@@ -17,6 +17,8 @@ import * as apiTokens from '../migrations/0014-api-tokens'
 import * as webhooks from '../migrations/0015-webhooks'
 import * as singleSignOn from '../migrations/0016-single-sign-on'
 import * as requestIds from '../migrations/0017-request-ids'
+import * as auditPeriodIndex from '../migrations/0018-audit-period-index'
+import * as searchPrefixes from '../migrations/0019-search-prefixes'
 
 /** Every migration, in order. Listed here (not globbed) so the server bundle carries them. */
 const MIGRATIONS = [
@@ -37,6 +39,8 @@ const MIGRATIONS = [
   { name: '0015-webhooks', ...webhooks },
   { name: '0016-single-sign-on', ...singleSignOn },
   { name: '0017-request-ids', ...requestIds },
+  { name: '0018-audit-period-index', ...auditPeriodIndex },
+  { name: '0019-search-prefixes', ...searchPrefixes },
 ]
 
 /** Every migration's name, oldest first: a backup's migration level is one of these. */

@@ -4,7 +4,7 @@ import { accumulatorQuerySchema, accumulatorSchema, accumulatorUpdateSchema } fr
 import { aircraftQuerySchema, aircraftSchema, aircraftUpdateSchema } from '../../shared/schemas/aircraft'
 import { apiTokenCreateSchema } from '../../shared/schemas/api-token'
 import { attachmentFieldsSchema } from '../../shared/schemas/attachment'
-import { auditAcceptSchema, auditEventQuerySchema, auditResolveHeadSchema } from '../../shared/schemas/audit'
+import { auditAcceptSchema, auditEventQuerySchema, auditExportQuerySchema, auditResolveHeadSchema } from '../../shared/schemas/audit'
 import { loginSchema, passwordChangeSchema, passwordResetSchema, preferencesSchema, ssoCallbackQuerySchema, ssoStartQuerySchema, userCreateSchema, userUpdateSchema } from '../../shared/schemas/auth'
 import { authorisationCreateSchema, authorisationUpdateSchema, suspensionSchema } from '../../shared/schemas/authorisation'
 import { assessReadingSchema, chargeTargetSchema, correctionCurveSchema, envelopeSchema, leakIntervalSchema, leakRateSchema, optimumPrechargeSchema, requiredVolumeSchema, settleForecastSchema, tableTargetSchema, usableVolumeSchema } from '../../shared/schemas/calc'
@@ -681,12 +681,12 @@ export const API_ROUTES: ApiRoute[] = [
     method: 'get',
     path: '/api/audit/export',
     file: 'server/api/audit/export.get.ts',
-    summary: 'The whole audit chain as signed newline-delimited JSON, streamed in batches',
-    description: 'The whole audit chain as signed newline-delimited JSON, streamed in batches. Check it offline with `node scripts/check-audit-export.mjs <file> --key <fingerprint>`.',
+    summary: 'The audit chain as signed newline-delimited JSON, streamed in batches',
+    description: 'The audit chain as signed newline-delimited JSON, streamed in batches: the whole chain, or with `from` and `to` (UTC days, both included) the period\'s unbroken run of it, anchored on the entry before it. Check it offline with `node scripts/check-audit-export.mjs <file> --key <fingerprint>`.',
     access: 'audit.verify',
     status: 200,
     params: undefined,
-    query: noQuerySchema,
+    query: auditExportQuerySchema,
     body: undefined,
     responseType: 'application/x-ndjson',
   },

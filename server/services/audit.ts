@@ -6,6 +6,7 @@ import {
   auditSigningKey,
   reanchorHead,
   verifyAuditChain,
+  type ExportPeriod,
 } from '../database/audit-chain'
 import { lastVouched, type HeldRecord } from '../database/record-guard'
 import { recordHash } from '../database/record-hash'
@@ -25,8 +26,11 @@ export async function verifyTrail(): Promise<AuditVerifyAnswer> {
   return { ...(await verifyAuditChain()), signingKey: auditSigningKey() }
 }
 
-/** The whole chain as signed lines; refused (503) when no audit secret is configured to sign with. */
-export function signedExport(actor: Actor): AsyncGenerator<string> {
+/**
+ * The whole chain, or a period's run of it (from the first day's start to the end of the last, UTC), as signed
+ * lines; refused (503) when no audit secret is configured to sign with.
+ */
+export function signedExport(actor: Actor, period?: { from: string, to: string }): AsyncGenerator<string> {
   if (!auditSigningKey()) {
     throw createError({
       status: 503,
@@ -34,7 +38,14 @@ export function signedExport(actor: Actor): AsyncGenerator<string> {
       message: 'No audit secret is configured, so the export cannot be signed.',
     })
   }
-  return auditExportLines(`${actor.name} <${actor.email}>`)
+  return auditExportLines(`${actor.name} <${actor.email}>`, period && exportPeriod(period))
+}
+
+/** A period of UTC calendar days, both included, as the instants it runs from and until. */
+export function exportPeriod(period: { from: string, to: string }): ExportPeriod {
+  const from = new Date(`${period.from}T00:00:00.000Z`)
+  const until = new Date(new Date(`${period.to}T00:00:00.000Z`).getTime() + 86_400_000)
+  return { from, until, label: { from: period.from, to: period.to } }
 }
 
 const subjectOf = (entity: string, entityId: string) => `integrity:${entity}:${entityId}`

@@ -6,8 +6,9 @@ import { Op, type WhereOptions } from 'sequelize'
 import { ENGINE_VERSION } from '#shared/gas/version'
 import type { RecordsArchiveQuery } from '#shared/schemas/records-archive'
 import { auditExportLines } from '../database/audit-chain'
-import { Aircraft, AuditEvent, Operator, Worksheet, type User } from '../models'
+import { Aircraft, Operator, Worksheet, type User } from '../models'
 import { logger } from '../utils/logger'
+import { exportPeriod } from './audit'
 import { worksheetRecordPdf } from './record-export'
 import { withinScope, type Scope } from './scope'
 import { toWorksheetDto, findWorksheet } from './worksheets'
@@ -15,8 +16,8 @@ import { toWorksheetDto, findWorksheet } from './worksheets'
 /**
  * Released records of a period, for an auditor or a retention archive: one ZIP, streamed as it is written,
  * holding each record's PDF (`records/worksheet-<id>.pdf`, which verifies on its own), the records with their
- * signatures as NDJSON (`records.ndjson`), the signed audit export (`audit-trail.ndjson`: the whole chain, as
- * it verifies only whole, with the period's entries counted in the manifest), and `manifest.json` with every
+ * signatures as NDJSON (`records.ndjson`), the period's signed audit export (`audit-trail.ndjson`: its unbroken
+ * run of the chain, anchored on the entry before it), and `manifest.json` with every
  * file's SHA-256, written last. Records are read in batches by id and each PDF is made only when the archive
  * has taken the one before, so memory stays flat however long the period.
  */
@@ -27,12 +28,6 @@ interface ManifestFile {
   path: string
   bytes: number
   sha256: string
-}
-
-/** The period as instants: from the first day's start to the end of the last (UTC days, both included). */
-function periodBounds(query: RecordsArchiveQuery): { from: Date, until: Date } {
-  const from = new Date(`${query.from}T00:00:00.000Z`)
-  return { from, until: new Date(new Date(`${query.to}T00:00:00.000Z`).getTime() + 86_400_000) }
 }
 
 /** Released worksheets of the period, station and operator (and within the user's scope), by id, in batches. */
@@ -52,7 +47,7 @@ async function* releasedIds(query: RecordsArchiveQuery, scope: Scope): AsyncGene
   }
   const aircraft = await Aircraft.findAll({ where: withinScope(scope, aircraftWhere, 'id'), attributes: ['id'] })
   const aircraftIds = aircraft.map(row => row.id)
-  const { from, until } = periodBounds(query)
+  const { from, until } = exportPeriod(query)
   let after = 0
   for (;;) {
     const rows = await Worksheet.findAll({
@@ -127,14 +122,21 @@ export function recordsArchive(event: H3Event, actor: User, query: RecordsArchiv
       pdf.done()
       await appended(archive, bytes, path, true)
     }
+    // The period's signed run of the audit chain; its header (period, anchor) and signature line are kept for
+    // the manifest.
     const audit = hashing('audit-trail.ndjson', files)
+    let header: { anchor: { entryId: number | null, hash: string } } | undefined
+    let trailer = ''
     const auditLines = async function* () {
-      for await (const line of auditExportLines(`${actor.name} <${actor.email}>`)) yield audit.add(line)
+      for await (const line of auditExportLines(`${actor.name} <${actor.email}>`, exportPeriod(query))) {
+        header ??= JSON.parse(line)
+        trailer = line
+        yield audit.add(line)
+      }
       audit.done()
     }
     await appended(archive, Readable.from(auditLines()), 'audit-trail.ndjson')
-    const { from, until } = periodBounds(query)
-    const periodEntries = await AuditEvent.count({ where: { at: { [Op.gte]: from, [Op.lt]: until } } })
+    const signed = JSON.parse(trailer) as { entries: number, lastHash: string }
     const manifest = {
       format: 'chargewell-records-archive/1',
       createdAt: new Date().toISOString(),
@@ -144,7 +146,14 @@ export function recordsArchive(event: H3Event, actor: User, query: RecordsArchiv
       station: query.station ?? null,
       operator: query.operator ?? null,
       records: taken.length,
-      auditTrail: { whole: true, entriesInPeriod: periodEntries, note: 'The chain verifies only whole; its entries carry their dates.' },
+      auditTrail: {
+        entries: signed.entries,
+        anchor: header!.anchor,
+        lastHash: signed.lastHash,
+        note: 'The period\'s unbroken run of the audit chain, signed with the audit key: its first entry links to the '
+          + 'anchor, which is the last entry of the export of the period before. Check it with '
+          + '`node scripts/check-audit-export.mjs audit-trail.ndjson --key <fingerprint>`.',
+      },
       files,
     }
     await appended(archive, Buffer.from(`${JSON.stringify(manifest, null, 2)}\n`), 'manifest.json')

@@ -42,11 +42,35 @@ const fontkitOnce: typeof fontkit = {
     if (postscriptName) return fontkit.create(data, postscriptName)
     let font = parsedFonts.get(data)
     if (!font) {
-      font = fontkit.create(data)
+      font = withRememberedLayouts(fontkit.create(data))
       parsedFonts.set(data, font)
     }
     return font
   },
+}
+
+/** How many laid-out pieces of text each font keeps (the glyphs only: references to the font's own). */
+const LAYOUTS_KEPT = 20_000
+
+/**
+ * pdf-lib lays text out (OpenType shaping) to draw it and again to measure it, and reads only the glyphs
+ * of the result: a font parsed once per process keeps the glyphs of the pieces it has laid out, the
+ * oldest forgotten first, so the words and labels every record repeats are shaped once.
+ */
+function withRememberedLayouts<Font extends ReturnType<typeof fontkit.create>>(font: Font): Font {
+  const layout = font.layout.bind(font)
+  const kept = new Map<string, { glyphs: ReturnType<typeof layout>['glyphs'] }>()
+  font.layout = ((text: string, features?: never) => {
+    if (features !== undefined) return layout(text, features)
+    let run = kept.get(text)
+    if (!run) {
+      run = { glyphs: layout(text).glyphs }
+      if (kept.size >= LAYOUTS_KEPT) kept.delete(kept.keys().next().value!)
+      kept.set(text, run)
+    }
+    return run
+  }) as never
+  return font
 }
 
 /** The shipped font files with the characters each covers, read once per process. */
@@ -84,6 +108,13 @@ interface ImageBlock {
   maxWidth: number
   maxHeight: number
 }
+interface QrBlock {
+  kind: 'qr'
+  /** Dark (1) and light (0) modules, row by row, of a square `size` modules wide. */
+  modules: ArrayLike<number>
+  size: number
+  width: number
+}
 interface Attachment {
   name: string
   bytes: Uint8Array
@@ -100,7 +131,7 @@ const MARGIN = 50
 const A4: [number, number] = [595.28, 841.89]
 
 export class PdfWriter {
-  private readonly blocks: (Block | ImageBlock)[] = []
+  private readonly blocks: (Block | ImageBlock | QrBlock)[] = []
   private readonly attachments: Attachment[] = []
   private footerOf?: (page: number, pages: number) => string
 
@@ -127,6 +158,14 @@ export class PdfWriter {
   /** A JPEG or PNG drawn at most `maxWidth` × `maxHeight` points, on the next page if it does not fit. */
   image(bytes: Uint8Array, mimeType: string, options: { maxWidth?: number, maxHeight?: number } = {}): void {
     this.blocks.push({ kind: 'image', bytes, mimeType, maxWidth: options.maxWidth ?? 260, maxHeight: options.maxHeight ?? 220 })
+  }
+
+  /**
+   * A QR code `width` points wide, drawn as squares (vector: sharp at any zoom, and no image to encode
+   * and decode again in every record), with a quiet zone of one module.
+   */
+  qrCode(modules: ArrayLike<number>, size: number, width = 84): void {
+    this.blocks.push({ kind: 'qr', modules, size, width })
   }
 
   /** A file embedded in the PDF (its attachments panel), e.g. the record's content as JSON. */
@@ -189,15 +228,27 @@ export class PdfWriter {
     const draw = async (block: Block) => {
       y -= block.spaceBefore
       for (const paragraph of block.text.split(/\r?\n/)) {
+        // Each word is measured once (with the space before it) and a line's width is the sum: measuring the
+        // whole line again for every word shaped it word by word over and over (two thirds of a record's PDF).
         const lines: string[] = []
         let line = ''
+        let lineWidth = 0
         for (const word of paragraph.split(' ')) {
-          const candidate = line ? `${line} ${word}` : word
-          if (line && (await widthOf(runsOf(candidate, block.face), block.size)) > width) {
+          if (!line) {
+            line = word
+            lineWidth = await widthOf(runsOf(word, block.face), block.size)
+            continue
+          }
+          const added = await widthOf(runsOf(` ${word}`, block.face), block.size)
+          if (lineWidth + added > width) {
             lines.push(line)
             line = `   ${word}`
+            lineWidth = await widthOf(runsOf(line, block.face), block.size)
           }
-          else line = candidate
+          else {
+            line = `${line} ${word}`
+            lineWidth += added
+          }
         }
         lines.push(line)
         for (const text of lines) {
@@ -236,10 +287,27 @@ export class PdfWriter {
         y = A4[1] - MARGIN
       }
       page.drawImage(image, { x: MARGIN, y: y - h, width: w, height: h })
-      y -= h + 6
+      y -= h + 14
+    }
+    const drawQrCode = (block: QrBlock) => {
+      const module = block.width / (block.size + 2)
+      if (y - block.width < MARGIN) {
+        page = document.addPage(A4)
+        y = A4[1] - MARGIN
+      }
+      // One path of a square per dark module, in the path's own units (one per module), y downwards.
+      const squares: string[] = []
+      for (let row = 0; row < block.size; row++) {
+        for (let column = 0; column < block.size; column++)
+          if (block.modules[row * block.size + column]) squares.push(`M${column + 1} ${row + 1}h1v1h-1z`)
+      }
+      page.drawSvgPath(squares.join(''), { x: MARGIN, y, scale: module, color: rgb(0, 0, 0), borderWidth: 0 })
+      // Clear of the next line's capitals (text is drawn on its baseline).
+      y -= block.width + 14
     }
     for (const block of this.blocks) {
       if (block.kind === 'image') await drawImage(block)
+      else if (block.kind === 'qr') drawQrCode(block)
       else await draw(block)
     }
     if (undrawable.size > 0) {

@@ -49,7 +49,8 @@ export async function worksheetPdf(evidence: {
   pdf.write(`Times are at the station, time zone ${record.printedWith.timeZone}.`, { colour: COLOUR.quiet })
   pdf.write(`Record content hash (SHA-256): ${record.contentHash}`, { colour: COLOUR.quiet, gap: 4 })
   const verifyLink = `${record.verifyAddress}?worksheet=${worksheet.id}&hash=${record.contentHash}`
-  pdf.image(await QRCode.toBuffer(verifyLink, { type: 'png', margin: 1, width: 240, errorCorrectionLevel: 'M' }), 'image/png', { maxWidth: 84, maxHeight: 84 })
+  const qr = QRCode.create(verifyLink, { errorCorrectionLevel: 'M' })
+  pdf.qrCode(qr.modules.data, qr.modules.size)
   pdf.write(`Verify this record: open ${record.verifyAddress} and drop this file on it, or run "npm run verify-record -- <file>" from Chargewell's source, with no server.`, { colour: COLOUR.quiet, gap: 4 })
 
   for (const section of worksheetRecordSections(worksheet, displayFormat(record.printedWith))) {

@@ -160,6 +160,25 @@ describe('search', () => {
     expect(oldest.items.map((item: { workOrder: string }) => item.workOrder)).toEqual([value(0), value(1), value(2)])
   })
 
+  it('a dense search starts right when the newest or oldest row under its prefix changed its value', async () => {
+    // On SQLite each prefix's newest and oldest row is kept as worksheets are written (migration 0019); a row
+    // moved out of the prefix leaves that bound behind (the walk steps over it), and a row moved in widens it.
+    await insertCopies(700, number => `WO-KEPT-${String(number).padStart(3, '0')}`, Date.UTC(2012, 0, 1), 3_600_000)
+    const query = (direction: string) => `/api/worksheets?q=wo-kept&sort=createdAt&direction=${direction}&pageSize=3`
+    const workOrders = (page: { items: { workOrder: string }[] }) => page.items.map(item => item.workOrder)
+    expect(workOrders((await api(query('desc'), { cookie })).body)).toEqual(['WO-KEPT-699', 'WO-KEPT-698', 'WO-KEPT-697'])
+    for (const moved of ['WO-KEPT-699', 'WO-KEPT-000'])
+      await sql(fileDatabase(), 'UPDATE worksheets SET work_order = ? WHERE work_order = ?', [`MOVED-${moved}`, moved])
+    const newest = (await api(query('desc'), { cookie })).body
+    expect(newest.total).toBe(698)
+    expect(workOrders(newest)).toEqual(['WO-KEPT-698', 'WO-KEPT-697', 'WO-KEPT-696'])
+    expect(workOrders((await api(query('asc'), { cookie })).body)).toEqual(['WO-KEPT-001', 'WO-KEPT-002', 'WO-KEPT-003'])
+    // A newer worksheet given a work order under the prefix comes first.
+    const [latest] = await sql<{ id: number }>(fileDatabase(), 'SELECT id FROM worksheets ORDER BY created_at DESC, id DESC LIMIT 1')
+    await sql(fileDatabase(), 'UPDATE worksheets SET work_order = ? WHERE id = ?', ['WO-KEPT-LATEST', latest!.id])
+    expect(workOrders((await api(query('desc'), { cookie })).body)).toEqual(['WO-KEPT-LATEST', 'WO-KEPT-698', 'WO-KEPT-697'])
+  })
+
   it('counts a row that matches in two columns once', async () => {
     await insertCopies(30, number => `TWIN-${number}`, Date.UTC(2013, 0, 1), 60_000, number => ({ serial_number: `TWIN-${number}` }))
     const found = (await api('/api/worksheets?q=twin-&pageSize=50', { cookie })).body

@@ -6,10 +6,12 @@
  */
 import { execFile } from 'node:child_process'
 import { createHash } from 'node:crypto'
-import { mkdtempSync, writeFileSync } from 'node:fs'
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { promisify } from 'node:util'
+import jsQR from 'jsqr'
+import { PNG } from 'pngjs'
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { EmbeddedSignatures } from '../../shared/types/record-proof'
 import { verifyRecordPdf } from '../../shared/utils/record-verify'
@@ -137,8 +139,13 @@ describe('passkeys as signing credentials', () => {
     const sha256 = createHash('sha256').update(photo).digest('hex')
     expect(text.replace(/\s+/g, ' ')).toContain(`gauge-1420.png · SHA-256 ${sha256}`)
     const { stdout: images } = await run('pdfimages', ['-list', join(folder, 'record.pdf')])
-    // The QR code and the photo (each may carry its transparency as a second, "smask" entry).
-    expect(images.trim().split('\n').slice(2).filter(line => / image /.test(line))).toHaveLength(2)
+    // The photo is the one image (it may carry its transparency as a second, "smask" entry); the QR code is
+    // drawn as squares, and read here from the first page as a printer would put it on paper.
+    expect(images.trim().split('\n').slice(2).filter(line => / image /.test(line))).toHaveLength(1)
+    await run('pdftoppm', ['-r', '150', '-f', '1', '-l', '1', '-png', '-singlefile', join(folder, 'record.pdf'), join(folder, 'page')])
+    const page = PNG.sync.read(readFileSync(join(folder, 'page.png')))
+    const code = jsQR(new Uint8ClampedArray(page.data), page.width, page.height)
+    expect(code?.data).toBe(`${baseURL()}/verify?worksheet=${released}&hash=${report.contentHash}`)
     expect(text).toContain('Verify this record: open')
   })
 

@@ -186,6 +186,68 @@ describe('the signed export, checked offline', () => {
   })
 })
 
+describe('a period\'s signed export', () => {
+  const exportOf = async (query: string) => {
+    const response = await fetch(`${baseURL()}/api/audit/export${query}`, { headers: { cookie: admin } })
+    expect(response.status).toBe(200)
+    return { text: await response.text(), name: response.headers.get('content-disposition') }
+  }
+  const check = (text: string, fingerprint: string) => {
+    const file = join(mkdtempSync(join(tmpdir(), 'chargewell-period-')), 'period.ndjson')
+    writeFileSync(file, text)
+    return spawnSync(process.execPath, [checker, file, '--key', fingerprint], { encoding: 'utf8' })
+  }
+  const entriesOf = (text: string) => text.trimEnd().split('\n').slice(1, -1).map(line => JSON.parse(line))
+
+  it('is the period\'s unbroken run of the chain, linked to its anchor and signed, checked offline', async () => {
+    const { fingerprint } = (await verify()).signingKey
+    const whole = entriesOf((await exportOf('')).text)
+    const { text, name } = await exportOf('?from=2026-06-01&to=2026-08-31')
+    expect(name).toContain('chargewell-audit-2026-06-01-to-2026-08-31.ndjson')
+    const lines = text.trimEnd().split('\n')
+    const header = JSON.parse(lines[0]!)
+    expect(header).toMatchObject({ version: 3, period: { from: '2026-06-01', to: '2026-08-31', fromInstant: '2026-06-01T00:00:00.000Z', untilInstant: '2026-09-01T00:00:00.000Z' } })
+    const entries = entriesOf(text)
+    // Every entry dated in the period is there, and the run is the whole chain's entries from its first to its last.
+    const dated = whole.filter(entry => entry.at >= '2026-06-01' && entry.at < '2026-09-01')
+    expect(dated.length).toBeGreaterThan(5)
+    expect(entries.map(entry => entry.id)).toEqual(expect.arrayContaining(dated.map(entry => entry.id)))
+    const first = whole.findIndex(entry => entry.id === entries[0].id)
+    expect(entries).toEqual(whole.slice(first, first + entries.length))
+    // Anchored on the entry before the run: its hash is what the run's first entry links to.
+    expect(header.anchor).toEqual(first === 0 ? { entryId: null, hash: '0'.repeat(64) } : { entryId: whole[first - 1].id, hash: whole[first - 1].hash })
+    expect(entries[0].previousHash).toBe(header.anchor.hash)
+    const checked = check(text, fingerprint)
+    expect(checked.status, checked.stderr).toBe(0)
+    expect(checked.stdout).toContain(`INTACT: ${entries.length} entries (${dated.length} dated in the period`)
+    expect(checked.stdout).toContain(`of the period 2026-06-01 to 2026-08-31`)
+    // Another anchor in the header: the run no longer links to it, and the signature (over the header too) fails.
+    const moved = [JSON.stringify({ ...header, anchor: { entryId: 1, hash: 'f'.repeat(64) } }), ...lines.slice(1)].join('\n')
+    const refused = check(`${moved}\n`, fingerprint)
+    expect(refused.status).toBe(1)
+    expect(refused.stderr).toMatch(/does not link to the entry before it[\s\S]*signature does not verify/)
+    // An entry of the run left out: refused.
+    const cut = [...lines.slice(0, 2), ...lines.slice(3)].join('\n')
+    expect(check(`${cut}\n`, fingerprint).status).toBe(1)
+  })
+
+  it('an empty period is an empty signed run; a half-given or backwards period is named', async () => {
+    const { fingerprint } = (await verify()).signingKey
+    const { text } = await exportOf('?from=1990-01-01&to=1990-12-31')
+    expect(JSON.parse(text.split('\n')[0]!).anchor).toEqual({ entryId: null, hash: '0'.repeat(64) })
+    expect(entriesOf(text)).toEqual([])
+    const checked = check(text, fingerprint)
+    expect(checked.status, checked.stderr).toBe(0)
+    expect(checked.stdout).toMatch(/^INTACT: 0 entries/)
+    const half = await api('/api/audit/export?from=2026-01-01', { cookie: admin })
+    expect(half.status).toBe(400)
+    expect(JSON.stringify(half.body)).toMatch(/both the first and the last date/)
+    const backwards = await api('/api/audit/export?from=2026-02-01&to=2026-01-01', { cookie: admin })
+    expect(backwards.status).toBe(400)
+    expect(backwards.body.data.issues[0].field).toBe('to')
+  })
+})
+
 describe('cutting or rebuilding the chain is caught (the chain stays broken after these)', () => {
   it('deleting the newest audit entries', async () => {
     const path = fileDatabase()
