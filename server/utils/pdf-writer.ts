@@ -50,7 +50,7 @@ const fontkitOnce: typeof fontkit = {
 }
 
 /** How many laid-out pieces of text each font keeps (the glyphs only: references to the font's own). */
-const LAYOUTS_KEPT = 20_000
+const LAYOUTS_KEPT = 2_000
 
 /**
  * pdf-lib lays text out (OpenType shaping) to draw it and again to measure it, and reads only the glyphs
