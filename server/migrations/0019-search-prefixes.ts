@@ -28,18 +28,7 @@ export async function up(queryInterface: QueryInterface): Promise<void> {
     oldest_id INTEGER NOT NULL,
     PRIMARY KEY (column_name, prefix)
   ) WITHOUT ROWID`)
-  // Filled from the worksheets there are: each prefix's newest and oldest (date, then id) in one pass per column.
-  const key = `created_at || char(1) || printf('%015d', id)`
-  const at = (value: string) => `substr(${value}, 1, instr(${value}, char(1)) - 1)`
-  const id = (value: string) => `CAST(substr(${value}, instr(${value}, char(1)) + 1) AS INTEGER)`
-  for (const column of SEARCHED) {
-    await sequelize.query(`INSERT INTO search_prefixes
-      SELECT '${column}', prefix, ${at('newest')}, ${id('newest')}, ${at('oldest')}, ${id('oldest')} FROM (
-        SELECT substr(lower(${column}), 1, lengths.n) AS prefix, max(${key}) AS newest, min(${key}) AS oldest
-        FROM worksheets JOIN ${LENGTHS} AS lengths ON lengths.n < length(${column})
-        GROUP BY prefix
-      )`)
-  }
+  await fillSearchPrefixes(queryInterface)
   for (const [event, when] of [['insert', 'AFTER INSERT'], ['update', `AFTER UPDATE OF ${SEARCHED.join(', ')}`]] as const) {
     const statements = SEARCHED.map(column => `
       INSERT INTO search_prefixes
@@ -52,6 +41,26 @@ export async function up(queryInterface: QueryInterface): Promise<void> {
         oldest_id = CASE WHEN (excluded.oldest_at, excluded.oldest_id) < (oldest_at, oldest_id) THEN excluded.oldest_id ELSE oldest_id END;`)
     await sequelize.query(`CREATE TRIGGER worksheets_search_prefixes_${event} ${when} ON worksheets BEGIN${statements.join('')}
     END`)
+  }
+}
+
+/**
+ * SQLite: the table filled afresh from the worksheets there are, each prefix's newest and oldest (date, then
+ * id) in one pass per column (also after a bulk load that ran without the triggers).
+ */
+export async function fillSearchPrefixes(queryInterface: QueryInterface): Promise<void> {
+  const sequelize = queryInterface.sequelize
+  await sequelize.query('DELETE FROM search_prefixes')
+  const key = `created_at || char(1) || printf('%015d', id)`
+  const at = (value: string) => `substr(${value}, 1, instr(${value}, char(1)) - 1)`
+  const id = (value: string) => `CAST(substr(${value}, instr(${value}, char(1)) + 1) AS INTEGER)`
+  for (const column of SEARCHED) {
+    await sequelize.query(`INSERT INTO search_prefixes
+      SELECT '${column}', prefix, ${at('newest')}, ${id('newest')}, ${at('oldest')}, ${id('oldest')} FROM (
+        SELECT substr(lower(${column}), 1, lengths.n) AS prefix, max(${key}) AS newest, min(${key}) AS oldest
+        FROM worksheets JOIN ${LENGTHS} AS lengths ON lengths.n < length(${column})
+        GROUP BY prefix
+      )`)
   }
 }
 

@@ -7,6 +7,7 @@ import { ENGINE_VERSION } from '#shared/gas/version'
 import type { RecordsArchiveQuery } from '#shared/schemas/records-archive'
 import { auditExportLines } from '../database/audit-chain'
 import { Aircraft, Operator, Worksheet, type User } from '../models'
+import { withTightHeap } from '../utils/heap'
 import { logger } from '../utils/logger'
 import { exportPeriod } from './audit'
 import { worksheetRecordPdf } from './record-export'
@@ -159,7 +160,7 @@ export function recordsArchive(event: H3Event, actor: User, query: RecordsArchiv
     await appended(archive, Buffer.from(`${JSON.stringify(manifest, null, 2)}\n`), 'manifest.json')
     await archive.finalize()
   }
-  produce().catch((error) => {
+  withTightHeap(produce).catch((error) => {
     logger.error({ reqId: event.context.requestId, err: error }, 'records archive failed')
     archive.abort()
   })

@@ -12,6 +12,7 @@ import { isPostgresUrl, openDatabase } from '../../server/database/connection'
 import { hashOfRow, recordHashes, type RecordKindName } from '../../server/database/record-hash'
 import { sqliteDateText } from '../../server/utils/stored-date'
 import { rebuildTrends } from '../../server/services/unit-trends'
+import { fillSearchPrefixes } from '../../server/migrations/0019-search-prefixes'
 import { createWriteQueue } from '../../server/database/write-queue'
 import {
   Accumulator, AccumulatorInstallation, Aircraft, AuditEvent, AuditHead, CycleCheck, listColumns, Signature,
@@ -158,6 +159,20 @@ async function dropSecondaryIndexes(sequelize: Sequelize, tables: string[]): Pro
 }
 
 /**
+ * SQLite: drops the worksheets' search-prefix triggers (migration 0019) for the load and returns their
+ * statements: the table is filled once from the loaded rows after (row by row they were ~30 upserts a worksheet).
+ */
+async function dropSearchPrefixTriggers(sequelize: Sequelize): Promise<string[]> {
+  if (sequelize.getDialect() === 'postgres') return []
+  const rows = await sequelize.query<{ name: string, definition: string }>(
+    `SELECT name, sql AS definition FROM sqlite_master WHERE type = 'trigger' AND tbl_name = 'worksheets'`,
+    { type: QueryTypes.SELECT },
+  )
+  for (const row of rows) await sequelize.query(`DROP TRIGGER \`${row.name}\``)
+  return rows.map(row => row.definition)
+}
+
+/**
  * A database that looks like a fleet of `count` worksheets: the demo fleet (6 aircraft, 21 units, a
  * year of released work, monthly pump-cycle checks, some open work) copied whole — aircraft, units,
  * installations, open work — as many times as `count` needs with at most ten years of history per
@@ -216,7 +231,8 @@ export async function buildScaleDatabase(
     // building an index from a full table sorts once, where keeping twenty indexes up to date row by row
     // was most of the build's database time. Unique indexes are rebuilt too, so a duplicate still fails.
     const indexes = await dropSecondaryIndexes(sequelize, BULK_TABLES)
-    log(`  ${indexes.length} indexes set aside while loading`)
+    const triggers = await dropSearchPrefixTriggers(sequelize)
+    log(`  ${indexes.length} indexes and ${triggers.length} triggers set aside while loading`)
 
     // The fleet copies: copy c's aircraft and units, by the originals' ids.
     const aircraftOf: Map<number, Aircraft>[] = [new Map(fleet.map(row => [row.id, row]))]
@@ -389,7 +405,11 @@ export async function buildScaleDatabase(
     log(`  ${checkCount + checks.length} pump-cycle checks`)
     const indexing = Date.now()
     for (const definition of indexes) await sequelize.query(definition)
-    log(`  ${indexes.length} indexes built in ${((Date.now() - indexing) / 1000).toFixed(1)} s`)
+    if (triggers.length) {
+      await fillSearchPrefixes(sequelize.getQueryInterface())
+      for (const definition of triggers) await sequelize.query(definition)
+    }
+    log(`  ${indexes.length} indexes built${triggers.length ? ' and the search prefixes filled' : ''} in ${((Date.now() - indexing) / 1000).toFixed(1)} s`)
     // Rows went in with their ids: PostgreSQL's id sequences are moved past them, or the server's next row would clash.
     if (postgres) {
       for (const table of BULK_TABLES)
