@@ -9,7 +9,7 @@ import { spawn } from 'node:child_process'
 import { cpSync, existsSync, readdirSync, readFileSync, truncateSync, writeFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, inject, it, onTestFailed } from 'vitest'
-import { DEMO, DEMO_PASSWORD } from '../support/api'
+import { DEMO, signInAt } from '../support/api'
 import { createPostgresDatabase, dropPostgresDatabase, isPostgresUrl } from '../support/postgres'
 import { startTestServer, type TestServer } from '../support/test-server'
 
@@ -45,12 +45,6 @@ function task(name: 'db:backup' | 'db:restore', args: string[]): Promise<{ code:
   })
 }
 
-async function signIn(baseURL: string, email: string): Promise<string> {
-  const response = await fetch(`${baseURL}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) })
-  expect(response.status).toBe(200)
-  return response.headers.getSetCookie().map(line => line.split(';')[0]).join('; ')
-}
-
 async function call(baseURL: string, path: string, cookie: string, method = 'GET', body?: unknown) {
   const response = await fetch(`${baseURL}${path}`, { method, headers: { 'content-type': 'application/json', cookie }, body: body === undefined ? undefined : JSON.stringify(body) })
   return { status: response.status, body: await response.json() }
@@ -69,7 +63,7 @@ let backupFolder = ''
 describe('backup and restore', () => {
   it('backs up while 9 writers write; the restore holds every acknowledged write and its trail verifies', { timeout: 180_000 }, async () => {
     onTestFailed(() => console.error(server.log.join('')))
-    const technician = await signIn(server.baseURL, DEMO.technician)
+    const technician = await signInAt(server.baseURL, DEMO.technician)
     const units = (await call(server.baseURL, '/api/accumulators?installed=true&pageSize=50', technician)).body.items as { id: number }[]
     const acknowledged: { id: number, at: number }[] = []
     let running = true
@@ -110,7 +104,7 @@ describe('backup and restore', () => {
       : { NUXT_DB_PATH: target }
     const restored = await startTestServer(restoredDatabase)
     try {
-      const admin = await signIn(restored.baseURL, DEMO.admin)
+      const admin = await signInAt(restored.baseURL, DEMO.admin)
       for (const id of before) {
         const worksheet = await call(restored.baseURL, `/api/worksheets/${id}`, admin)
         expect(worksheet.status, `worksheet ${id}`).toBe(200)

@@ -4,7 +4,7 @@
  * synchronous=FULL commits before the answer is sent.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { DEMO, DEMO_PASSWORD } from '../support/api'
+import { DEMO, signInAt } from '../support/api'
 import { startTestServer, type TestServer } from '../support/test-server'
 
 let server: TestServer
@@ -15,11 +15,7 @@ afterAll(async () => {
   await server.dispose()
 })
 
-async function signIn(email: string): Promise<string> {
-  const response = await fetch(`${server.baseURL}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) })
-  expect(response.status).toBe(200)
-  return response.headers.getSetCookie().map(line => line.split(';')[0]).join('; ')
-}
+const signIn = (email: string) => signInAt(server.baseURL, email)
 
 async function call(path: string, cookie: string, method: string, body: unknown) {
   const response = await fetch(`${server.baseURL}${path}`, { method, headers: { 'content-type': 'application/json', cookie }, body: JSON.stringify(body) })

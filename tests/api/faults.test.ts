@@ -9,7 +9,7 @@ import { closeSync, copyFileSync, mkdirSync, mkdtempSync, openSync, rmSync, writ
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
-import { DEMO, DEMO_PASSWORD } from '../support/api'
+import { DEMO, signInAt } from '../support/api'
 import { isPostgresUrl } from '../support/postgres'
 import { startTestServer, type TestServer } from '../support/test-server'
 
@@ -58,11 +58,7 @@ function fillTheDisk() {
   }
 }
 
-async function signIn(email: string): Promise<string> {
-  const response = await fetch(`${server.baseURL}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) })
-  expect(response.status).toBe(200)
-  return response.headers.getSetCookie().map(line => line.split(';')[0]).join('; ')
-}
+const signIn = (email: string) => signInAt(server.baseURL, email)
 const call = async (path: string, cookie: string, init: { method?: string, body?: unknown } = {}) => {
   const response = await fetch(`${server.baseURL}${path}`, {
     method: init.method ?? 'GET',

@@ -4,7 +4,7 @@
  * entries it wrote; /api/health/live (up) apart from /api/health/ready (migrations, database, secrets).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { DEMO, DEMO_PASSWORD } from '../support/api'
+import { DEMO, signInAt } from '../support/api'
 import { startTestServer, type TestServer } from '../support/test-server'
 
 const TOKEN = 'metrics-token-only-for-this-test'
@@ -16,11 +16,7 @@ afterAll(async () => {
   await server?.dispose()
 })
 
-async function signIn(email: string): Promise<string> {
-  const response = await fetch(`${server.baseURL}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) })
-  expect(response.status).toBe(200)
-  return response.headers.getSetCookie().map(line => line.split(';')[0]).join('; ')
-}
+const signIn = (email: string) => signInAt(server.baseURL, email)
 
 describe('operations', () => {
   it('/metrics refuses without its token and exposes the named series', async () => {

@@ -7,7 +7,7 @@ import { createServer, type Server, type Socket } from 'node:net'
 import { simpleParser } from 'mailparser'
 import { SMTPServer } from 'smtp-server'
 import { afterAll, beforeAll, describe, expect, it, onTestFailed } from 'vitest'
-import { DEMO, DEMO_PASSWORD } from '../support/api'
+import { DEMO, signInAt } from '../support/api'
 import { freePort } from '../support/ports'
 import { startTestServer, type TestServer } from '../support/test-server'
 
@@ -34,11 +34,7 @@ afterAll(async () => {
   hanging?.close()
 })
 
-async function signIn(email: string): Promise<string> {
-  const response = await fetch(`${server.baseURL}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) })
-  expect(response.status).toBe(200)
-  return response.headers.getSetCookie().map(line => line.split(';')[0]).join('; ')
-}
+const signIn = (email: string) => signInAt(server.baseURL, email)
 const get = async (path: string, cookie: string) => (await fetch(`${server.baseURL}${path}`, { headers: { cookie } })).json()
 
 describe('an SMTP server that hangs', () => {

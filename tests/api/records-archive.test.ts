@@ -17,7 +17,7 @@ import { pipeline } from 'node:stream/promises'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import yauzl from 'yauzl'
 import { buildScaleDatabase } from '../bench/scale-database'
-import { DEMO, DEMO_PASSWORD } from '../support/api'
+import { DEMO, signInAt } from '../support/api'
 import { isPostgresUrl } from '../support/postgres'
 import { startTestServer, type TestServer } from '../support/test-server'
 
@@ -35,12 +35,6 @@ afterAll(async () => {
   await server?.dispose()
   rmSync(folder, { recursive: true, force: true })
 })
-
-async function signIn(baseURL: string, email: string): Promise<string> {
-  const response = await fetch(`${baseURL}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) })
-  expect(response.status).toBe(200)
-  return response.headers.getSetCookie().map(line => line.split(';')[0]).join('; ')
-}
 
 /** Downloads the archive to a file; answers the file. */
 async function download(baseURL: string, query: string, cookie: string, name: string, during?: () => void) {
@@ -103,7 +97,7 @@ async function checkArchive(file: string) {
 
 describe('the records archive', () => {
   it('holds each released record as a PDF and a line, with a manifest whose sums match', { timeout: 120_000 }, async () => {
-    const admin = await signIn(server.baseURL, DEMO.admin)
+    const admin = await signInAt(server.baseURL, DEMO.admin)
     const file = await download(server.baseURL, 'from=2000-01-01&to=2100-12-31', admin, 'all.zip')
     const { entries, manifest } = await checkArchive(file)
     const lines = entries.get('records.ndjson')!.text!.trim().split('\n').map(line => JSON.parse(line))
@@ -148,7 +142,7 @@ describe('the records archive', () => {
   })
 
   it('names bad input, and refuses everyone but administrators', async () => {
-    const admin = await signIn(server.baseURL, DEMO.admin)
+    const admin = await signInAt(server.baseURL, DEMO.admin)
     const bad = await fetch(`${server.baseURL}/api/records/archive?from=2026-02-30&to=2026-01-01`, { headers: { cookie: admin } })
     expect(bad.status).toBe(400)
     expect(JSON.stringify(await bad.json())).toContain('from')
@@ -156,7 +150,7 @@ describe('the records archive', () => {
     expect(backwards.status).toBe(400)
     expect(JSON.stringify(await backwards.json())).toContain('cannot come before')
     for (const role of ['technician', 'inspector', 'engineer'] as const) {
-      const cookie = await signIn(server.baseURL, DEMO[role])
+      const cookie = await signInAt(server.baseURL, DEMO[role])
       expect((await fetch(`${server.baseURL}/api/records/archive?from=2026-01-01&to=2026-12-31`, { headers: { cookie } })).status).toBe(403)
     }
   })
@@ -174,7 +168,7 @@ describe('the records archive', () => {
         const text = await (await fetch(`${fleet.baseURL}/metrics`, { headers: { authorization: `Bearer ${TOKEN}` } })).text()
         return Number(/^process_resident_memory_bytes\{[^}]*\} (\d+)/m.exec(text)![1])
       }
-      const admin = await signIn(fleet.baseURL, DEMO.admin)
+      const admin = await signInAt(fleet.baseURL, DEMO.admin)
       // Warmed up first (fonts parsed, code compiled, the heap grown to its working size) with a short period:
       // what is measured is growth with the number of records, not the first PDF's one-off cost.
       await download(fleet.baseURL, 'from=2000-01-01&to=2018-03-31', admin, 'warm-up.zip')

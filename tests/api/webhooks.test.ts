@@ -11,7 +11,7 @@ import { createServer, type IncomingHttpHeaders, type Server } from 'node:http'
 import { Webhook } from 'standardwebhooks'
 import type { WebhookDeliveryDto } from '../../shared/types/webhook'
 import { afterAll, beforeAll, describe, expect, it, onTestFailed } from 'vitest'
-import { DEMO, DEMO_PASSWORD } from '../support/api'
+import { DEMO, DEMO_PASSWORD, signInAt } from '../support/api'
 import { freePort } from '../support/ports'
 import { startTestServer, type TestServer } from '../support/test-server'
 
@@ -81,11 +81,7 @@ afterAll(async () => {
   await server?.dispose()
 })
 
-async function signIn(email: string): Promise<string> {
-  const response = await fetch(`${server.baseURL}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) })
-  expect(response.status).toBe(200)
-  return response.headers.getSetCookie().map(line => line.split(';')[0]).join('; ')
-}
+const signIn = (email: string) => signInAt(server.baseURL, email)
 
 async function call(path: string, cookie: string, body?: unknown, method = body === undefined ? 'GET' : 'POST') {
   const response = await fetch(`${server.baseURL}${path}`, {

@@ -76,6 +76,18 @@ export async function signIn(email: string, password = DEMO_PASSWORD): Promise<s
   return cookie
 }
 
+/** Signs in to a server the test started itself (not the file's own, not cached); answers the session cookie. */
+export async function signInAt(baseURL: string, email: string, password = DEMO_PASSWORD): Promise<string> {
+  const response = await fetch(`${baseURL}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password }),
+  })
+  if (response.status !== 200)
+    throw new Error(`Sign-in of ${email} at ${baseURL} failed with ${response.status}: ${await response.text()}`)
+  return response.headers.getSetCookie().map(line => line.split(';')[0]).join('; ')
+}
+
 /** Multipart upload with the session cookie. */
 export async function upload(
   path: string,
