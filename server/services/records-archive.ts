@@ -80,9 +80,18 @@ function hashing(path: string, files: ManifestFile[]) {
   }
 }
 
-/** Waits until the archive has taken an entry in, so the next is made only then (flat memory). */
-function appended(archive: Archiver, source: Buffer | Readable, name: string, store = false): Promise<void> {
-  return new Promise((done, fail) => {
+/**
+ * Waits until the archive has taken an entry in, so the next is made only then (flat memory), or until the
+ * download is closed (`closed` rejects): an entry is never taken once nobody reads the archive.
+ */
+function appended(
+  archive: Archiver,
+  closed: Promise<never>,
+  source: Buffer | Readable,
+  name: string,
+  store = false,
+): Promise<void> {
+  return Promise.race([closed, new Promise<void>((done, fail) => {
     const onEntry = (entry: EntryData) => {
       if (entry.name !== name) return
       archive.off('entry', onEntry)
@@ -92,13 +101,19 @@ function appended(archive: Archiver, source: Buffer | Readable, name: string, st
     archive.on('entry', onEntry)
     archive.once('error', fail)
     archive.append(source, { name, store })
-  })
+  })])
 }
 
 /** The archive as a stream; the caller sends it. Errors end it without a manifest (so a cut archive shows). */
 export function recordsArchive(event: H3Event, actor: User, query: RecordsArchiveQuery, scope: Scope): Readable {
   const archive = new ZipArchive({ zlib: { level: 6 } })
   const files: ManifestFile[] = []
+  // A download closed before the end (the browser cancelled it) ends the work, and with it the tight heap.
+  const cancelled = new Error('The download was closed before the archive was complete.')
+  const closed = new Promise<never>((_, fail) => event.node.res.once('close', () => {
+    if (!event.node.res.writableFinished) fail(cancelled)
+  }))
+  closed.catch(() => undefined)
   const produce = async () => {
     // records.ndjson: streamed as its own entry while it is read, batch by batch. The ids are kept (numbers
     // only), so the PDFs are of exactly these records even if another is released meanwhile.
@@ -114,14 +129,14 @@ export function recordsArchive(event: H3Event, actor: User, query: RecordsArchiv
       }
       ndjson.done()
     }
-    await appended(archive, Readable.from(lines()), 'records.ndjson')
+    await appended(archive, closed, Readable.from(lines()), 'records.ndjson')
     // One PDF at a time, each made when the archive has taken the one before.
     for (const id of taken) {
       const path = `records/worksheet-${id}.pdf`
       const pdf = hashing(path, files)
       const bytes = pdf.add(await worksheetRecordPdf(event, id, scope))
       pdf.done()
-      await appended(archive, bytes, path, true)
+      await appended(archive, closed, bytes, path, true)
     }
     // The period's signed run of the audit chain; its header (period, anchor) and signature line are kept for
     // the manifest.
@@ -136,7 +151,7 @@ export function recordsArchive(event: H3Event, actor: User, query: RecordsArchiv
       }
       audit.done()
     }
-    await appended(archive, Readable.from(auditLines()), 'audit-trail.ndjson')
+    await appended(archive, closed, Readable.from(auditLines()), 'audit-trail.ndjson')
     const signed = JSON.parse(trailer) as { entries: number, lastHash: string }
     const manifest = {
       format: 'chargewell-records-archive/1',
@@ -157,11 +172,12 @@ export function recordsArchive(event: H3Event, actor: User, query: RecordsArchiv
       },
       files,
     }
-    await appended(archive, Buffer.from(`${JSON.stringify(manifest, null, 2)}\n`), 'manifest.json')
+    await appended(archive, closed, Buffer.from(`${JSON.stringify(manifest, null, 2)}\n`), 'manifest.json')
     await archive.finalize()
   }
   withTightHeap(produce).catch((error) => {
-    logger.error({ reqId: event.context.requestId, err: error }, 'records archive failed')
+    if (error === cancelled) logger.info({ reqId: event.context.requestId }, 'records archive cancelled by the client')
+    else logger.error({ reqId: event.context.requestId, err: error }, 'records archive failed')
     archive.abort()
   })
   return archive

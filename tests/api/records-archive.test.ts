@@ -155,6 +155,20 @@ describe('the records archive', () => {
     }
   })
 
+  it('stops making the archive when the download is closed before its end', async () => {
+    const admin = await signInAt(server.baseURL, DEMO.admin)
+    const control = new AbortController()
+    const response = await fetch(`${server.baseURL}/api/records/archive?from=2000-01-01&to=2100-12-31`, { headers: { cookie: admin }, signal: control.signal })
+    let bytes = 0
+    await expect((async () => {
+      for await (const chunk of Readable.fromWeb(response.body! as never)) {
+        bytes += chunk.length
+        if (bytes > 100_000) control.abort()
+      }
+    })()).rejects.toThrow()
+    await expect.poll(() => server.log.join('')).toContain('records archive cancelled by the client')
+  })
+
   it('streams a fleet\'s released records with the server\'s memory growing by less than 100 MB', { timeout: 2_400_000 }, async () => {
     // SQLite only: the fleet-sized database is built by the scale benchmark's builder (PostgreSQL runs the rest).
     if (isPostgresUrl(server.database)) return
